@@ -1,0 +1,56 @@
+/* cmd-export.c: starledger-cli export PROJECT [-o FILE] [--columns A,B,...] */
+#include <glib/gi18n.h>
+#include <stdio.h>
+#include <string.h>
+
+#include "cli.h"
+#include "export.h"
+
+int
+sl_cli_export (int argc, char **argv)
+{
+  g_autofree char *output = NULL;
+  g_autofree char *format = NULL;
+  g_autofree char *columns_text = NULL;
+  const GOptionEntry entries[] = {
+    { "output", 'o', 0, G_OPTION_ARG_FILENAME, &output,
+      N_("Write to FILE (default and '-': standard output)"), N_("FILE") },
+    { "format", 0, 0, G_OPTION_ARG_STRING, &format,
+      N_("Table format: csv (default)"), N_("FORMAT") },
+    { "columns", 0, 0, G_OPTION_ARG_STRING, &columns_text,
+      N_("Only these quantities, comma-separated (id always comes first)"), N_("A,B,…") },
+    { NULL }
+  };
+  g_autoptr (GOptionContext) context =
+    sl_cli_context_new ("export", _("PROJECT"), _("Write the stars' values as a CSV table."),
+                        _("One row per star. Each number q is written as three columns: q, q_lo "
+                          "and q_hi, the value and the bounds of its 68% interval; an empty cell "
+                          "means no value.\nRight ascension and declination are ICRS, in degrees, "
+                          "at the epoch in the epoch column.\nWhere several sources measured a "
+                          "star, each group of values (position, parallax, proper motion, each "
+                          "magnitude) comes from the measurement with the smallest uncertainty."),
+                        entries);
+  g_auto (GStrv) columns = NULL;
+  g_autoptr (SlProject) project = NULL;
+  g_autoptr (GError) error = NULL;
+  SlExportOptions options = { NULL, NULL };
+
+  if (!sl_cli_parse (context, "export", &argc, &argv, 1))
+    return SL_EXIT_USAGE;
+  if (format != NULL && strcmp (format, "csv") != 0)
+    return sl_cli_usage_error ("export", _("--format %s: the formats are: csv"), format);
+  if (columns_text != NULL)
+    {
+      columns = g_strsplit (columns_text, ",", -1);
+      for (guint i = 0; columns[i]; i++)
+        g_strstrip (columns[i]);
+      options.columns = (const char *const *) columns;
+    }
+
+  project = sl_cli_open_project (argv[1]);
+  if (project == NULL)
+    return SL_EXIT_FAILURE;
+  if (sl_export_csv (project, output ? output : "-", &options, &error) < 0)
+    return sl_cli_fail (error);
+  return SL_EXIT_OK;
+}

@@ -1,0 +1,102 @@
+/* cmd-summary.c: starledger-cli summary PROJECT [--stars N] */
+#include <glib/gi18n.h>
+#include <math.h>
+#include <stdio.h>
+
+#include "cli.h"
+#include "inputs.h"
+#include "summary.h"
+#include "units.h"
+
+static void
+print_sources (const SlProjectSummary *summary)
+{
+  printf (_("Sources:\n"));
+  for (guint i = 0; i < summary->sources->len; i++)
+    {
+      const SlSourceInfo *s = summary->sources->pdata[i];
+
+      printf (_("  %" G_GINT64_FORMAT "  %s (%s), imported %s by %s: %" G_GINT64_FORMAT
+                " rows accepted, %" G_GINT64_FORMAT " rejected\n"),
+              s->id, s->name, s->file_name, s->imported_at, s->imported_by,
+              s->rows_accepted, s->rows_rejected);
+    }
+}
+
+static void
+print_value (double value, gboolean present, int decimals, int width)
+{
+  char buf[G_ASCII_DTOSTR_BUF_SIZE];
+  g_autofree char *format = g_strdup_printf ("%%.%df", decimals);
+
+  if (present)
+    printf (" %*s", width, g_ascii_formatd (buf, sizeof buf, format, value));
+  else
+    printf (" %*s", width, "");
+}
+
+static gboolean
+print_stars (SlProject *project, gint64 n_stars, int limit, GError **error)
+{
+  g_autoptr (SlInputCursor) cursor = sl_input_cursor_new (project, 0, error);
+  SlStarInputs in;
+  int shown = 0;
+
+  if (cursor == NULL)
+    return FALSE;
+  printf (_("Stars (the first %d of %" G_GINT64_FORMAT "; positions ICRS at the epoch shown):\n"),
+          (int) MIN (limit, n_stars), n_stars);
+  printf ("  %-10s %-14s %-13s %7s %9s %7s %6s %6s  %s\n", _("id"), _("RA (h m s)"),
+          _("Dec (d m s)"), _("epoch"), _("parallax"), "±", "V", "B-V", _("spectral type"));
+  while (shown < limit && sl_input_cursor_next (cursor, &in, error))
+    {
+      g_autofree char *ra = sl_format_sexagesimal (in.value[SL_FIELD_RA], TRUE, 3);
+      g_autofree char *dec = sl_format_sexagesimal (in.value[SL_FIELD_DEC], FALSE, 2);
+
+      printf ("  %-10s %-14s %-13s", in.designation, ra, dec);
+      print_value (in.value[SL_FIELD_EPOCH], in.present[SL_FIELD_EPOCH], 2, 7);
+      print_value (in.value[SL_FIELD_PARALLAX], in.present[SL_FIELD_PARALLAX], 3, 9);
+      print_value (in.value[SL_FIELD_PARALLAX_ERR], in.present[SL_FIELD_PARALLAX_ERR], 3, 7);
+      print_value (in.value[SL_FIELD_VMAG], in.present[SL_FIELD_VMAG], 2, 6);
+      print_value (in.value[SL_FIELD_BV], in.present[SL_FIELD_BV], 2, 6);
+      printf ("  %s\n", in.sptype ? in.sptype : "");
+      shown++;
+    }
+  return error == NULL || *error == NULL;
+}
+
+int
+sl_cli_summary (int argc, char **argv)
+{
+  int limit = 10;
+  const GOptionEntry entries[] = {
+    { "stars", 'n', 0, G_OPTION_ARG_INT, &limit, N_("Show the first N stars (default 10)"), N_("N") },
+    { NULL }
+  };
+  g_autoptr (GOptionContext) context =
+    sl_cli_context_new ("summary", _("PROJECT"), _("Show what a project holds."), NULL, entries);
+  g_autoptr (SlProject) project = NULL;
+  g_autoptr (SlProjectSummary) summary = NULL;
+  g_autoptr (GError) error = NULL;
+
+  if (!sl_cli_parse (context, "summary", &argc, &argv, 1))
+    return SL_EXIT_USAGE;
+  if (limit < 0)
+    return sl_cli_usage_error ("summary", _("--stars must not be negative"));
+  project = sl_cli_open_project (argv[1]);
+  if (project == NULL)
+    return SL_EXIT_FAILURE;
+  summary = sl_project_summary (project, &error);
+  if (summary == NULL)
+    return sl_cli_fail (error);
+
+  printf (_("Project %s (schema version %d)\n"), argv[1], summary->schema_version);
+  printf (_("  %" G_GINT64_FORMAT " stars, %" G_GINT64_FORMAT " measurements from %u sources, %"
+            G_GINT64_FORMAT " rejected rows, %" G_GINT64_FORMAT " ledger entries\n"),
+          summary->n_stars, summary->n_measurements, summary->sources->len,
+          summary->n_rejected, summary->n_ledger);
+  print_sources (summary);
+  if (limit > 0 && summary->n_stars > 0 && !print_stars (project, summary->n_stars, limit, &error))
+    return sl_cli_fail (error);
+  return SL_EXIT_OK;
+}

@@ -1,0 +1,899 @@
+/* import.c: CSV file -> source, measurements and rejected rows.
+ *
+ * Contents:
+ *   column mappings ........ sl_column_map_parse, resolve_columns
+ *   cell conversion ........ convert_cell
+ *   database writes ........ ImportStatements, store_measurement, store_rejection
+ *   the import ............. sl_import_csv
+ */
+#include "import.h"
+
+#include <glib/gi18n.h>
+#include <math.h>
+#include <string.h>
+
+#include "csv-reader.h"
+#include "ledger.h"
+#include "sl-error.h"
+#include "util.h"
+
+/* How many rows between progress reports and cancellation checks. */
+#define ROWS_PER_CHECK 4096
+
+void
+sl_import_options_init (SlImportOptions *options)
+{
+  memset (options, 0, sizeof *options);
+  options->epoch = NAN;
+}
+
+/* ------------------------------------------------------------------ */
+/* Column mappings                                                    */
+
+gboolean
+sl_column_map_parse (const char *spec, SlColumnMap *map, GError **error)
+{
+  const char *equals = strchr (spec, '=');
+  const char *colon;
+  g_autofree char *field_name = NULL;
+
+  memset (map, 0, sizeof *map);
+  if (equals == NULL || equals == spec || equals[1] == '\0')
+    {
+      g_set_error (error, SL_ERROR, SL_ERROR_BAD_MAPPING,
+                   _("--map %s: expected FIELD=COLUMN or FIELD=COLUMN:UNIT"), spec);
+      return FALSE;
+    }
+  field_name = g_strndup (spec, equals - spec);
+  if (!sl_field_from_name (field_name, &map->field))
+    {
+      g_set_error (error, SL_ERROR, SL_ERROR_BAD_MAPPING,
+                   _("--map %s: '%s' is not a field; see 'starledger-cli import --help'"),
+                   spec, field_name);
+      return FALSE;
+    }
+
+  colon = strrchr (equals + 1, ':');
+  if (colon != NULL && colon > equals + 1 && sl_unit_from_name (colon + 1, &map->unit))
+    map->column = g_strndup (equals + 1, colon - (equals + 1));
+  else
+    {
+      map->column = g_strdup (equals + 1);
+      map->unit = SL_UNIT_NONE;
+    }
+
+  if (!sl_field_accepts_unit (map->field, map->unit))
+    {
+      g_set_error (error, SL_ERROR, SL_ERROR_BAD_MAPPING,
+                   _("--map %s: unit %s does not apply to %s (stored in %s)"),
+                   spec, sl_unit_name (map->unit), sl_field_info (map->field)->name,
+                   sl_unit_name (sl_field_info (map->field)->canonical));
+      g_clear_pointer (&map->column, g_free);
+      return FALSE;
+    }
+  return TRUE;
+}
+
+void
+sl_column_map_clear (SlColumnMap *map)
+{
+  g_clear_pointer (&map->column, g_free);
+}
+
+/* Where each field comes from in this file. */
+typedef struct {
+  int    column[SL_N_FIELDS];  /* index into the record, or -1 */
+  SlUnit unit[SL_N_FIELDS];    /* unit of the column as written */
+  guint  n_columns;            /* fields in the header */
+  guint  header_line;
+} ColumnPlan;
+
+static int
+find_header_column (const SlCsvRecord *header, const char *name)
+{
+  int found = -1;
+
+  for (guint i = 0; i < header->n_fields; i++)
+    if (strcmp (header->fields[i], name) == 0)
+      return (int) i;
+  /* Fall back to a case-insensitive match if it is unique. */
+  for (guint i = 0; i < header->n_fields; i++)
+    if (g_ascii_strcasecmp (header->fields[i], name) == 0)
+      {
+        if (found >= 0)
+          return -2;
+        found = (int) i;
+      }
+  return found;
+}
+
+static gboolean
+check_header_unique (const SlCsvRecord *header, int column, const char *file_name,
+                     GError **error)
+{
+  for (guint i = 0; i < header->n_fields; i++)
+    if ((int) i != column && strcmp (header->fields[i], header->fields[column]) == 0)
+      {
+        g_set_error (error, SL_ERROR, SL_ERROR_BAD_MAPPING,
+                     _("%s:%u: the header has two columns named '%s' (columns %d and %u)"),
+                     file_name, header->line, header->fields[column],
+                     MIN (column, (int) i) + 1, MAX ((guint) column, i) + 1);
+        return FALSE;
+      }
+  return TRUE;
+}
+
+static char *
+list_header (const SlCsvRecord *header)
+{
+  GString *names = g_string_new (NULL);
+
+  for (guint i = 0; i < header->n_fields; i++)
+    g_string_append_printf (names, "%s'%s'", i ? ", " : "", header->fields[i]);
+  return g_string_free (names, FALSE);
+}
+
+static gboolean
+assign_column (ColumnPlan *plan, SlField field, int column, SlUnit unit,
+               const SlCsvRecord *header, const char *file_name, GError **error)
+{
+  for (SlField f = 0; f < SL_N_FIELDS; f++)
+    if (plan->column[f] == column)
+      {
+        g_set_error (error, SL_ERROR, SL_ERROR_BAD_MAPPING,
+                     _("%s:%u: column '%s' is mapped to both %s and %s"),
+                     file_name, header->line, header->fields[column],
+                     sl_field_info (f)->name, sl_field_info (field)->name);
+        return FALSE;
+      }
+  if (!check_header_unique (header, column, file_name, error))
+    return FALSE;
+  plan->column[field] = column;
+  plan->unit[field] = unit == SL_UNIT_NONE ? sl_field_info (field)->canonical : unit;
+  return TRUE;
+}
+
+/* Explicit mappings first, then header names equal to vocabulary names. */
+static gboolean
+resolve_columns (ColumnPlan *plan, const SlCsvRecord *header,
+                 const SlImportOptions *options, const char *file_name,
+                 SlImportReport *report, GError **error)
+{
+  for (SlField f = 0; f < SL_N_FIELDS; f++)
+    plan->column[f] = -1;
+  plan->n_columns = header->n_fields;
+  plan->header_line = header->line;
+
+  for (guint i = 0; i < header->n_fields; i++)
+    if (!g_utf8_validate (header->fields[i], -1, NULL))
+      {
+        g_set_error (error, SL_ERROR, SL_ERROR_BAD_INPUT,
+                     _("%s:%u: column %u of the header is not valid UTF-8"),
+                     file_name, header->line, i + 1);
+        return FALSE;
+      }
+
+  for (guint m = 0; m < options->n_maps; m++)
+    {
+      const SlColumnMap *map = &options->maps[m];
+      int column = find_header_column (header, map->column);
+
+      if (plan->column[map->field] >= 0)
+        {
+          g_set_error (error, SL_ERROR, SL_ERROR_BAD_MAPPING,
+                       _("--map: %s is mapped twice"), sl_field_info (map->field)->name);
+          return FALSE;
+        }
+      if (column < 0)
+        {
+          g_autofree char *names = list_header (header);
+
+          g_set_error (error, SL_ERROR, SL_ERROR_BAD_MAPPING,
+                       column == -2
+                         ? _("%s:%u: several columns are named '%s' in different case; the header has %s")
+                         : _("%s:%u: no column named '%s'; the header has %s"),
+                       file_name, header->line, map->column, names);
+          return FALSE;
+        }
+      if (!assign_column (plan, map->field, column, map->unit, header, file_name, error))
+        return FALSE;
+    }
+
+  for (guint i = 0; i < header->n_fields; i++)
+    {
+      SlField field;
+      gboolean used = FALSE;
+
+      for (SlField f = 0; f < SL_N_FIELDS; f++)
+        used |= plan->column[f] == (int) i;
+      if (used)
+        continue;
+      if (sl_field_from_name (header->fields[i], &field) && plan->column[field] < 0)
+        {
+          if (!assign_column (plan, field, (int) i, SL_UNIT_NONE, header, file_name, error))
+            return FALSE;
+        }
+      else
+        g_ptr_array_add (report->ignored_columns, g_strdup (header->fields[i]));
+    }
+
+  if (plan->column[SL_FIELD_ID] < 0)
+    {
+      g_autofree char *names = list_header (header);
+
+      g_set_error (error, SL_ERROR, SL_ERROR_BAD_MAPPING,
+                   _("%s:%u: no id column: no column is named 'id'; name the designation "
+                     "column with --map id=COLUMN (the header has %s)"),
+                   file_name, header->line, names);
+      return FALSE;
+    }
+  return TRUE;
+}
+
+/* The mapping as recorded with the source: JSON [{field, column, unit}]. */
+static char *
+mapping_json (const ColumnPlan *plan, const SlCsvRecord *header)
+{
+  GString *json = g_string_new ("[");
+  gboolean first = TRUE;
+
+  for (SlField f = 0; f < SL_N_FIELDS; f++)
+    {
+      if (plan->column[f] < 0)
+        continue;
+      g_string_append (json, first ? "{\"field\":" : ",{\"field\":");
+      sl_json_append_string (json, sl_field_info (f)->name);
+      g_string_append (json, ",\"column\":");
+      sl_json_append_string (json, header->fields[plan->column[f]]);
+      g_string_append (json, ",\"unit\":");
+      sl_json_append_string (json, sl_unit_name (plan->unit[f]));
+      g_string_append_c (json, '}');
+      first = FALSE;
+    }
+  g_string_append_c (json, ']');
+  return g_string_free (json, FALSE);
+}
+
+static char *
+missing_json (const SlImportOptions *options)
+{
+  GString *json = g_string_new ("[\"\",\"NaN\"");
+
+  for (guint i = 0; options->missing && options->missing[i]; i++)
+    {
+      g_string_append_c (json, ',');
+      sl_json_append_string (json, options->missing[i]);
+    }
+  g_string_append_c (json, ']');
+  return g_string_free (json, FALSE);
+}
+
+/* ------------------------------------------------------------------ */
+/* Cell conversion                                                    */
+
+/* One row's values on their way to the database. */
+typedef struct {
+  gboolean    present[SL_N_FIELDS];
+  double      number[SL_N_FIELDS];   /* canonical units */
+  const char *text[SL_N_FIELDS];     /* for id and sptype; points into the record */
+} RowValues;
+
+static gboolean
+is_missing (const char *cell, const char *const *missing)
+{
+  if (*cell == '\0' || g_ascii_strcasecmp (cell, "nan") == 0)
+    return TRUE;
+  for (guint i = 0; missing && missing[i]; i++)
+    if (strcmp (cell, missing[i]) == 0)
+      return TRUE;
+  return FALSE;
+}
+
+/* Converts one cell into ROW; on failure sets *REASON (newly allocated). */
+static gboolean
+convert_cell (SlField field, SlUnit unit, char *cell, const char *const *missing,
+              RowValues *row, char **reason)
+{
+  const SlFieldInfo *info = sl_field_info (field);
+  const char *problem = NULL;
+  double value;
+
+  g_strstrip (cell);
+  if (is_missing (cell, missing))
+    {
+      if (field == SL_FIELD_ID)
+        {
+          *reason = g_strdup (_("the id is empty"));
+          return FALSE;
+        }
+      return TRUE;
+    }
+
+  if (info->kind == SL_FIELD_KIND_IDENTIFIER || info->kind == SL_FIELD_KIND_TEXT)
+    {
+      if (!g_utf8_validate (cell, -1, NULL))
+        {
+          *reason = g_strdup (_("not valid UTF-8 text"));
+          return FALSE;
+        }
+      row->text[field] = cell;
+      row->present[field] = TRUE;
+      return TRUE;
+    }
+
+  if (sl_unit_is_sexagesimal (unit))
+    {
+      if (!sl_parse_sexagesimal (cell, unit == SL_UNIT_HMS, &value, &problem))
+        {
+          *reason = g_strdup_printf ("%s: '%s'", _(problem), cell);
+          return FALSE;
+        }
+    }
+  else if (!sl_parse_number (cell, &value, &problem))
+    {
+      if (g_utf8_validate (cell, -1, NULL))
+        *reason = g_strdup_printf ("%s: '%s'", _(problem), cell);
+      else
+        *reason = g_strdup (_(problem));
+      return FALSE;
+    }
+
+  value *= sl_unit_factor (unit, info->canonical);
+  if (!sl_field_check_value (field, value, reason))
+    return FALSE;
+
+  row->number[field] = value;
+  row->present[field] = TRUE;
+  return TRUE;
+}
+
+/* ------------------------------------------------------------------ */
+/* Database writes                                                    */
+
+typedef struct {
+  sqlite3_stmt *find_star;
+  sqlite3_stmt *insert_star;
+  sqlite3_stmt *insert_measurement;
+  sqlite3_stmt *insert_rejection;
+  sqlite3_stmt *first_line;
+} ImportStatements;
+
+static void
+finalize_statements (ImportStatements *st)
+{
+  sqlite3_finalize (st->find_star);
+  sqlite3_finalize (st->insert_star);
+  sqlite3_finalize (st->insert_measurement);
+  sqlite3_finalize (st->insert_rejection);
+  sqlite3_finalize (st->first_line);
+  memset (st, 0, sizeof *st);
+}
+
+static char *
+measurement_insert_sql (void)
+{
+  GString *sql = g_string_new ("INSERT INTO measurements (star_id, source_id, line");
+  GString *params = g_string_new ("?, ?, ?");
+
+  for (SlField f = SL_FIELD_ID + 1; f < SL_N_FIELDS; f++)
+    {
+      g_string_append_printf (sql, ", %s", sl_field_info (f)->name);
+      g_string_append (params, ", ?");
+    }
+  g_string_append_printf (sql, ") VALUES (%s)", params->str);
+  g_string_free (params, TRUE);
+  return g_string_free (sql, FALSE);
+}
+
+static gboolean
+prepare_statements (SlProject *project, ImportStatements *st, GError **error)
+{
+  g_autofree char *insert_sql = measurement_insert_sql ();
+
+  st->find_star = sl_project_prepare (project, "SELECT id FROM stars WHERE designation = ?", error);
+  if (st->find_star)
+    st->insert_star = sl_project_prepare (project,
+                                          "INSERT INTO stars (designation, first_source_id) VALUES (?, ?)",
+                                          error);
+  if (st->insert_star)
+    st->insert_measurement = sl_project_prepare (project, insert_sql, error);
+  if (st->insert_measurement)
+    st->insert_rejection = sl_project_prepare (project,
+                                               "INSERT INTO rejected_rows (source_id, line, column_name, reason, raw) "
+                                               "VALUES (?, ?, ?, ?, ?)", error);
+  if (st->insert_rejection)
+    st->first_line = sl_project_prepare (project,
+                                         "SELECT line FROM measurements WHERE source_id = ? AND star_id = ?",
+                                         error);
+  if (st->first_line == NULL)
+    {
+      finalize_statements (st);
+      return FALSE;
+    }
+  return TRUE;
+}
+
+/* Finds or creates the star; returns its id, or 0 on a database error. */
+static gint64
+star_for_designation (ImportStatements *st, const char *designation, gint64 source_id,
+                      guint64 *new_stars)
+{
+  gint64 star_id = 0;
+
+  sqlite3_bind_text (st->find_star, 1, designation, -1, SQLITE_STATIC);
+  if (sqlite3_step (st->find_star) == SQLITE_ROW)
+    star_id = sqlite3_column_int64 (st->find_star, 0);
+  sqlite3_reset (st->find_star);
+  if (star_id != 0)
+    return star_id;
+
+  sqlite3_bind_text (st->insert_star, 1, designation, -1, SQLITE_STATIC);
+  sqlite3_bind_int64 (st->insert_star, 2, source_id);
+  if (sqlite3_step (st->insert_star) == SQLITE_DONE)
+    {
+      star_id = sqlite3_last_insert_rowid (sqlite3_db_handle (st->insert_star));
+      (*new_stars)++;
+    }
+  sqlite3_reset (st->insert_star);
+  return star_id;
+}
+
+/* Returns SQLITE_DONE, SQLITE_CONSTRAINT (the star already has a row from
+ * this source) or another SQLite error code. */
+static int
+store_measurement (ImportStatements *st, gint64 star_id, gint64 source_id, guint line,
+                   const RowValues *row)
+{
+  sqlite3_stmt *stmt = st->insert_measurement;
+  int rc;
+
+  sqlite3_bind_int64 (stmt, 1, star_id);
+  sqlite3_bind_int64 (stmt, 2, source_id);
+  sqlite3_bind_int64 (stmt, 3, line);
+  for (SlField f = SL_FIELD_ID + 1; f < SL_N_FIELDS; f++)
+    {
+      int index = 4 + (f - (SL_FIELD_ID + 1));
+
+      if (!row->present[f])
+        sqlite3_bind_null (stmt, index);
+      else if (sl_field_info (f)->kind == SL_FIELD_KIND_TEXT)
+        sqlite3_bind_text (stmt, index, row->text[f], -1, SQLITE_STATIC);
+      else
+        sqlite3_bind_double (stmt, index, row->number[f]);
+    }
+  rc = sqlite3_step (stmt) & 0xff;   /* the primary code of an extended one */
+  sqlite3_reset (stmt);
+  return rc;
+}
+
+static guint
+first_line_of (ImportStatements *st, gint64 source_id, gint64 star_id)
+{
+  guint line = 0;
+
+  sqlite3_bind_int64 (st->first_line, 1, source_id);
+  sqlite3_bind_int64 (st->first_line, 2, star_id);
+  if (sqlite3_step (st->first_line) == SQLITE_ROW)
+    line = (guint) sqlite3_column_int64 (st->first_line, 0);
+  sqlite3_reset (st->first_line);
+  return line;
+}
+
+static gboolean
+store_rejection (ImportStatements *st, gint64 source_id, const SlCsvRecord *record,
+                 const char *column, char *reason, SlImportReport *report)
+{
+  SlRejection rejection = { record->line, g_strdup (column), reason };
+  int rc;
+
+  g_array_append_val (report->rejections, rejection);
+
+  sqlite3_bind_int64 (st->insert_rejection, 1, source_id);
+  sqlite3_bind_int64 (st->insert_rejection, 2, record->line);
+  if (column)
+    sqlite3_bind_text (st->insert_rejection, 3, column, -1, SQLITE_STATIC);
+  else
+    sqlite3_bind_null (st->insert_rejection, 3);
+  sqlite3_bind_text (st->insert_rejection, 4, reason, -1, SQLITE_STATIC);
+  sqlite3_bind_blob (st->insert_rejection, 5, record->raw, (int) record->raw_len, SQLITE_STATIC);
+  rc = sqlite3_step (st->insert_rejection);
+  sqlite3_reset (st->insert_rejection);
+  sqlite3_clear_bindings (st->insert_rejection);
+  return rc == SQLITE_DONE;
+}
+
+/* ------------------------------------------------------------------ */
+/* The import                                                         */
+
+/* Everything one import carries from row to row. */
+typedef struct {
+  SlProject             *project;
+  const SlImportOptions *options;
+  SlImportReport        *report;
+  ColumnPlan             plan;
+  ImportStatements       st;
+  const SlCsvRecord     *header;
+} Import;
+
+/* Converts and stores one data record; FALSE only on a database error. */
+static gboolean
+import_record (Import *im, SlCsvRecord *record, GError **error)
+{
+  SlImportReport *report = im->report;
+  const ColumnPlan *plan = &im->plan;
+  RowValues row;
+  gint64 star_id;
+  int rc;
+
+  report->rows_read++;
+
+  if (record->malformed)
+    return store_rejection (&im->st, report->source_id, record, NULL,
+                            g_strdup (_(record->malformed)), report)
+           || (sl_project_set_db_error (im->project, error, "rejected_rows"), FALSE);
+
+  if (record->n_fields != plan->n_columns)
+    return store_rejection (&im->st, report->source_id, record, NULL,
+                            g_strdup_printf (_("the row has %u fields, the header has %u"),
+                                             record->n_fields, plan->n_columns),
+                            report)
+           || (sl_project_set_db_error (im->project, error, "rejected_rows"), FALSE);
+
+  memset (row.present, 0, sizeof row.present);
+  for (SlField f = 0; f < SL_N_FIELDS; f++)
+    {
+      int column = plan->column[f];
+      char *reason = NULL;
+
+      if (column < 0)
+        continue;
+      if (!convert_cell (f, plan->unit[f], record->fields[column], im->options->missing,
+                         &row, &reason))
+        return store_rejection (&im->st, report->source_id, record,
+                                im->header->fields[column], reason, report)
+               || (sl_project_set_db_error (im->project, error, "rejected_rows"), FALSE);
+    }
+
+  if (!row.present[SL_FIELD_EPOCH] && isfinite (im->options->epoch))
+    {
+      row.number[SL_FIELD_EPOCH] = im->options->epoch;
+      row.present[SL_FIELD_EPOCH] = TRUE;
+    }
+
+  star_id = star_for_designation (&im->st, row.text[SL_FIELD_ID], report->source_id,
+                                  &report->new_stars);
+  if (star_id == 0)
+    {
+      sl_project_set_db_error (im->project, error, "stars");
+      return FALSE;
+    }
+
+  rc = store_measurement (&im->st, star_id, report->source_id, record->line, &row);
+  if (rc == SQLITE_CONSTRAINT)
+    return store_rejection (&im->st, report->source_id, record,
+                            im->header->fields[plan->column[SL_FIELD_ID]],
+                            g_strdup_printf (_("id '%s' appears twice in this file (first on line %u)"),
+                                             row.text[SL_FIELD_ID],
+                                             first_line_of (&im->st, report->source_id, star_id)),
+                            report)
+           || (sl_project_set_db_error (im->project, error, "rejected_rows"), FALSE);
+  if (rc != SQLITE_DONE)
+    {
+      sl_project_set_db_error (im->project, error, "measurements");
+      return FALSE;
+    }
+  report->rows_accepted++;
+  return TRUE;
+}
+
+static char *
+compute_sha256 (const char *data, gsize length)
+{
+  return g_compute_checksum_for_data (G_CHECKSUM_SHA256, (const guchar *) data, length);
+}
+
+/* Refuses a file already imported, unless --again. */
+static gboolean
+check_not_imported (SlProject *project, const char *sha256, const char *file_name,
+                    gboolean again, SlImportReport *report, GError **error)
+{
+  sqlite3_stmt *stmt = sl_project_prepare (project,
+                                           "SELECT id, file_name, imported_at FROM sources "
+                                           "WHERE sha256 = ? ORDER BY id LIMIT 1", error);
+  gboolean ok = TRUE;
+
+  if (stmt == NULL)
+    return FALSE;
+  sqlite3_bind_text (stmt, 1, sha256, -1, SQLITE_STATIC);
+  if (sqlite3_step (stmt) == SQLITE_ROW)
+    {
+      const char *earlier = (const char *) sqlite3_column_text (stmt, 1);
+      const char *when = (const char *) sqlite3_column_text (stmt, 2);
+      gint64 id = sqlite3_column_int64 (stmt, 0);
+
+      if (again)
+        g_ptr_array_add (report->notes,
+                         g_strdup_printf (_("the same file (SHA-256) was imported before as source %"
+                                            G_GINT64_FORMAT " (%s, %s); imported again as asked"),
+                                          id, earlier, when));
+      else
+        {
+          g_set_error (error, SL_ERROR, SL_ERROR_ALREADY_IMPORTED,
+                       _("%s: this file (same SHA-256) was already imported as source %"
+                         G_GINT64_FORMAT " (%s, %s); use --again to import it again"),
+                       file_name, id, earlier, when);
+          ok = FALSE;
+        }
+    }
+  sqlite3_finalize (stmt);
+  return ok;
+}
+
+static gint64
+insert_source (SlProject *project, const char *path, const char *file_name,
+               const SlImportOptions *options, const SlImportReport *report,
+               const char *mapping, gsize size, GError **error)
+{
+  g_autofree char *now = sl_now_utc ();
+  g_autofree char *missing = missing_json (options);
+  char delimiter[2] = { report->delimiter, '\0' };
+  sqlite3_stmt *stmt;
+  gint64 id = 0;
+
+  stmt = sl_project_prepare (project,
+                             "INSERT INTO sources (name, file_name, file_path, sha256, size_bytes, "
+                             "imported_by, imported_at, delimiter, mapping, missing_tokens, epoch) "
+                             "VALUES (?, ?, ?, ?, ?, ?, ?, ?, ?, ?, ?)", error);
+  if (stmt == NULL)
+    return 0;
+  sqlite3_bind_text (stmt, 1, options->source_name ? options->source_name : file_name, -1, SQLITE_STATIC);
+  sqlite3_bind_text (stmt, 2, file_name, -1, SQLITE_STATIC);
+  sqlite3_bind_text (stmt, 3, path, -1, SQLITE_STATIC);
+  sqlite3_bind_text (stmt, 4, report->sha256, -1, SQLITE_STATIC);
+  sqlite3_bind_int64 (stmt, 5, (gint64) size);
+  sqlite3_bind_text (stmt, 6, sl_current_user (), -1, SQLITE_TRANSIENT);
+  sqlite3_bind_text (stmt, 7, now, -1, SQLITE_STATIC);
+  sqlite3_bind_text (stmt, 8, delimiter, -1, SQLITE_STATIC);
+  sqlite3_bind_text (stmt, 9, mapping, -1, SQLITE_STATIC);
+  sqlite3_bind_text (stmt, 10, missing, -1, SQLITE_STATIC);
+  if (isfinite (options->epoch))
+    sqlite3_bind_double (stmt, 11, options->epoch);
+  else
+    sqlite3_bind_null (stmt, 11);
+  if (sqlite3_step (stmt) == SQLITE_DONE)
+    id = sqlite3_last_insert_rowid (sl_project_db (project));
+  else
+    sl_project_set_db_error (project, error, "sources");
+  sqlite3_finalize (stmt);
+  return id;
+}
+
+static gboolean
+finish_source (Import *im, GError **error)
+{
+  SlImportReport *report = im->report;
+  sqlite3_stmt *stmt;
+  g_autofree char *summary = NULL;
+  GString *details = g_string_new (NULL);
+  gboolean ok;
+
+  stmt = sl_project_prepare (im->project,
+                             "UPDATE sources SET rows_read = ?, rows_accepted = ?, rows_rejected = ? "
+                             "WHERE id = ?", error);
+  if (stmt == NULL)
+    {
+      g_string_free (details, TRUE);
+      return FALSE;
+    }
+  sqlite3_bind_int64 (stmt, 1, (gint64) report->rows_read);
+  sqlite3_bind_int64 (stmt, 2, (gint64) report->rows_accepted);
+  sqlite3_bind_int64 (stmt, 3, (gint64) report->rejections->len);
+  sqlite3_bind_int64 (stmt, 4, report->source_id);
+  ok = sqlite3_step (stmt) == SQLITE_DONE;
+  sqlite3_finalize (stmt);
+  if (!ok)
+    {
+      sl_project_set_db_error (im->project, error, "sources");
+      g_string_free (details, TRUE);
+      return FALSE;
+    }
+
+  summary = g_strdup_printf (_("imported %s: %" G_GUINT64_FORMAT " rows accepted, %u rejected, %"
+                               G_GUINT64_FORMAT " new stars"),
+                             report->file_name, report->rows_accepted, report->rejections->len,
+                             report->new_stars);
+  g_string_append_printf (details, "{\"source_id\":%" G_GINT64_FORMAT ",\"file\":", report->source_id);
+  sl_json_append_string (details, report->file_name);
+  g_string_append (details, ",\"sha256\":");
+  sl_json_append_string (details, report->sha256);
+  g_string_append_printf (details, ",\"rows_read\":%" G_GUINT64_FORMAT ",\"accepted\":%" G_GUINT64_FORMAT
+                          ",\"rejected\":%u,\"new_stars\":%" G_GUINT64_FORMAT "}",
+                          report->rows_read, report->rows_accepted, report->rejections->len,
+                          report->new_stars);
+  ok = sl_ledger_append (im->project, "import", summary, details->str, error);
+  g_string_free (details, TRUE);
+  return ok;
+}
+
+static void
+rejection_clear (gpointer data)
+{
+  SlRejection *rejection = data;
+
+  g_free (rejection->column);
+  g_free (rejection->reason);
+}
+
+static SlImportReport *
+report_new (const char *file_name)
+{
+  SlImportReport *report = g_new0 (SlImportReport, 1);
+
+  report->file_name = g_strdup (file_name);
+  report->rejections = g_array_new (FALSE, FALSE, sizeof (SlRejection));
+  g_array_set_clear_func (report->rejections, rejection_clear);
+  report->ignored_columns = g_ptr_array_new_with_free_func (g_free);
+  report->notes = g_ptr_array_new_with_free_func (g_free);
+  return report;
+}
+
+void
+sl_import_report_free (SlImportReport *report)
+{
+  if (report == NULL)
+    return;
+  g_free (report->file_name);
+  g_free (report->sha256);
+  g_array_unref (report->rejections);
+  g_ptr_array_unref (report->ignored_columns);
+  g_ptr_array_unref (report->notes);
+  g_free (report);
+}
+
+static void
+note_missing_epoch (const ColumnPlan *plan, const SlImportOptions *options,
+                    SlImportReport *report)
+{
+  if (plan->column[SL_FIELD_RA] >= 0 && plan->column[SL_FIELD_EPOCH] < 0
+      && !isfinite (options->epoch))
+    g_ptr_array_add (report->notes,
+                     g_strdup (_("the positions have no epoch (no epoch column and no --epoch); "
+                                 "they cannot be moved to another epoch")));
+}
+
+/* Reads records to the end, storing each; FALSE on a database error or a
+ * cancel. */
+static gboolean
+import_records (Import *im, SlCsvReader *reader, gsize length, GError **error)
+{
+  SlCsvRecord record;
+  guint64 count = 0;
+
+  while (sl_csv_reader_next (reader, &record))
+    {
+      if (!import_record (im, &record, error))
+        return FALSE;
+      if (++count % ROWS_PER_CHECK == 0)
+        {
+          if (g_cancellable_set_error_if_cancelled (im->options->cancellable, error))
+            return FALSE;
+          if (im->options->progress)
+            im->options->progress ((double) sl_csv_reader_get_offset (reader) / length,
+                                   im->options->progress_data);
+        }
+    }
+  return TRUE;
+}
+
+static gboolean
+fail_if_nothing_accepted (Import *im, GError **error)
+{
+  SlImportReport *report = im->report;
+  const SlRejection *first;
+
+  if (report->rows_accepted > 0)
+    return TRUE;
+  if (report->rows_read == 0)
+    {
+      g_set_error (error, SL_ERROR, SL_ERROR_NOTHING_ACCEPTED,
+                   _("%s: no data rows after the header (line %u)"),
+                   report->file_name, im->plan.header_line);
+      return FALSE;
+    }
+  first = &g_array_index (report->rejections, SlRejection, 0);
+  g_set_error (error, SL_ERROR, SL_ERROR_NOTHING_ACCEPTED,
+               _("%s: no row could be imported; all %" G_GUINT64_FORMAT " were rejected, "
+                 "the first at line %u: %s%s%s"),
+               report->file_name, report->rows_read, first->line,
+               first->column ? first->column : "", first->column ? ": " : "", first->reason);
+  return FALSE;
+}
+
+SlImportReport *
+sl_import_csv (SlProject *project, const char *path, const SlImportOptions *options,
+               GError **error)
+{
+  g_autoptr (SlImportReport) report = NULL;
+  g_autoptr (GMappedFile) mapped = NULL;
+  g_autoptr (SlCsvReader) reader = NULL;
+  g_autofree char *file_name = NULL;
+  g_autofree char *mapping = NULL;
+  g_autoptr (GError) local_error = NULL;
+  SlCsvRecord header;
+  const char *data;
+  gsize length;
+  Import im = { project, options, NULL };
+
+  g_return_val_if_fail (project != NULL && path != NULL && options != NULL, NULL);
+
+  file_name = g_path_get_basename (path);
+  mapped = g_mapped_file_new (path, FALSE, &local_error);
+  if (mapped == NULL)
+    {
+      g_set_error (error, SL_ERROR, SL_ERROR_IO, _("%s: cannot read: %s"), path,
+                   local_error->message);
+      return NULL;
+    }
+  data = g_mapped_file_get_contents (mapped);
+  length = g_mapped_file_get_length (mapped);
+  if (length == 0)
+    {
+      g_set_error (error, SL_ERROR, SL_ERROR_BAD_INPUT, _("%s: the file is empty"), file_name);
+      return NULL;
+    }
+
+  report = report_new (file_name);
+  im.report = report;
+  report->sha256 = compute_sha256 (data, length);
+
+  reader = sl_csv_reader_new (data, length, options->delimiter, file_name, error);
+  if (reader == NULL)
+    return NULL;
+  report->delimiter = sl_csv_reader_get_delimiter (reader);
+
+  if (!sl_csv_reader_next (reader, &header))
+    {
+      g_set_error (error, SL_ERROR, SL_ERROR_BAD_INPUT,
+                   _("%s: no header row (the file holds only comments or blank lines)"), file_name);
+      return NULL;
+    }
+  if (header.malformed)
+    {
+      g_set_error (error, SL_ERROR, SL_ERROR_BAD_INPUT, _("%s:%u: the header row: %s"),
+                   file_name, header.line, _(header.malformed));
+      return NULL;
+    }
+  /* The header's texts live in the reader's buffer until the next record:
+   * keep a copy. */
+  {
+    g_auto (GStrv) names = g_new0 (char *, header.n_fields + 1);
+    SlCsvRecord header_copy = header;
+
+    for (guint i = 0; i < header.n_fields; i++)
+      names[i] = g_strdup (g_strstrip (header.fields[i]));
+    header_copy.fields = names;
+    if (!resolve_columns (&im.plan, &header_copy, options, file_name, report, error))
+      return NULL;
+    mapping = mapping_json (&im.plan, &header_copy);
+    note_missing_epoch (&im.plan, options, report);
+
+    if (!sl_project_begin (project, error))
+      return NULL;
+    im.header = &header_copy;
+    if (!check_not_imported (project, report->sha256, file_name, options->again, report, error)
+        || (report->source_id = insert_source (project, path, file_name, options, report,
+                                               mapping, length, error)) == 0
+        || !prepare_statements (project, &im.st, error)
+        || !import_records (&im, reader, length, error)
+        || !fail_if_nothing_accepted (&im, error)
+        || !finish_source (&im, error)
+        || !sl_project_commit (project, error))
+      {
+        finalize_statements (&im.st);
+        sl_project_rollback (project);
+        return NULL;
+      }
+    finalize_statements (&im.st);
+  }
+  return g_steal_pointer (&report);
+}

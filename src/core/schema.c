@@ -1,0 +1,141 @@
+/* schema.c: the SQL of each schema version, oldest first.
+ *
+ * Conventions: STRICT tables, canonical units in column names' comments,
+ * timestamps as ISO 8601 UTC text, JSON for structured details.  Raw
+ * measurements are never updated after import; everything derived lives
+ * in tables of its own so it can be recomputed and compared.
+ */
+#include "schema.h"
+
+#include <glib/gi18n.h>
+
+#include "sl-error.h"
+
+/* Version 1: stars, import sources, measurements, rejected rows, ledger. */
+static const char migration_to_1[] =
+  "CREATE TABLE sources ("
+  "  id             INTEGER PRIMARY KEY,"
+  "  name           TEXT NOT NULL,"      /* --source-name, or the file's name */
+  "  file_name      TEXT NOT NULL,"      /* base name of the imported file */
+  "  file_path      TEXT NOT NULL,"      /* as given on import */
+  "  sha256         TEXT NOT NULL,"
+  "  size_bytes     INTEGER NOT NULL,"
+  "  imported_by    TEXT NOT NULL,"
+  "  imported_at    TEXT NOT NULL,"
+  "  delimiter      TEXT NOT NULL,"
+  "  mapping        TEXT NOT NULL,"      /* JSON: [{field, column, unit}] */
+  "  missing_tokens TEXT NOT NULL,"      /* JSON array of strings */
+  "  epoch          REAL,"               /* --epoch for rows without one, Julian year */
+  "  rows_read      INTEGER NOT NULL DEFAULT 0,"
+  "  rows_accepted  INTEGER NOT NULL DEFAULT 0,"
+  "  rows_rejected  INTEGER NOT NULL DEFAULT 0"
+  ") STRICT;"
+  "CREATE INDEX sources_by_sha256 ON sources (sha256);"
+  "CREATE TABLE stars ("
+  "  id              INTEGER PRIMARY KEY,"
+  "  designation     TEXT NOT NULL UNIQUE,"
+  "  notes           TEXT NOT NULL DEFAULT '',"
+  "  first_source_id INTEGER NOT NULL REFERENCES sources (id)"
+  ") STRICT;"
+  /* One wide row per star per source, in canonical units (vocabulary.c). */
+  "CREATE TABLE measurements ("
+  "  id           INTEGER PRIMARY KEY,"
+  "  star_id      INTEGER NOT NULL REFERENCES stars (id),"
+  "  source_id    INTEGER NOT NULL REFERENCES sources (id),"
+  "  line         INTEGER NOT NULL,"     /* first line of the row in the source file */
+  "  ra REAL, ra_err REAL, dec REAL, dec_err REAL,"   /* deg, deg, mas (on sky), mas */
+  "  epoch REAL,"                                      /* Julian year */
+  "  parallax REAL, parallax_err REAL,"                /* mas */
+  "  pmra REAL, pmra_err REAL, pmdec REAL, pmdec_err REAL," /* mas/yr, pmra times cos dec */
+  "  vmag REAL, vmag_err REAL, bmag REAL, bmag_err REAL,"   /* mag */
+  "  bv REAL, bv_err REAL, ebv REAL, ebv_err REAL,"         /* mag */
+  "  vrad REAL, vrad_err REAL,"                              /* km/s */
+  "  sptype TEXT,"
+  "  UNIQUE (source_id, star_id)"
+  ") STRICT;"
+  "CREATE INDEX measurements_by_star ON measurements (star_id);"
+  "CREATE TABLE rejected_rows ("
+  "  id          INTEGER PRIMARY KEY,"
+  "  source_id   INTEGER NOT NULL REFERENCES sources (id),"
+  "  line        INTEGER NOT NULL,"
+  "  column_name TEXT,"                  /* NULL when the row as a whole is at fault */
+  "  reason      TEXT NOT NULL,"
+  "  raw         BLOB NOT NULL"          /* the row's bytes as read, valid UTF-8 or not */
+  ") STRICT;"
+  "CREATE INDEX rejected_rows_by_source ON rejected_rows (source_id, line);"
+  /* The audit log: appended to, never updated. */
+  "CREATE TABLE ledger ("
+  "  id      INTEGER PRIMARY KEY,"
+  "  at      TEXT NOT NULL,"
+  "  who     TEXT NOT NULL,"
+  "  action  TEXT NOT NULL,"
+  "  summary TEXT NOT NULL,"
+  "  details TEXT NOT NULL DEFAULT '{}'"
+  ") STRICT;";
+
+/* Version 2: project settings (method parameters, policies) and named
+ * target lists with per-star priority, tags and notes. */
+static const char migration_to_2[] =
+  "CREATE TABLE settings ("
+  "  key   TEXT PRIMARY KEY,"
+  "  value TEXT NOT NULL"
+  ") STRICT;"
+  "CREATE TABLE lists ("
+  "  id          INTEGER PRIMARY KEY,"
+  "  name        TEXT NOT NULL UNIQUE,"
+  "  description TEXT NOT NULL DEFAULT '',"
+  "  condition   TEXT,"                  /* the condition it was built from, if any */
+  "  created_by  TEXT NOT NULL,"
+  "  created_at  TEXT NOT NULL"
+  ") STRICT;"
+  "CREATE TABLE list_members ("
+  "  list_id  INTEGER NOT NULL REFERENCES lists (id) ON DELETE CASCADE,"
+  "  star_id  INTEGER NOT NULL REFERENCES stars (id),"
+  "  priority INTEGER NOT NULL DEFAULT 0,"
+  "  tags     TEXT NOT NULL DEFAULT '',"
+  "  notes    TEXT NOT NULL DEFAULT '',"
+  "  PRIMARY KEY (list_id, star_id)"
+  ") STRICT, WITHOUT ROWID;";
+
+static const char *const migrations[] = {
+  migration_to_1,
+  migration_to_2,
+};
+
+int
+sl_schema_current_version (void)
+{
+  return (int) G_N_ELEMENTS (migrations);
+}
+
+gboolean
+sl_schema_migrate (sqlite3 *db, int from, GError **error)
+{
+  char *errmsg = NULL;
+  char *pragma;
+
+  g_return_val_if_fail (from >= 0 && from <= sl_schema_current_version (), FALSE);
+
+  for (int version = from; version < sl_schema_current_version (); version++)
+    {
+      if (sqlite3_exec (db, migrations[version], NULL, NULL, &errmsg) != SQLITE_OK)
+        {
+          g_set_error (error, SL_ERROR, SL_ERROR_DATABASE,
+                       _("cannot upgrade the project to schema version %d: %s"),
+                       version + 1, errmsg);
+          sqlite3_free (errmsg);
+          return FALSE;
+        }
+    }
+
+  pragma = g_strdup_printf ("PRAGMA user_version = %d", sl_schema_current_version ());
+  if (sqlite3_exec (db, pragma, NULL, NULL, &errmsg) != SQLITE_OK)
+    {
+      g_set_error (error, SL_ERROR, SL_ERROR_DATABASE, "%s", errmsg);
+      sqlite3_free (errmsg);
+      g_free (pragma);
+      return FALSE;
+    }
+  g_free (pragma);
+  return TRUE;
+}
