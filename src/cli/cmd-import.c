@@ -40,7 +40,7 @@ fields_help (void)
     }
   g_string_append (help,
                    _("\nUnits: deg, rad, hms (RA only), dms, mas, arcsec, mas/yr, arcsec/yr, mag, "
-                     "K, km/s.\nSexagesimal values may be written 14 29 42.9, 14:29:42.9 or "
+                     "K, km/s, yr (Julian years, for the epoch).\nSexagesimal values may be written 14 29 42.9, 14:29:42.9 or "
                      "14h29m42.9s.\n\nWithout --map, a header equal to a field name (any case) "
                      "maps to it in the stored unit.\nEmpty cells and NaN are missing values, as "
                      "is every --missing token.\nA row with a bad value is rejected and reported "

@@ -67,41 +67,66 @@ is_blank_line (const char *p, const char *end)
   return TRUE;
 }
 
+/* Where the record scanner is within a record (RFC 4180 section 2). */
+typedef enum {
+  AT_FIELD_START,
+  IN_UNQUOTED,     /* a quote here is a literal; libcsv's strict mode rejects it */
+  IN_QUOTED,
+  AFTER_QUOTE,     /* a quote inside a quoted field: "" or the closing one */
+} ScanState;
+
 /* Finds the end of the record starting at START (the '\n' that ends it, or
- * the end of data) and counts the newlines inside quotes. */
+ * the end of data) and counts the newlines inside quotes.  Only a quote at
+ * the start of a field opens a quoted field, so a stray quote cannot swallow
+ * the rest of the file. */
 static const char *
-find_record_end (const char *start, const char *end, guint *inner_newlines,
-                 gboolean *unterminated)
+find_record_end (const char *start, const char *end, char delimiter,
+                 guint *inner_newlines, gboolean *unterminated)
 {
-  gboolean in_quotes = FALSE;
-  const char *p = start;
+  const char *nl = memchr (start, '\n', end - start);
+  const char *line_end = nl ? nl : end;
+  ScanState state = AT_FIELD_START;
 
   *inner_newlines = 0;
-  while (p < end)
-    {
-      /* Fast path: a line without quotes ends at its newline. */
-      if (!in_quotes)
-        {
-          const char *nl = memchr (p, '\n', end - p);
-          const char *line_end = nl ? nl : end;
-          const char *quote = memchr (p, '"', line_end - p);
+  *unterminated = FALSE;
+  /* Most lines have no quote at all. */
+  if (memchr (start, '"', line_end - start) == NULL)
+    return line_end;
 
-          if (quote == NULL)
-            {
-              *unterminated = FALSE;
-              return line_end;
-            }
-          p = quote + 1;
-          in_quotes = TRUE;
-          continue;
+  for (const char *p = start; p < end; p++)
+    {
+      char c = *p;
+
+      switch (state)
+        {
+        case AT_FIELD_START:
+          if (c == '"')
+            state = IN_QUOTED;
+          else if (c == '\n')
+            return p;
+          else if (c != delimiter && c != ' ' && c != '\t')
+            state = IN_UNQUOTED;
+          break;
+        case IN_UNQUOTED:
+          if (c == '\n')
+            return p;
+          if (c == delimiter)
+            state = AT_FIELD_START;
+          break;
+        case IN_QUOTED:
+          if (c == '"')
+            state = AFTER_QUOTE;
+          else if (c == '\n')
+            (*inner_newlines)++;
+          break;
+        case AFTER_QUOTE:
+          if (c == '\n')
+            return p;
+          state = c == '"' ? IN_QUOTED : c == delimiter ? AT_FIELD_START : IN_UNQUOTED;
+          break;
         }
-      if (*p == '"')
-        in_quotes = FALSE;
-      else if (*p == '\n')
-        (*inner_newlines)++;
-      p++;
     }
-  *unterminated = in_quotes;
+  *unterminated = state == IN_QUOTED;
   return end;
 }
 
@@ -245,12 +270,12 @@ split_fields (SlCsvReader *reader, const char *raw, gsize raw_len)
   if (csv_parse (&reader->parser, raw, raw_len, on_field, on_record_end, reader) != raw_len
       || csv_fini (&reader->parser, on_field, on_record_end, reader) != 0)
     {
-      problem = "malformed quoting (a quote inside an unquoted field, or text after a closing quote)";
+      problem = N_("malformed quoting (a quote inside an unquoted field, or text after a closing quote)");
       csv_free (&reader->parser);
       init_parser (reader);
     }
   else if (reader->records_seen > 1)
-    problem = "a stray carriage return inside the row";
+    problem = N_("a stray carriage return inside the row");
 
   g_ptr_array_set_size (reader->fields, 0);
   for (guint i = 0; i < reader->field_starts->len; i++)
@@ -272,7 +297,7 @@ sl_csv_reader_next (SlCsvReader *reader, SlCsvRecord *record)
 
   start = reader->data + reader->offset;
   end = reader->data + reader->length;
-  record_end = find_record_end (start, end, &inner_newlines, &unterminated);
+  record_end = find_record_end (start, end, reader->delimiter, &inner_newlines, &unterminated);
   raw_len = record_end - start;
   if (raw_len > 0 && start[raw_len - 1] == '\r')
     raw_len--;
@@ -280,7 +305,7 @@ sl_csv_reader_next (SlCsvReader *reader, SlCsvRecord *record)
   record->line = reader->line;
   record->raw = start;
   record->raw_len = raw_len;
-  record->malformed = unterminated ? "a quoted field is never closed"
+  record->malformed = unterminated ? N_("a quoted field is never closed")
                                    : split_fields (reader, start, raw_len);
   record->n_fields = reader->fields->len;
   record->fields = (char *const *) reader->fields->pdata;

@@ -393,7 +393,8 @@ prepare_statements (SlProject *project, ImportStatements *st, GError **error)
   st->find_star = sl_project_prepare (project, "SELECT id FROM stars WHERE designation = ?", error);
   if (st->find_star)
     st->insert_star = sl_project_prepare (project,
-                                          "INSERT INTO stars (designation, first_source_id) VALUES (?, ?)",
+                                          "INSERT INTO stars (designation, first_source_id) VALUES (?, ?) "
+                                          "ON CONFLICT (designation) DO NOTHING",
                                           error);
   if (st->insert_star)
     st->insert_measurement = sl_project_prepare (project, insert_sql, error);
@@ -403,7 +404,7 @@ prepare_statements (SlProject *project, ImportStatements *st, GError **error)
                                                "VALUES (?, ?, ?, ?, ?)", error);
   if (st->insert_rejection)
     st->first_line = sl_project_prepare (project,
-                                         "SELECT line FROM measurements WHERE source_id = ? AND star_id = ?",
+                                         "SELECT line FROM measurements WHERE star_id = ?2 AND source_id = ?1",
                                          error);
   if (st->first_line == NULL)
     {
@@ -413,28 +414,33 @@ prepare_statements (SlProject *project, ImportStatements *st, GError **error)
   return TRUE;
 }
 
-/* Finds or creates the star; returns its id, or 0 on a database error. */
+/* Finds or creates the star; returns its id, or 0 on a database error.
+ * Trying the insert first costs one statement for a new star, the usual
+ * case of a first import. */
 static gint64
 star_for_designation (ImportStatements *st, const char *designation, gint64 source_id,
                       guint64 *new_stars)
 {
+  sqlite3 *db = sqlite3_db_handle (st->insert_star);
   gint64 star_id = 0;
+  int rc;
+
+  sqlite3_bind_text (st->insert_star, 1, designation, -1, SQLITE_STATIC);
+  sqlite3_bind_int64 (st->insert_star, 2, source_id);
+  rc = sqlite3_step (st->insert_star);
+  sqlite3_reset (st->insert_star);
+  if (rc != SQLITE_DONE)
+    return 0;
+  if (sqlite3_changes (db) == 1)
+    {
+      (*new_stars)++;
+      return sqlite3_last_insert_rowid (db);
+    }
 
   sqlite3_bind_text (st->find_star, 1, designation, -1, SQLITE_STATIC);
   if (sqlite3_step (st->find_star) == SQLITE_ROW)
     star_id = sqlite3_column_int64 (st->find_star, 0);
   sqlite3_reset (st->find_star);
-  if (star_id != 0)
-    return star_id;
-
-  sqlite3_bind_text (st->insert_star, 1, designation, -1, SQLITE_STATIC);
-  sqlite3_bind_int64 (st->insert_star, 2, source_id);
-  if (sqlite3_step (st->insert_star) == SQLITE_DONE)
-    {
-      star_id = sqlite3_last_insert_rowid (sqlite3_db_handle (st->insert_star));
-      (*new_stars)++;
-    }
-  sqlite3_reset (st->insert_star);
   return star_id;
 }
 

@@ -51,9 +51,8 @@ static const char migration_to_1[] =
   "  bv REAL, bv_err REAL, ebv REAL, ebv_err REAL,"         /* mag */
   "  vrad REAL, vrad_err REAL,"                              /* km/s */
   "  sptype TEXT,"
-  "  UNIQUE (source_id, star_id)"
+  "  UNIQUE (star_id, source_id)"       /* also the index from a star to its rows */
   ") STRICT;"
-  "CREATE INDEX measurements_by_star ON measurements (star_id);"
   "CREATE TABLE rejected_rows ("
   "  id          INTEGER PRIMARY KEY,"
   "  source_id   INTEGER NOT NULL REFERENCES sources (id),"

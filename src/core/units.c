@@ -1,6 +1,7 @@
 /* units.c: unit names and factors, number and sexagesimal parsing. */
 #include "units.h"
 
+#include <glib/gi18n.h>
 #include <erfa.h>
 #include <erfam.h>
 #include <math.h>
@@ -80,6 +81,7 @@ sl_parse_number (const char *text, double *value, const char **reason)
   const char *p = text;
   const char *start;
   gboolean digits = FALSE;
+  double parsed;
   char *end;
 
   while (is_blank (*p))
@@ -113,17 +115,18 @@ sl_parse_number (const char *text, double *value, const char **reason)
 
   if (!digits || *p != '\0')
     {
-      *reason = (*p == ',' && digits) ? "not a number (a decimal comma? use '.')"
-                                      : "not a number";
+      *reason = (*p == ',' && digits) ? N_("not a number (a decimal comma? use '.')")
+                                      : N_("not a number");
       return FALSE;
     }
 
-  *value = g_ascii_strtod (start, &end);
-  if (!isfinite (*value))
+  parsed = g_ascii_strtod (start, &end);
+  if (!isfinite (parsed))
     {
-      *reason = "number out of range";
+      *reason = N_("number out of range");
       return FALSE;
     }
+  *value = parsed;
   return TRUE;
 }
 
@@ -176,19 +179,30 @@ sl_parse_sexagesimal (const char *text, gboolean hours, double *value,
   while (*p != '\0')
     {
       const char *start = p;
-      gboolean fractional = FALSE;
+      guint digits = 0, points = 0;
+      gboolean fractional;
       char number[64];
 
-      while (g_ascii_isdigit (*p) || *p == '.')
-        fractional |= (*p++ == '.');
-      if (p == start || (gsize) (p - start) >= sizeof number)
+      for (; g_ascii_isdigit (*p) || *p == '.'; p++)
         {
-          *reason = "not a sexagesimal angle";
+          digits += g_ascii_isdigit (*p);
+          points += *p == '.';
+        }
+      fractional = points > 0;
+      /* One number: digits with at most one point, as in "42.5" or "42.". */
+      if (digits == 0 || points > 1 || (gsize) (p - start) >= sizeof number)
+        {
+          *reason = N_("not a sexagesimal angle");
           return FALSE;
         }
-      if (n_parts == 3 || (n_parts > 0 && parts[n_parts - 1].fractional))
+      if (n_parts == 3)
         {
-          *reason = "not a sexagesimal angle (only the last part may have a fraction)";
+          *reason = N_("not a sexagesimal angle (more than three parts)");
+          return FALSE;
+        }
+      if (n_parts > 0 && parts[n_parts - 1].fractional)
+        {
+          *reason = N_("not a sexagesimal angle (only the last part may have a fraction)");
           return FALSE;
         }
       memcpy (number, start, p - start);
@@ -203,13 +217,13 @@ sl_parse_sexagesimal (const char *text, gboolean hours, double *value,
 
   if (n_parts == 0)
     {
-      *reason = "not a sexagesimal angle";
+      *reason = N_("not a sexagesimal angle");
       return FALSE;
     }
   for (guint i = 1; i < n_parts; i++)
     if (parts[i].value >= 60.0)
       {
-        *reason = (i == 1) ? "minutes must be below 60" : "seconds must be below 60";
+        *reason = (i == 1) ? N_("minutes must be below 60") : N_("seconds must be below 60");
         return FALSE;
       }
 
@@ -221,7 +235,7 @@ sl_parse_sexagesimal (const char *text, gboolean hours, double *value,
 
   if (hours && (sign < 0 || total >= 24.0))
     {
-      *reason = "hours must be in [0, 24)";
+      *reason = N_("hours must be in [0, 24)");
       return FALSE;
     }
   *value = sign * total;

@@ -105,41 +105,36 @@ sl_field_accepts_unit (SlField field, SlUnit unit)
   return TRUE;
 }
 
+/* Numbers in messages are printed with sl_format_double, never %g, so a
+ * comma-decimal locale reads the same digits as the file holds. */
+static char *
+describe_out_of_range (const SlFieldInfo *info, double value)
+{
+  char got[G_ASCII_DTOSTR_BUF_SIZE], lo[G_ASCII_DTOSTR_BUF_SIZE], hi[G_ASCII_DTOSTR_BUF_SIZE];
+  const char *unit = sl_unit_name (info->canonical);
+
+  sl_format_double (got, value);
+  sl_format_double (hi, info->max);
+  if (info->kind == SL_FIELD_KIND_ERROR && !(value > 0.0))
+    return g_strdup_printf (_("an uncertainty must be positive, not %s"), got);
+  if (info->kind == SL_FIELD_KIND_ERROR)
+    return g_strdup_printf (_("uncertainty %s %s is implausibly large (at most %s)"), got, unit, hi);
+  sl_format_double (lo, info->min);
+  return g_strdup_printf (_("%s must be in [%s, %s%c %s, not %s"), info->name, lo, hi,
+                          info->max_is_open ? ')' : ']', unit, got);
+}
+
 gboolean
 sl_field_check_value (SlField field, double value, char **reason)
 {
   const SlFieldInfo *info = sl_field_info (field);
-  const char *unit = sl_unit_name (info->canonical);
-  char got[G_ASCII_DTOSTR_BUF_SIZE], lo[G_ASCII_DTOSTR_BUF_SIZE], hi[G_ASCII_DTOSTR_BUF_SIZE];
-
-  /* Numbers in messages are printed with sl_format_double, never %g, so a
-   * comma-decimal locale reads the same digits as the file holds. */
-  sl_format_double (got, value);
-  sl_format_double (lo, info->min);
-  sl_format_double (hi, info->max);
+  gboolean ok;
 
   if (info->kind == SL_FIELD_KIND_ERROR)
-    {
-      if (!(value > 0.0))
-        {
-          *reason = g_strdup_printf (_("an uncertainty must be positive, not %s"), got);
-          return FALSE;
-        }
-      if (value > info->max)
-        {
-          *reason = g_strdup_printf (_("uncertainty %s %s is implausibly large (at most %s)"),
-                                     got, unit, hi);
-          return FALSE;
-        }
-      return TRUE;
-    }
-
-  if (value < info->min || value > info->max || (info->max_is_open && value == info->max))
-    {
-      *reason = g_strdup_printf (_("%s must be in [%s, %s%c %s, not %s"),
-                                 info->name, lo, hi, info->max_is_open ? ')' : ']',
-                                 unit, got);
-      return FALSE;
-    }
-  return TRUE;
+    ok = value > 0.0 && value <= info->max;
+  else
+    ok = value >= info->min && (info->max_is_open ? value < info->max : value <= info->max);
+  if (!ok)
+    *reason = describe_out_of_range (info, value);
+  return ok;
 }

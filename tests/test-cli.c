@@ -1,0 +1,296 @@
+/* test-cli.c: starledger-cli end to end on the demo data: exit statuses,
+ * messages, the import report, export, ledger and summary, and the same
+ * numbers under a comma-decimal locale. */
+#include <string.h>
+#include <sys/wait.h>
+
+#include "test-util.h"
+
+typedef struct {
+  int   status;
+  char *out;
+  char *err;
+} CliResult;
+
+static void
+cli_result_clear (CliResult *r)
+{
+  g_free (r->out);
+  g_free (r->err);
+}
+
+G_DEFINE_AUTO_CLEANUP_CLEAR_FUNC (CliResult, cli_result_clear)
+
+/* Runs starledger-cli with the NULL-terminated arguments; LOCALE, if not
+ * NULL, becomes LC_ALL. */
+static void
+run_cli_in_locale (CliResult *r, const char *locale, const char *first, ...)
+{
+  g_autoptr (GPtrArray) argv = g_ptr_array_new ();
+  g_auto (GStrv) envp = g_get_environ ();
+  g_autoptr (GError) error = NULL;
+  const char *arg;
+  va_list args;
+
+  g_ptr_array_add (argv, (gpointer) g_getenv ("STARLEDGER_CLI"));
+  va_start (args, first);
+  for (arg = first; arg != NULL; arg = va_arg (args, const char *))
+    g_ptr_array_add (argv, (gpointer) arg);
+  va_end (args);
+  g_ptr_array_add (argv, NULL);
+  if (locale)
+    envp = g_environ_setenv (envp, "LC_ALL", locale, TRUE);
+
+  g_spawn_sync (NULL, (char **) argv->pdata, envp, G_SPAWN_DEFAULT, NULL, NULL,
+                &r->out, &r->err, &r->status, &error);
+  g_assert_no_error (error);
+  r->status = WIFEXITED (r->status) ? WEXITSTATUS (r->status) : 128;
+}
+
+#define run_cli(r, ...) run_cli_in_locale (r, NULL, __VA_ARGS__)
+
+static char *
+demo_file (const char *name)
+{
+  return g_build_filename (g_getenv ("STARLEDGER_SOURCE_DIR"), "data", "demo", name, NULL);
+}
+
+/* The demo project as README and build-aux/dev make it. */
+static void
+import_demo (const char *project, const char *locale, CliResult *astrometry, CliResult *photometry)
+{
+  g_autofree char *a = demo_file ("astrometry.csv");
+  g_autofree char *p = demo_file ("photometry.csv");
+  g_auto (CliResult) created = { 0 };
+
+  run_cli_in_locale (&created, locale, "new", project, NULL);
+  g_assert_cmpint (created.status, ==, 0);
+  run_cli_in_locale (astrometry, locale, "import", project, a, NULL);
+  run_cli_in_locale (photometry, locale, "import", project, p,
+                     "--map", "id=star", "--map", "ra=ra_sexa:hms", "--map", "dec=dec_sexa:dms",
+                     "--map", "vmag=v", "--map", "vmag_err=v_sigma", "--map", "bv=b_minus_v",
+                     "--map", "bv_err=b_minus_v_sigma", "--map", "ebv=reddening",
+                     "--map", "sptype=spectral_type", "--missing", "99.99", "--epoch", "2000.0", NULL);
+}
+
+/* DESIGN.md: a user error is one line on stderr. */
+static void
+assert_one_line (const char *text)
+{
+  const char *newline = strchr (text, '\n');
+
+  if (newline == NULL || newline[1] != '\0')
+    g_error ("want one line of message, got \"%s\"", text);
+}
+
+static void
+test_usage (void)
+{
+  const char *commands[] = { "new", "import", "export", "summary", "ledger" };
+  g_auto (CliResult) none = { 0 };
+  g_auto (CliResult) unknown = { 0 };
+  g_auto (CliResult) help = { 0 };
+
+  run_cli (&none, NULL);
+  g_assert_cmpint (none.status, ==, 2);
+  run_cli (&unknown, "frobnicate", NULL);
+  g_assert_cmpint (unknown.status, ==, 2);
+  g_assert_nonnull (strstr (unknown.err, "'frobnicate' is not a command"));
+  run_cli (&help, "--help", NULL);
+  g_assert_cmpint (help.status, ==, 0);
+
+  for (gsize i = 0; i < G_N_ELEMENTS (commands); i++)
+    {
+      g_auto (CliResult) command_help = { 0 };
+      g_auto (CliResult) missing = { 0 };
+      g_auto (CliResult) bad_option = { 0 };
+
+      g_assert_nonnull (strstr (help.out, commands[i]));
+      run_cli (&command_help, commands[i], "--help", NULL);
+      g_assert_cmpint (command_help.status, ==, 0);
+      g_assert_nonnull (strstr (command_help.out, "Usage:"));
+      run_cli (&missing, commands[i], NULL);
+      g_assert_cmpint (missing.status, ==, 2);
+      run_cli (&bad_option, commands[i], "x", "--no-such-option", NULL);
+      g_assert_cmpint (bad_option.status, ==, 2);
+    }
+}
+
+static void
+test_new_refuses_existing (void)
+{
+  g_autofree char *dir = sl_test_scratch_new ();
+  g_autofree char *project = g_build_filename (dir, "p.starledger", NULL);
+  g_auto (CliResult) first = { 0 };
+  g_auto (CliResult) second = { 0 };
+
+  run_cli (&first, "new", project, NULL);
+  g_assert_cmpint (first.status, ==, 0);
+  run_cli (&second, "new", project, NULL);
+  g_assert_cmpint (second.status, ==, 1);
+  assert_one_line (second.err);
+  g_assert_nonnull (strstr (second.err, "already exists"));
+  sl_test_scratch_free (g_steal_pointer (&dir));
+}
+
+/* The deliberate bad rows of data/demo (README there) are rejected, each
+ * named by file, line, column and reason, and nothing else is. */
+static void
+test_demo_import (void)
+{
+  g_autofree char *dir = sl_test_scratch_new ();
+  g_autofree char *project = g_build_filename (dir, "demo.starledger", NULL);
+  g_autofree char *a = demo_file ("astrometry.csv");
+  g_autofree char *p = demo_file ("photometry.csv");
+  g_auto (CliResult) astrometry = { 0 };
+  g_auto (CliResult) photometry = { 0 };
+  g_auto (CliResult) again = { 0 };
+  g_autofree char *want_a = g_strdup_printf ("%s:92: dec: dec must be in [-90, 90] deg, not 91.3\n"
+                                             "%s:138: parallax: not a number: '12.7.1'\n"
+                                             "%s:176: parallax_err: an uncertainty must be positive, not 0\n"
+                                             "%s:236: id: id 'LHO 0064' appears twice in this file (first on line 69)\n"
+                                             "%s:267: id: the id is empty\n", a, a, a, a, a);
+  g_autofree char *want_p = g_strdup_printf ("%s:79: dec_sexa: minutes must be below 60: '+12 61 10.0'\n"
+                                             "%s:156: v: vmag must be in [-30, 30] mag, not 41.2\n"
+                                             "%s:236: spectral_type: not valid UTF-8 text\n", p, p, p);
+
+  import_demo (project, NULL, &astrometry, &photometry);
+  g_assert_cmpint (astrometry.status, ==, 0);
+  g_assert_true (g_str_has_prefix (astrometry.out, "imported 317 rows, rejected 5\n"));
+  g_assert_cmpstr (astrometry.err, ==, want_a);
+  g_assert_cmpint (photometry.status, ==, 0);
+  g_assert_true (g_str_has_prefix (photometry.out, "imported 311 rows, rejected 3\n"));
+  g_assert_cmpstr (photometry.err, ==, want_p);
+  g_assert_nonnull (strstr (photometry.out, "11 new stars"));
+
+  run_cli (&again, "import", project, a, NULL);
+  g_assert_cmpint (again.status, ==, 1);
+  assert_one_line (again.err);
+  g_assert_nonnull (strstr (again.err, "--again"));
+  sl_test_scratch_free (g_steal_pointer (&dir));
+}
+
+static void
+test_demo_export_ledger_summary (void)
+{
+  g_autofree char *dir = sl_test_scratch_new ();
+  g_autofree char *project = g_build_filename (dir, "demo.starledger", NULL);
+  g_autofree char *out_path = g_build_filename (dir, "stars.csv", NULL);
+  g_auto (CliResult) a = { 0 };
+  g_auto (CliResult) p = { 0 };
+  g_auto (CliResult) to_stdout = { 0 };
+  g_auto (CliResult) to_file = { 0 };
+  g_auto (CliResult) columns = { 0 };
+  g_auto (CliResult) bad_columns = { 0 };
+  g_auto (CliResult) ledger = { 0 };
+  g_auto (CliResult) summary = { 0 };
+  g_autofree char *file_text = NULL;
+  g_auto (GStrv) lines = NULL;
+
+  import_demo (project, NULL, &a, &p);
+
+  run_cli (&to_stdout, "export", project, NULL);
+  g_assert_cmpint (to_stdout.status, ==, 0);
+  lines = g_strsplit (to_stdout.out, "\n", -1);
+  g_assert_cmpuint (g_strv_length (lines), ==, 1 + 328 + 1);   /* header, stars, final "" */
+
+  run_cli (&to_file, "export", project, "-o", out_path, NULL);
+  g_assert_cmpint (to_file.status, ==, 0);
+  g_assert_true (g_file_get_contents (out_path, &file_text, NULL, NULL));
+  g_assert_cmpstr (file_text, ==, to_stdout.out);
+
+  run_cli (&columns, "export", project, "--columns", "parallax, sptype", NULL);
+  g_assert_cmpint (columns.status, ==, 0);
+  g_assert_true (g_str_has_prefix (columns.out, "id,parallax,parallax_lo,parallax_hi,sptype\n"));
+
+  run_cli (&bad_columns, "export", project, "--columns", "distance", NULL);
+  g_assert_cmpint (bad_columns.status, ==, 1);
+  assert_one_line (bad_columns.err);
+
+  run_cli (&ledger, "ledger", project, NULL);
+  g_assert_cmpint (ledger.status, ==, 0);
+  g_assert_nonnull (strstr (ledger.out, "create"));
+  g_assert_nonnull (strstr (ledger.out, "imported astrometry.csv: 317 rows accepted, 5 rejected"));
+  g_assert_nonnull (strstr (ledger.out, "imported photometry.csv: 311 rows accepted, 3 rejected"));
+
+  run_cli (&summary, "summary", project, NULL);
+  g_assert_cmpint (summary.status, ==, 0);
+  g_assert_nonnull (strstr (summary.out, "328 stars, 628 measurements from 2 sources, 8 rejected rows"));
+  sl_test_scratch_free (g_steal_pointer (&dir));
+}
+
+static void
+test_errors_are_one_line (void)
+{
+  g_autofree char *dir = sl_test_scratch_new ();
+  g_autofree char *not_project = sl_test_write_file (dir, "notes.txt", "hello\n", -1);
+  g_autofree char *project = g_build_filename (dir, "p.starledger", NULL);
+  g_autofree char *missing = g_build_filename (dir, "missing.csv", NULL);
+  g_auto (CliResult) created = { 0 };
+  g_auto (CliResult) foreign = { 0 };
+  g_auto (CliResult) no_file = { 0 };
+  g_auto (CliResult) bad_map = { 0 };
+  g_auto (CliResult) bad_epoch = { 0 };
+
+  run_cli (&foreign, "summary", not_project, NULL);
+  g_assert_cmpint (foreign.status, ==, 1);
+  assert_one_line (foreign.err);
+  g_assert_nonnull (strstr (foreign.err, "not a Starledger project"));
+
+  run_cli (&created, "new", project, NULL);
+  run_cli (&no_file, "import", project, missing, NULL);
+  g_assert_cmpint (no_file.status, ==, 1);
+  assert_one_line (no_file.err);
+  g_assert_nonnull (strstr (no_file.err, "missing.csv"));
+
+  run_cli (&bad_map, "import", project, not_project, "--map", "dec=x:hms", NULL);
+  g_assert_cmpint (bad_map.status, ==, 2);
+  run_cli (&bad_epoch, "import", project, not_project, "--epoch", "2451545.0", NULL);
+  g_assert_cmpint (bad_epoch.status, ==, 2);
+  sl_test_scratch_free (g_steal_pointer (&dir));
+}
+
+/* The same files under a comma-decimal locale give the same numbers. */
+static void
+test_locale_independent (void)
+{
+  g_autofree char *dir = sl_test_scratch_new ();
+  g_autofree char *c_project = g_build_filename (dir, "c.starledger", NULL);
+  g_autofree char *de_project = g_build_filename (dir, "de.starledger", NULL);
+  g_auto (CliResult) a1 = { 0 }, p1 = { 0 }, a2 = { 0 }, p2 = { 0 };
+  g_auto (CliResult) c_export = { 0 };
+  g_auto (CliResult) de_export = { 0 };
+
+  if (!g_file_test ("/usr/lib/locale/locale-archive", G_FILE_TEST_EXISTS))
+    {
+      g_test_skip ("no compiled locales (build-aux/dev generates de_DE.UTF-8)");
+      sl_test_scratch_free (g_steal_pointer (&dir));
+      return;
+    }
+  import_demo (c_project, "C.UTF-8", &a1, &p1);
+  import_demo (de_project, "de_DE.UTF-8", &a2, &p2);
+  g_assert_cmpint (p2.status, ==, 0);
+  run_cli_in_locale (&c_export, "C.UTF-8", "export", c_project, NULL);
+  run_cli_in_locale (&de_export, "de_DE.UTF-8", "export", de_project, NULL);
+  g_assert_cmpint (de_export.status, ==, 0);
+  g_assert_cmpstr (de_export.out, ==, c_export.out);
+  sl_test_scratch_free (g_steal_pointer (&dir));
+}
+
+int
+main (int argc, char **argv)
+{
+  g_test_init (&argc, &argv, NULL);
+
+  if (g_getenv ("STARLEDGER_CLI") == NULL)
+    g_error ("STARLEDGER_CLI must name the starledger-cli binary (meson test sets it)");
+
+  g_test_add_func ("/cli/usage", test_usage);
+  g_test_add_func ("/cli/new/refuses-existing", test_new_refuses_existing);
+  g_test_add_func ("/cli/demo/import-report", test_demo_import);
+  g_test_add_func ("/cli/demo/export-ledger-summary", test_demo_export_ledger_summary);
+  g_test_add_func ("/cli/errors-are-one-line", test_errors_are_one_line);
+  g_test_add_func ("/cli/locale/comma-decimal-locale", test_locale_independent);
+
+  return g_test_run ();
+}

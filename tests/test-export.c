@@ -1,0 +1,195 @@
+/* test-export.c: the CSV table: value/lo/hi columns, intervals, --columns,
+ * quoting, atomic writes and locale independence. */
+#include <locale.h>
+#include <string.h>
+
+#include "csv-reader.h"
+#include "export.h"
+#include "import.h"
+#include "sl-error.h"
+#include "test-util.h"
+
+typedef struct {
+  char      *dir;
+  SlProject *project;
+} Fixture;
+
+static void
+fixture_set_up (Fixture *f, gconstpointer data)
+{
+  g_autoptr (GError) error = NULL;
+  g_autofree char *path = NULL;
+  g_autofree char *input = NULL;
+  g_autoptr (SlImportReport) report = NULL;
+  SlImportOptions options;
+
+  f->dir = sl_test_scratch_new ();
+  path = g_build_filename (f->dir, "test.starledger", NULL);
+  f->project = sl_project_create (path, &error);
+  g_assert_no_error (error);
+
+  input = sl_test_write_file (f->dir, "in.csv",
+                              "id,ra,ra_err,dec,dec_err,parallax,parallax_err,vmag,sptype\n"
+                              "A,10,1000,60,500,12.5,0.25,7.5,G2 V\n"
+                              "\"B, the \"\"second\"\"\",359.5,,-30,,,,, K0 III \n", -1);
+  sl_import_options_init (&options);
+  report = sl_import_csv (f->project, input, &options, &error);
+  g_assert_no_error (error);
+}
+
+static void
+fixture_tear_down (Fixture *f, gconstpointer data)
+{
+  sl_project_close (f->project);
+  sl_test_scratch_free (f->dir);
+}
+
+static char *
+export_to_string (Fixture *f, const char *const *columns)
+{
+  g_autofree char *path = g_build_filename (f->dir, "out.csv", NULL);
+  g_autoptr (GError) error = NULL;
+  SlExportOptions options = { columns, NULL };
+  char *contents;
+
+  g_assert_cmpint (sl_export_csv (f->project, path, &options, &error), ==, 2);
+  g_assert_no_error (error);
+  g_assert_true (g_file_get_contents (path, &contents, NULL, NULL));
+  return contents;
+}
+
+static void
+test_header (Fixture *f, gconstpointer data)
+{
+  g_autofree char *text = export_to_string (f, NULL);
+  g_auto (GStrv) lines = g_strsplit (text, "\n", -1);
+
+  g_assert_cmpstr (lines[0], ==,
+                   "id,ra,ra_lo,ra_hi,dec,dec_lo,dec_hi,epoch,epoch_lo,epoch_hi,"
+                   "parallax,parallax_lo,parallax_hi,pmra,pmra_lo,pmra_hi,pmdec,pmdec_lo,pmdec_hi,"
+                   "vmag,vmag_lo,vmag_hi,bmag,bmag_lo,bmag_hi,bv,bv_lo,bv_hi,ebv,ebv_lo,ebv_hi,"
+                   "vrad,vrad_lo,vrad_hi,sptype");
+}
+
+/* The bounds are value -/+ 1 sigma; the RA error is on the sky, so at
+ * Dec +60 an error of 1 arcsec (1000 mas) spans 2 arcsec of RA. */
+static void
+test_intervals (Fixture *f, gconstpointer data)
+{
+  const char *columns[] = { "ra", "dec", "parallax", "vmag", NULL };
+  g_autofree char *text = export_to_string (f, columns);
+  g_auto (GStrv) lines = g_strsplit (text, "\n", -1);
+  g_auto (GStrv) cells = g_strsplit (lines[1], ",", -1);
+
+  g_assert_cmpstr (lines[0], ==, "id,ra,ra_lo,ra_hi,dec,dec_lo,dec_hi,parallax,parallax_lo,parallax_hi,"
+                                 "vmag,vmag_lo,vmag_hi");
+  g_assert_cmpstr (cells[0], ==, "A");
+  sl_assert_close (g_ascii_strtod (cells[2], NULL), 10.0 - 2.0 / 3600.0, 1e-12, "ra_lo at dec 60");
+  sl_assert_close (g_ascii_strtod (cells[3], NULL), 10.0 + 2.0 / 3600.0, 1e-12, "ra_hi at dec 60");
+  sl_assert_close (g_ascii_strtod (cells[5], NULL), 60.0 - 0.5 / 3600.0, 1e-12, "dec_lo (500 mas)");
+  g_assert_cmpstr (cells[7], ==, "12.5");
+  g_assert_cmpstr (cells[8], ==, "12.25");
+  g_assert_cmpstr (cells[9], ==, "12.75");
+  /* A value without an error has no bounds, not a zero-width interval. */
+  g_assert_cmpstr (cells[10], ==, "7.5");
+  g_assert_cmpstr (cells[11], ==, "");
+  g_assert_cmpstr (cells[12], ==, "");
+}
+
+/* Text cells survive a round trip through an RFC 4180 reader. */
+static void
+test_quoting_round_trip (Fixture *f, gconstpointer data)
+{
+  const char *columns[] = { "sptype", "dec", NULL };
+  g_autofree char *text = export_to_string (f, columns);
+  g_autoptr (GError) error = NULL;
+  g_autoptr (SlCsvReader) reader = sl_csv_reader_new (text, strlen (text), ',', "out.csv", &error);
+  SlCsvRecord record;
+
+  g_assert_no_error (error);
+  g_assert_true (sl_csv_reader_next (reader, &record));   /* header */
+  g_assert_true (sl_csv_reader_next (reader, &record));
+  g_assert_true (sl_csv_reader_next (reader, &record));
+  g_assert_null (record.malformed);
+  g_assert_cmpuint (record.n_fields, ==, 5);
+  g_assert_cmpstr (record.fields[0], ==, "B, the \"second\"");
+  g_assert_cmpstr (record.fields[1], ==, "K0 III");   /* trimmed on import */
+  g_assert_cmpstr (record.fields[2], ==, "-30");
+  g_assert_cmpstr (record.fields[3], ==, "");
+}
+
+static void
+test_unknown_column (Fixture *f, gconstpointer data)
+{
+  const char *columns[] = { "parallax", "distance", NULL };
+  g_autofree char *path = g_build_filename (f->dir, "out.csv", NULL);
+  g_autoptr (GError) error = NULL;
+  SlExportOptions options = { columns, NULL };
+
+  g_assert_cmpint (sl_export_csv (f->project, path, &options, &error), ==, -1);
+  g_assert_error (error, SL_ERROR, SL_ERROR_UNKNOWN_NAME);
+  g_assert_nonnull (strstr (error->message, "no column 'distance'"));
+  g_assert_nonnull (strstr (error->message, "parallax"));
+  g_assert_false (g_file_test (path, G_FILE_TEST_EXISTS));
+}
+
+/* A failed export leaves no file and no temporary behind; a good one
+ * replaces the old file whole. */
+static void
+test_atomic_write (Fixture *f, gconstpointer data)
+{
+  g_autofree char *bad = g_build_filename (f->dir, "no-such-dir", "out.csv", NULL);
+  g_autofree char *good = sl_test_write_file (f->dir, "out.csv", "old contents\n", -1);
+  g_autoptr (GError) error = NULL;
+  g_autofree char *text = NULL;
+  g_autoptr (GDir) dir = NULL;
+  SlExportOptions options = { NULL, NULL };
+  const char *name;
+
+  g_assert_cmpint (sl_export_csv (f->project, bad, &options, &error), ==, -1);
+  g_assert_error (error, SL_ERROR, SL_ERROR_IO);
+  g_clear_error (&error);
+
+  g_assert_cmpint (sl_export_csv (f->project, good, &options, &error), ==, 2);
+  g_assert_true (g_file_get_contents (good, &text, NULL, NULL));
+  g_assert_true (g_str_has_prefix (text, "id,ra,"));
+
+  dir = g_dir_open (f->dir, 0, NULL);
+  while ((name = g_dir_read_name (dir)) != NULL)
+    g_assert_false (g_str_has_prefix (name, ".out.csv."));
+}
+
+static void
+test_locale_independent (Fixture *f, gconstpointer data)
+{
+  g_autofree char *in_c = export_to_string (f, NULL);
+  g_autofree char *in_german = NULL;
+
+  if (setlocale (LC_ALL, "de_DE.UTF-8") == NULL)
+    {
+      g_test_skip ("the de_DE.UTF-8 locale is not installed (build-aux/dev generates it)");
+      return;
+    }
+  in_german = export_to_string (f, NULL);
+  setlocale (LC_ALL, "C.UTF-8");
+  g_assert_cmpstr (in_german, ==, in_c);
+  g_assert_nonnull (strstr (in_c, "12.25"));
+}
+
+int
+main (int argc, char **argv)
+{
+  setlocale (LC_ALL, "C.UTF-8");
+  g_test_init (&argc, &argv, NULL);
+
+#define ADD(path, func) g_test_add (path, Fixture, NULL, fixture_set_up, func, fixture_tear_down)
+  ADD ("/export/csv/header", test_header);
+  ADD ("/export/csv/intervals", test_intervals);
+  ADD ("/export/csv/quoting-round-trip", test_quoting_round_trip);
+  ADD ("/export/csv/unknown-column", test_unknown_column);
+  ADD ("/export/csv/atomic-write", test_atomic_write);
+  ADD ("/export/csv/locale-independent", test_locale_independent);
+#undef ADD
+
+  return g_test_run ();
+}

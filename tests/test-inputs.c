@@ -1,0 +1,180 @@
+/* test-inputs.c: choosing one set of inputs per star among the
+ * measurements of several sources. */
+#include <locale.h>
+#include <string.h>
+
+#include "import.h"
+#include "inputs.h"
+#include "test-util.h"
+
+typedef struct {
+  char      *dir;
+  SlProject *project;
+} Fixture;
+
+static void
+fixture_set_up (Fixture *f, gconstpointer data)
+{
+  g_autoptr (GError) error = NULL;
+  g_autofree char *path = NULL;
+
+  f->dir = sl_test_scratch_new ();
+  path = g_build_filename (f->dir, "test.starledger", NULL);
+  f->project = sl_project_create (path, &error);
+  g_assert_no_error (error);
+}
+
+static void
+fixture_tear_down (Fixture *f, gconstpointer data)
+{
+  sl_project_close (f->project);
+  sl_test_scratch_free (f->dir);
+}
+
+static void
+import_text (Fixture *f, const char *name, const char *contents)
+{
+  g_autofree char *path = sl_test_write_file (f->dir, name, contents, -1);
+  g_autoptr (GError) error = NULL;
+  g_autoptr (SlImportReport) report = NULL;
+  SlImportOptions options;
+
+  sl_import_options_init (&options);
+  report = sl_import_csv (f->project, path, &options, &error);
+  g_assert_no_error (error);
+  g_assert_cmpuint (report->rejections->len, ==, 0);
+}
+
+/* Reads the one star of the project; its texts stay valid while the
+ * returned cursor lives. */
+static SlInputCursor *
+read_only_star (Fixture *f, SlStarInputs *inputs)
+{
+  g_autoptr (GError) error = NULL;
+  SlInputCursor *cursor = sl_input_cursor_new (f->project, 0, &error);
+  g_autoptr (SlInputCursor) check = sl_input_cursor_new (f->project, 0, &error);
+  SlStarInputs first, second;
+
+  g_assert_no_error (error);
+  g_assert_true (sl_input_cursor_next (cursor, inputs, &error));
+  g_assert_true (sl_input_cursor_next (check, &first, &error));
+  g_assert_false (sl_input_cursor_next (check, &second, &error));
+  g_assert_no_error (error);
+  return cursor;
+}
+
+static void
+test_smallest_error_wins (Fixture *f, gconstpointer data)
+{
+  g_autoptr (SlInputCursor) cursor = NULL;
+  SlStarInputs in;
+
+  import_text (f, "one.csv", "id,ra,ra_err,dec,dec_err,epoch,parallax,parallax_err,sptype\n"
+                             "A,10,1.0,20,1.0,2016,10.0,0.5,G2 V\n");
+  import_text (f, "two.csv", "id,ra,dec,epoch,parallax,parallax_err,vmag,sptype\n"
+                             "A,10.001,20.001,2000,10.3,0.2,7.5,G3 V\n");
+  cursor = read_only_star (f, &in);
+
+  g_assert_cmpstr (in.designation, ==, "A");
+  g_assert_cmpuint (in.n_measurements, ==, 2);
+  /* The parallax with the smaller error (source two). */
+  sl_assert_close (in.value[SL_FIELD_PARALLAX], 10.3, 0, "parallax from the better source");
+  sl_assert_close (in.value[SL_FIELD_PARALLAX_ERR], 0.2, 0, "its error with it");
+  /* The position that has an error beats one that has none, and its epoch
+   * comes with it. */
+  sl_assert_close (in.value[SL_FIELD_RA], 10.0, 0, "ra from the source with errors");
+  sl_assert_close (in.value[SL_FIELD_EPOCH], 2016.0, 0, "the epoch of that position");
+  g_assert_cmpint (in.measurement[SL_FIELD_RA], ==, in.measurement[SL_FIELD_EPOCH]);
+  g_assert_cmpint (in.measurement[SL_FIELD_RA], !=, in.measurement[SL_FIELD_PARALLAX]);
+  /* Only one source has V. */
+  sl_assert_close (in.value[SL_FIELD_VMAG], 7.5, 0, "vmag");
+  g_assert_false (in.present[SL_FIELD_VMAG_ERR]);
+  /* The later source's spectral type. */
+  g_assert_cmpstr (in.sptype, ==, "G3 V");
+  g_assert_false (in.present[SL_FIELD_BV]);
+}
+
+static void
+test_tie_goes_to_later_source (Fixture *f, gconstpointer data)
+{
+  g_autoptr (SlInputCursor) cursor = NULL;
+  SlStarInputs in;
+
+  import_text (f, "one.csv", "id,parallax,parallax_err\nA,10.0,0.5\n");
+  import_text (f, "two.csv", "id,parallax,parallax_err\nA,11.0,0.5\n");
+  cursor = read_only_star (f, &in);
+  sl_assert_close (in.value[SL_FIELD_PARALLAX], 11.0, 0, "equal errors: the later source");
+}
+
+/* A randomised check against the rule written the obvious way. */
+static void
+test_random_against_reference (Fixture *f, gconstpointer data)
+{
+  g_autoptr (GString) a = g_string_new ("id,parallax,parallax_err\n");
+  g_autoptr (GString) b = g_string_new ("id,parallax,parallax_err\n");
+  g_autoptr (GError) error = NULL;
+  g_autoptr (SlInputCursor) cursor = NULL;
+  double plx[2][200], err[2][200];
+  SlStarInputs in;
+  int n = 0;
+
+  for (int i = 0; i < 200; i++)
+    for (int s = 0; s < 2; s++)
+      {
+        GString *file = s == 0 ? a : b;
+        char p[G_ASCII_DTOSTR_BUF_SIZE], e[G_ASCII_DTOSTR_BUF_SIZE];
+
+        plx[s][i] = g_test_rand_double_range (-1, 50);
+        err[s][i] = g_test_rand_int_range (1, 4) * 0.1;   /* ties happen */
+        g_string_append_printf (file, "S%03d,%s,%s\n", i,
+                                g_ascii_formatd (p, sizeof p, "%.17g", plx[s][i]),
+                                g_ascii_formatd (e, sizeof e, "%.17g", err[s][i]));
+      }
+  import_text (f, "a.csv", a->str);
+  import_text (f, "b.csv", b->str);
+
+  cursor = sl_input_cursor_new (f->project, 0, &error);
+  while (sl_input_cursor_next (cursor, &in, &error))
+    {
+      int i = atoi (in.designation + 1);
+      int want = err[1][i] <= err[0][i] ? 1 : 0;
+
+      sl_assert_close (in.value[SL_FIELD_PARALLAX], plx[want][i], 0, in.designation);
+      n++;
+    }
+  g_assert_no_error (error);
+  g_assert_cmpint (n, ==, 200);
+}
+
+static void
+test_single_star_cursor (Fixture *f, gconstpointer data)
+{
+  g_autoptr (GError) error = NULL;
+  g_autoptr (SlInputCursor) cursor = NULL;
+  SlStarInputs in;
+
+  import_text (f, "one.csv", "id,parallax\nA,1\nB,2\nC,3\n");
+  cursor = sl_input_cursor_new (f->project, 2, &error);
+  g_assert_true (sl_input_cursor_next (cursor, &in, &error));
+  g_assert_cmpstr (in.designation, ==, "B");
+  g_assert_false (sl_input_cursor_next (cursor, &in, &error));
+  /* A finished cursor stays finished. */
+  g_assert_false (sl_input_cursor_next (cursor, &in, &error));
+  g_assert_no_error (error);
+}
+
+int
+main (int argc, char **argv)
+{
+  setlocale (LC_ALL, "C.UTF-8");
+  g_test_init (&argc, &argv, NULL);
+
+#define ADD(path, func) g_test_add (path, Fixture, NULL, fixture_set_up, func, fixture_tear_down)
+  ADD ("/inputs/smallest-error-wins", test_smallest_error_wins);
+  ADD ("/inputs/tie-goes-to-later-source", test_tie_goes_to_later_source);
+  ADD ("/inputs/random-against-reference", test_random_against_reference);
+  ADD ("/inputs/single-star", test_single_star_cursor);
+#undef ADD
+
+  return g_test_run ();
+}

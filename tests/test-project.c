@@ -1,0 +1,288 @@
+/* test-project.c: creating, opening, refusing and upgrading project files. */
+#include <sqlite3.h>
+#include <string.h>
+
+#include "ledger.h"
+#include "project.h"
+#include "schema.h"
+#include "sl-error.h"
+#include "test-util.h"
+
+typedef struct {
+  char *dir;
+  char *path;
+} Fixture;
+
+static void
+fixture_set_up (Fixture *f, gconstpointer data)
+{
+  f->dir = sl_test_scratch_new ();
+  f->path = g_build_filename (f->dir, "test.starledger", NULL);
+}
+
+static void
+fixture_tear_down (Fixture *f, gconstpointer data)
+{
+  g_free (f->path);
+  sl_test_scratch_free (f->dir);
+}
+
+static gint64
+query_int (sqlite3 *db, const char *sql)
+{
+  sqlite3_stmt *stmt;
+  gint64 value;
+
+  g_assert_cmpint (sqlite3_prepare_v2 (db, sql, -1, &stmt, NULL), ==, SQLITE_OK);
+  g_assert_cmpint (sqlite3_step (stmt), ==, SQLITE_ROW);
+  value = sqlite3_column_int64 (stmt, 0);
+  sqlite3_finalize (stmt);
+  return value;
+}
+
+static char *
+query_text (sqlite3 *db, const char *sql)
+{
+  sqlite3_stmt *stmt;
+  char *value;
+
+  g_assert_cmpint (sqlite3_prepare_v2 (db, sql, -1, &stmt, NULL), ==, SQLITE_OK);
+  g_assert_cmpint (sqlite3_step (stmt), ==, SQLITE_ROW);
+  value = g_strdup ((const char *) sqlite3_column_text (stmt, 0));
+  sqlite3_finalize (stmt);
+  return value;
+}
+
+/* Runs SQL in a plain SQLite connection, as another program would. */
+static void
+run_raw_sql (const char *path, const char *sql)
+{
+  sqlite3 *db;
+
+  g_assert_cmpint (sqlite3_open (path, &db), ==, SQLITE_OK);
+  g_assert_cmpint (sqlite3_exec (db, sql, NULL, NULL, NULL), ==, SQLITE_OK);
+  sqlite3_close (db);
+}
+
+static void
+test_create (Fixture *f, gconstpointer data)
+{
+  g_autoptr (GError) error = NULL;
+  g_autoptr (SlProject) project = sl_project_create (f->path, &error);
+  g_autoptr (GPtrArray) entries = NULL;
+  const SlLedgerEntry *entry;
+
+  g_assert_no_error (error);
+  g_assert_cmpint (sl_project_schema_version (project), ==, sl_schema_current_version ());
+  g_assert_cmpint (query_int (sl_project_db (project), "PRAGMA application_id"), ==, SL_APPLICATION_ID);
+  g_assert_cmpint (query_int (sl_project_db (project), "PRAGMA user_version"), ==,
+                   sl_schema_current_version ());
+
+  entries = sl_ledger_read (project, &error);
+  g_assert_no_error (error);
+  g_assert_cmpuint (entries->len, ==, 1);
+  entry = entries->pdata[0];
+  g_assert_cmpstr (entry->action, ==, "create");
+  g_assert_cmpstr (entry->who, ==, "test-user");   /* STARLEDGER_USER in the test environment */
+  g_assert_true (g_str_has_suffix (entry->at, "Z"));
+}
+
+static void
+test_create_refuses_existing (Fixture *f, gconstpointer data)
+{
+  g_autoptr (GError) error = NULL;
+  g_autofree char *contents = NULL;
+  SlProject *project;
+
+  g_free (sl_test_write_file (f->dir, "test.starledger", "precious", -1));
+  project = sl_project_create (f->path, &error);
+  g_assert_null (project);
+  g_assert_error (error, SL_ERROR, SL_ERROR_EXISTS);
+  g_assert_true (g_file_get_contents (f->path, &contents, NULL, NULL));
+  g_assert_cmpstr (contents, ==, "precious");
+}
+
+static void
+test_reopen (Fixture *f, gconstpointer data)
+{
+  g_autoptr (GError) error = NULL;
+  g_autoptr (SlProject) project = NULL;
+
+  sl_project_close (sl_project_create (f->path, &error));
+  g_assert_no_error (error);
+  project = sl_project_open (f->path, &error);
+  g_assert_no_error (error);
+  g_assert_nonnull (project);
+  g_assert_cmpint (sl_project_schema_version (project), ==, sl_schema_current_version ());
+}
+
+static void
+test_open_missing (Fixture *f, gconstpointer data)
+{
+  g_autoptr (GError) error = NULL;
+
+  g_assert_null (sl_project_open (f->path, &error));
+  g_assert_error (error, SL_ERROR, SL_ERROR_IO);
+  g_assert_nonnull (strstr (error->message, "no such project file"));
+  g_assert_false (g_file_test (f->path, G_FILE_TEST_EXISTS));
+}
+
+/* Opening must refuse another program's database without changing a byte
+ * of it (no journal mode switch, no schema). */
+static void
+test_open_foreign_sqlite (Fixture *f, gconstpointer data)
+{
+  g_autoptr (GError) error = NULL;
+  g_autofree char *before = NULL;
+  g_autofree char *after = NULL;
+  gsize before_len, after_len;
+
+  run_raw_sql (f->path, "CREATE TABLE recipes (name TEXT); INSERT INTO recipes VALUES ('bread');");
+  g_assert_true (g_file_get_contents (f->path, &before, &before_len, NULL));
+
+  g_assert_null (sl_project_open (f->path, &error));
+  g_assert_error (error, SL_ERROR, SL_ERROR_NOT_A_PROJECT);
+  g_assert_nonnull (strstr (error->message, "another program"));
+
+  g_assert_true (g_file_get_contents (f->path, &after, &after_len, NULL));
+  g_assert_cmpmem (before, before_len, after, after_len);
+}
+
+static void
+test_open_empty_sqlite (Fixture *f, gconstpointer data)
+{
+  g_autoptr (GError) error = NULL;
+
+  g_free (sl_test_write_file (f->dir, "test.starledger", "", 0));
+  g_assert_null (sl_project_open (f->path, &error));
+  g_assert_error (error, SL_ERROR, SL_ERROR_NOT_A_PROJECT);
+  g_assert_nonnull (strstr (error->message, "empty SQLite database"));
+}
+
+static void
+test_open_text_file (Fixture *f, gconstpointer data)
+{
+  g_autoptr (GError) error = NULL;
+
+  g_free (sl_test_write_file (f->dir, "test.starledger",
+                              "id,ra,dec\nA,1,2\nthis is a CSV file, not a project\n", -1));
+  g_assert_null (sl_project_open (f->path, &error));
+  g_assert_error (error, SL_ERROR, SL_ERROR_NOT_A_PROJECT);
+  g_assert_nonnull (strstr (error->message, "not an SQLite database"));
+}
+
+static void
+test_open_newer_schema (Fixture *f, gconstpointer data)
+{
+  g_autoptr (GError) error = NULL;
+  g_autofree char *bump = g_strdup_printf ("PRAGMA user_version = %d",
+                                           sl_schema_current_version () + 1);
+
+  sl_project_close (sl_project_create (f->path, &error));
+  g_assert_no_error (error);
+  run_raw_sql (f->path, bump);
+
+  g_assert_null (sl_project_open (f->path, &error));
+  g_assert_error (error, SL_ERROR, SL_ERROR_SCHEMA_TOO_NEW);
+  g_assert_nonnull (strstr (error->message, "newer Starledger"));
+}
+
+/* tests/data/project-v1.sql is a frozen version-1 file with a source, two
+ * stars, their measurements, a rejected row and two ledger entries. */
+static void
+test_migrate_from_v1 (Fixture *f, gconstpointer data)
+{
+  g_autoptr (GError) error = NULL;
+  g_autoptr (SlProject) project = NULL;
+  g_autofree char *fixture = g_build_filename (g_getenv ("STARLEDGER_SOURCE_DIR"), "tests", "data",
+                                               "project-v1.sql", NULL);
+  g_autofree char *sql = NULL;
+  g_autofree char *action = NULL;
+  g_autofree char *details = NULL;
+  sqlite3 *db;
+
+  g_assert_true (g_file_get_contents (fixture, &sql, NULL, NULL));
+  run_raw_sql (f->path, sql);
+
+  project = sl_project_open (f->path, &error);
+  g_assert_no_error (error);
+  db = sl_project_db (project);
+  g_assert_cmpint (sl_project_schema_version (project), ==, sl_schema_current_version ());
+  g_assert_cmpint (query_int (db, "PRAGMA user_version"), ==, sl_schema_current_version ());
+
+  /* Every row is kept. */
+  g_assert_cmpint (query_int (db, "SELECT count(*) FROM stars"), ==, 2);
+  g_assert_cmpint (query_int (db, "SELECT count(*) FROM measurements"), ==, 2);
+  g_assert_cmpint (query_int (db, "SELECT count(*) FROM rejected_rows"), ==, 1);
+  sl_assert_close (query_int (db, "SELECT parallax * 1000 FROM measurements WHERE star_id = 2"),
+                   -400, 0, "negative parallax kept through the upgrade");
+
+  /* Version 2's tables exist and work. */
+  g_assert_true (sl_project_exec (project,
+                                  "INSERT INTO lists (name, created_by, created_at) VALUES ('a', 'b', 'c');"
+                                  "INSERT INTO list_members (list_id, star_id) VALUES (1, 2);"
+                                  "INSERT INTO settings VALUES ('distance.length_scale_pc', '1350');",
+                                  &error));
+  g_assert_no_error (error);
+
+  /* The upgrade is in the ledger. */
+  g_assert_cmpint (query_int (db, "SELECT count(*) FROM ledger"), ==, 3);
+  action = query_text (db, "SELECT action FROM ledger ORDER BY id DESC LIMIT 1");
+  details = query_text (db, "SELECT details FROM ledger ORDER BY id DESC LIMIT 1");
+  g_assert_cmpstr (action, ==, "upgrade");
+  g_assert_nonnull (strstr (details, "\"from\":1"));
+}
+
+static void
+test_hardening (Fixture *f, gconstpointer data)
+{
+  g_autoptr (GError) error = NULL;
+  g_autoptr (SlProject) project = NULL;
+  g_autofree char *journal = NULL;
+  sqlite3 *db;
+  int defensive = -1;
+
+  sl_project_close (sl_project_create (f->path, &error));
+  project = sl_project_open (f->path, &error);
+  g_assert_no_error (error);
+  db = sl_project_db (project);
+
+  g_assert_cmpint (query_int (db, "PRAGMA foreign_keys"), ==, 1);
+  g_assert_cmpint (query_int (db, "PRAGMA trusted_schema"), ==, 0);
+  journal = query_text (db, "PRAGMA journal_mode");
+  g_assert_cmpstr (journal, ==, "wal");
+  sqlite3_db_config (db, SQLITE_DBCONFIG_DEFENSIVE, -1, &defensive);
+  g_assert_cmpint (defensive, ==, 1);
+
+  /* Defensive mode: the schema cannot be edited behind SQLite's back. */
+  sl_project_exec (project, "PRAGMA writable_schema = ON", NULL);
+  g_assert_false (sl_project_exec (project,
+                                   "UPDATE sqlite_schema SET sql = '' WHERE name = 'stars'", NULL));
+
+  /* Foreign keys are enforced: no measurement of a star that does not exist. */
+  g_assert_false (sl_project_exec (project,
+                                   "INSERT INTO measurements (star_id, source_id, line) VALUES (99, 99, 1)",
+                                   &error));
+  g_assert_error (error, SL_ERROR, SL_ERROR_DATABASE);
+}
+
+int
+main (int argc, char **argv)
+{
+  g_test_init (&argc, &argv, NULL);
+
+#define ADD(path, func) g_test_add (path, Fixture, NULL, fixture_set_up, func, fixture_tear_down)
+  ADD ("/project/create/new", test_create);
+  ADD ("/project/create/refuses-existing-file", test_create_refuses_existing);
+  ADD ("/project/open/reopen", test_reopen);
+  ADD ("/project/open/missing-file", test_open_missing);
+  ADD ("/project/open/refuses-foreign-sqlite", test_open_foreign_sqlite);
+  ADD ("/project/open/refuses-empty-sqlite", test_open_empty_sqlite);
+  ADD ("/project/open/refuses-text-file", test_open_text_file);
+  ADD ("/project/open/refuses-newer-schema", test_open_newer_schema);
+  ADD ("/project/migrate/from-version-1", test_migrate_from_v1);
+  ADD ("/project/hardening", test_hardening);
+#undef ADD
+
+  return g_test_run ();
+}
