@@ -69,7 +69,7 @@ import_demo (const char *project, const char *locale, CliResult *astrometry, Cli
   run_cli_in_locale (photometry, locale, "import", project, p,
                      "--map", "id=star", "--map", "ra=ra_sexa:hms", "--map", "dec=dec_sexa:dms",
                      "--map", "vmag=v", "--map", "vmag_err=v_sigma", "--map", "bv=b_minus_v",
-                     "--map", "bv_err=b_minus_v_sigma", "--map", "ebv=reddening",
+                     "--map", "bv_err=b_minus_v_sigma", "--map", "ebv=reddening", "--map", "ebv_err=reddening_sigma",
                      "--map", "sptype=spectral_type", "--missing", "99.99", "--epoch", "2000.0", NULL);
 }
 

@@ -354,24 +354,29 @@ def write_photometry(path, rng, stars, missing, companions, special):
         assert entries[i]["n"] not in special
 
     header = ("star;ra_sexa;dec_sexa;v;v_sigma;b_minus_v;b_minus_v_sigma;"
-              "reddening;spectral_type")
+              "reddening;reddening_sigma;spectral_type")
     out = [b"\xef\xbb\xbf" + header.encode("ascii")]
     for i, st in enumerate(entries):
         sp = st["sptype"] if st["has_type"] else ""
         if any(c in sp for c in ',;"'):
             sp = '"%s"' % sp.replace('"', '""')
+        reddening = phot_cell(rng, st["ebv"], "%.3f")
+        # The partner quotes E(B-V) to 0.01 mag plus 5 per cent (no draw,
+        # so the other cells keep their values).
+        reddening_sigma = (MISSING if reddening == MISSING
+                           else fmt("%.3f", 0.01 + 0.05 * st["ebv"]))
         cells = [designation(st["n"]), ra_sexa(st["ra2000"]),
                  dec_sexa(st["dec2000"]), fmt("%.3f", st["v"]),
                  phot_cell(rng, st["v_err"], "%.3f"), fmt("%.3f", st["bv"]),
                  phot_cell(rng, st["bv_err"], "%.3f"),
-                 phot_cell(rng, st["ebv"], "%.3f"), sp]
+                 reddening, reddening_sigma, sp]
         if i == PHOT_BAD_DEC_ROW:
             cells[2] = "+12 61 10.0"
         if i == PHOT_BAD_V_ROW:
             cells[3] = "41.20"
         raw = [c.encode("ascii") for c in cells]
         if i == utf8_row:
-            raw[8] = b"G5 \xff V"
+            raw[9] = b"G5 \xff V"
         out.append(b";".join(raw))
     with open(path, "wb") as f:
         f.write(b"\r\n".join(out) + b"\r\n")

@@ -50,5 +50,9 @@ int sl_cli_import  (int argc, char **argv);
 int sl_cli_export  (int argc, char **argv);
 int sl_cli_ledger  (int argc, char **argv);
 int sl_cli_summary (int argc, char **argv);
+int sl_cli_derive  (int argc, char **argv);
+int sl_cli_override (int argc, char **argv);
+int sl_cli_verify  (int argc, char **argv);
+int sl_cli_explain (int argc, char **argv);
 
 G_END_DECLS

@@ -16,29 +16,34 @@ sl_cli_export (int argc, char **argv)
     { "output", 'o', 0, G_OPTION_ARG_FILENAME, &output,
       N_("Write to FILE (default and '-': standard output)"), N_("FILE") },
     { "format", 0, 0, G_OPTION_ARG_STRING, &format,
-      N_("Table format: csv (default)"), N_("FORMAT") },
+      N_("Table format: csv (default) or tex (a LaTeX tabular)"), N_("FORMAT") },
     { "columns", 0, 0, G_OPTION_ARG_STRING, &columns_text,
       N_("Only these quantities, comma-separated (id always comes first)"), N_("A,B,…") },
     { NULL }
   };
   g_autoptr (GOptionContext) context =
-    sl_cli_context_new ("export", _("PROJECT"), _("Write the stars' values as a CSV table."),
+    sl_cli_context_new ("export", _("PROJECT"), _("Write the stars' values as a CSV or LaTeX table."),
                         _("One row per star. Each number q is written as three columns: q, q_lo "
                           "and q_hi, the value and the bounds of its 68% interval; an empty cell "
                           "means no value.\nRight ascension and declination are ICRS, in degrees, "
                           "at the epoch in the epoch column.\nWhere several sources measured a "
                           "star, each group of values (position, parallax, proper motion, each "
-                          "magnitude) comes from the measurement with the smallest uncertainty."),
+                          "magnitude) comes from the measurement with the smallest uncertainty.\n"
+                          "Derived values follow the inputs, then flags ('|'-separated; 'stale' when the "
+                          "inputs changed since the run, 'not_derived' before any run). The LaTeX table "
+                          "gives value^{+plus}_{-minus}, rounded to the uncertainty's significant digits."),
                         entries);
   g_auto (GStrv) columns = NULL;
   g_autoptr (SlProject) project = NULL;
   g_autoptr (GError) error = NULL;
-  SlExportOptions options = { NULL, NULL };
+  SlExportOptions options = { SL_EXPORT_CSV, NULL, NULL };
 
   if (!sl_cli_parse (context, "export", &argc, &argv, 1))
     return SL_EXIT_USAGE;
-  if (format != NULL && strcmp (format, "csv") != 0)
-    return sl_cli_usage_error ("export", _("--format %s: the formats are: csv"), format);
+  if (format != NULL && strcmp (format, "csv") != 0 && strcmp (format, "tex") != 0)
+    return sl_cli_usage_error ("export", _("--format %s: the formats are: csv, tex"), format);
+  if (format != NULL && strcmp (format, "tex") == 0)
+    options.format = SL_EXPORT_TEX;
   if (columns_text != NULL)
     {
       columns = g_strsplit (columns_text, ",", -1);
@@ -50,7 +55,7 @@ sl_cli_export (int argc, char **argv)
   project = sl_cli_open_project (argv[1]);
   if (project == NULL)
     return SL_EXIT_FAILURE;
-  if (sl_export_csv (project, output ? output : "-", &options, &error) < 0)
+  if (sl_export (project, output ? output : "-", &options, &error) < 0)
     return sl_cli_fail (error);
   return SL_EXIT_OK;
 }

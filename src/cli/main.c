@@ -13,7 +13,11 @@
 static const SlCliCommand commands[] = {
   { "new",     sl_cli_new,     N_("Create an empty project file") },
   { "import",  sl_cli_import,  N_("Import a CSV file of measurements as a new source") },
-  { "export",  sl_cli_export,  N_("Write the stars' values as a CSV table") },
+  { "derive",  sl_cli_derive,  N_("Derive physical quantities with their uncertainties") },
+  { "explain", sl_cli_explain, N_("Show how a value was obtained, down to the raw rows") },
+  { "override", sl_cli_override, N_("Set a derived value by hand, or clear it") },
+  { "verify",  sl_cli_verify,  N_("Recompute every derived value and compare") },
+  { "export",  sl_cli_export,  N_("Write the stars' values as a CSV or LaTeX table") },
   { "summary", sl_cli_summary, N_("Show what a project holds") },
   { "ledger",  sl_cli_ledger,  N_("Show the project's audit log") },
 };

@@ -1,8 +1,9 @@
-/* export.c: the CSV table of each star's inputs.
+/* export.c: the table of each star's inputs, derived values and flags.
  *
  * An input's interval is its value plus or minus its 1-sigma error.  The
  * right ascension error is on the sky (times cos Dec), so the RA interval
  * in degrees is widened by 1/cos Dec; at the poles it has no bounds.
+ * Derived values come with the bounds stored by their run.
  */
 #include "export.h"
 
@@ -14,115 +15,142 @@
 #include <unistd.h>
 #include <string.h>
 
+#include "derivation.h"
 #include "inputs.h"
+#include "rounding.h"
 #include "sl-error.h"
 #include "util.h"
 #include "vocabulary.h"
 
+/* One column of the table: an input field, a derived quantity, or the
+ * flags. */
+typedef enum {
+  COLUMN_INPUT,
+  COLUMN_DERIVED,
+  COLUMN_FLAGS,
+} ColumnKind;
+
+typedef struct {
+  ColumnKind kind;
+  int        index;   /* SlField or SlQuantity */
+} Column;
+
 /* Whether a field is a quantity of the table (errors become intervals). */
 static gboolean
-is_quantity (SlField field)
+is_input_quantity (SlField field)
 {
   SlFieldKind kind = sl_field_info (field)->kind;
 
   return kind == SL_FIELD_KIND_VALUE || kind == SL_FIELD_KIND_TEXT;
 }
 
+static const char *
+column_name (const Column *c)
+{
+  switch (c->kind)
+    {
+    case COLUMN_INPUT:   return sl_field_info (c->index)->name;
+    case COLUMN_DERIVED: return sl_quantity_info (c->index)->name;
+    default:             return "flags";
+    }
+}
+
+static const char *
+column_unit (const Column *c)
+{
+  switch (c->kind)
+    {
+    case COLUMN_INPUT:   return sl_unit_name (sl_field_info (c->index)->canonical);
+    case COLUMN_DERIVED: return sl_quantity_info (c->index)->unit;
+    default:             return "";
+    }
+}
+
+static gboolean
+column_is_text (const Column *c)
+{
+  switch (c->kind)
+    {
+    case COLUMN_INPUT:   return sl_field_info (c->index)->kind == SL_FIELD_KIND_TEXT;
+    case COLUMN_DERIVED: return sl_quantity_info (c->index)->is_text;
+    default:             return TRUE;
+    }
+}
+
+static GArray *
+all_columns (void)
+{
+  GArray *columns = g_array_new (FALSE, FALSE, sizeof (Column));
+
+  for (SlField f = SL_FIELD_ID + 1; f < SL_N_FIELDS; f++)
+    if (is_input_quantity (f))
+      g_array_append_val (columns, ((Column) { COLUMN_INPUT, f }));
+  for (SlQuantity q = 0; q < SL_N_QUANTITIES; q++)
+    g_array_append_val (columns, ((Column) { COLUMN_DERIVED, q }));
+  g_array_append_val (columns, ((Column) { COLUMN_FLAGS, 0 }));
+  return columns;
+}
+
 GPtrArray *
 sl_export_column_names (void)
 {
+  g_autoptr (GArray) columns = all_columns ();
   GPtrArray *names = g_ptr_array_new ();
 
-  for (SlField f = SL_FIELD_ID + 1; f < SL_N_FIELDS; f++)
-    if (is_quantity (f))
-      g_ptr_array_add (names, (gpointer) sl_field_info (f)->name);
+  for (guint i = 0; i < columns->len; i++)
+    g_ptr_array_add (names, (gpointer) column_name (&g_array_index (columns, Column, i)));
   return names;
 }
 
 static GArray *
-resolve_columns (const char *const *columns, GError **error)
+resolve_columns (const char *const *names, GError **error)
 {
-  GArray *fields = g_array_new (FALSE, FALSE, sizeof (SlField));
+  g_autoptr (GArray) known = all_columns ();
+  GArray *columns;
 
-  if (columns == NULL)
+  if (names == NULL)
+    return g_steal_pointer (&known);
+
+  columns = g_array_new (FALSE, FALSE, sizeof (Column));
+  for (guint i = 0; names[i]; i++)
     {
-      for (SlField f = SL_FIELD_ID + 1; f < SL_N_FIELDS; f++)
-        if (is_quantity (f))
-          g_array_append_val (fields, f);
-      return fields;
-    }
+      gboolean found = FALSE;
 
-  for (guint i = 0; columns[i]; i++)
-    {
-      SlField field;
-
-      if (g_ascii_strcasecmp (columns[i], "id") == 0)
+      if (g_ascii_strcasecmp (names[i], "id") == 0)
         continue;  /* always the first column */
-      if (!sl_field_from_name (columns[i], &field) || !is_quantity (field))
+      for (guint k = 0; k < known->len && !found; k++)
+        if (g_ascii_strcasecmp (names[i], column_name (&g_array_index (known, Column, k))) == 0)
+          {
+            g_array_append_val (columns, g_array_index (known, Column, k));
+            found = TRUE;
+          }
+      if (!found)
         {
-          g_autoptr (GPtrArray) names = sl_export_column_names ();
-          g_autofree char *known = NULL;
+          g_autoptr (GPtrArray) all = sl_export_column_names ();
+          g_autofree char *list = NULL;
 
-          g_ptr_array_add (names, NULL);
-          known = g_strjoinv (", ", (char **) names->pdata);
+          g_ptr_array_add (all, NULL);
+          list = g_strjoinv (", ", (char **) all->pdata);
           g_set_error (error, SL_ERROR, SL_ERROR_UNKNOWN_NAME,
                        _("no column '%s'; the columns are: id, %s (each number comes "
-                         "with its _lo and _hi bounds)"), columns[i], known);
-          g_array_unref (fields);
+                         "with its _lo and _hi bounds)"), names[i], list);
+          g_array_unref (columns);
           return NULL;
         }
-      g_array_append_val (fields, field);
     }
-  return fields;
+  return columns;
 }
 
-static void
-write_text_cell (FILE *out, const char *text)
-{
-  if (text == NULL)
-    return;
-  if (strpbrk (text, ",\"\r\n") == NULL && text[0] != ' '
-      && (text[0] == '\0' || text[strlen (text) - 1] != ' '))
-    {
-      fputs (text, out);
-      return;
-    }
-  fputc ('"', out);
-  for (const char *p = text; *p; p++)
-    {
-      if (*p == '"')
-        fputc ('"', out);
-      fputc (*p, out);
-    }
-  fputc ('"', out);
-}
+/* ------------------------------------------------------------------ */
+/* One row's cells                                                    */
 
-static void
-write_number_cell (FILE *out, double value)
-{
-  char buf[G_ASCII_DTOSTR_BUF_SIZE];
+/* A star's inputs and, if derived, its derived row. */
+typedef struct {
+  const SlStarInputs *in;
+  const SlDerivedRow *derived;   /* NULL if the star was never derived */
+} StarRow;
 
-  if (isfinite (value))
-    fputs (sl_format_double (buf, value), out);
-}
-
-static void
-write_header (FILE *out, GArray *fields)
-{
-  fputs ("id", out);
-  for (guint i = 0; i < fields->len; i++)
-    {
-      const char *name = sl_field_info (g_array_index (fields, SlField, i))->name;
-
-      if (sl_field_info (g_array_index (fields, SlField, i))->kind == SL_FIELD_KIND_TEXT)
-        fprintf (out, ",%s", name);
-      else
-        fprintf (out, ",%s,%s_lo,%s_hi", name, name, name);
-    }
-  fputc ('\n', out);
-}
-
-/* The half-width of FIELD's interval in its own unit, or NAN if none. */
+/* The half-width of an input's interval in its own unit, or NAN if none. */
 static double
 interval_half_width (const SlStarInputs *in, SlField field)
 {
@@ -143,29 +171,201 @@ interval_half_width (const SlStarInputs *in, SlField field)
   return width;
 }
 
-static void
-write_star (FILE *out, const SlStarInputs *in, GArray *fields)
+/* The numbers of a numeric column: FALSE if there is no value. */
+static gboolean
+column_numbers (const Column *c, const StarRow *row, double *value, double *lo, double *hi)
 {
-  write_text_cell (out, in->designation);
-  for (guint i = 0; i < fields->len; i++)
+  if (c->kind == COLUMN_INPUT)
     {
-      SlField f = g_array_index (fields, SlField, i);
       double half;
 
-      fputc (',', out);
-      if (sl_field_info (f)->kind == SL_FIELD_KIND_TEXT)
-        {
-          write_text_cell (out, in->sptype);
-          continue;
-        }
-      half = in->present[f] ? interval_half_width (in, f) : NAN;
-      write_number_cell (out, in->present[f] ? in->value[f] : NAN);
-      fputc (',', out);
-      write_number_cell (out, in->value[f] - half);
-      fputc (',', out);
-      write_number_cell (out, in->value[f] + half);
+      if (!row->in->present[c->index])
+        return FALSE;
+      half = interval_half_width (row->in, c->index);
+      *value = row->in->value[c->index];
+      *lo = *value - half;
+      *hi = *value + half;
+      return TRUE;
+    }
+  if (row->derived == NULL || !row->derived->values.has[c->index])
+    return FALSE;
+  *value = row->derived->values.value[c->index];
+  *lo = row->derived->values.lo[c->index];
+  *hi = row->derived->values.hi[c->index];
+  return TRUE;
+}
+
+/* The text of a text column (NULL: empty); FREE_ME holds what to free. */
+static const char *
+column_text (const Column *c, const StarRow *row, char **free_me)
+{
+  *free_me = NULL;
+  if (c->kind == COLUMN_INPUT)
+    return row->in->sptype;
+  if (c->kind == COLUMN_DERIVED)
+    return row->derived && row->derived->values.has[c->index] ? row->derived->values.text[c->index] : NULL;
+  if (row->derived == NULL)
+    return "not_derived";
+  *free_me = sl_flags_to_string (row->derived->values.flags);
+  if (row->derived->stale)
+    {
+      char *with_stale = g_strconcat (**free_me ? *free_me : "", **free_me ? "|" : "", "stale", NULL);
+
+      g_free (*free_me);
+      *free_me = with_stale;
+    }
+  return *free_me;
+}
+
+/* ------------------------------------------------------------------ */
+/* CSV                                                                */
+
+static void
+write_csv_text (FILE *out, const char *text)
+{
+  if (text == NULL)
+    return;
+  if (strpbrk (text, ",\"\r\n") == NULL && text[0] != ' '
+      && (text[0] == '\0' || text[strlen (text) - 1] != ' '))
+    {
+      fputs (text, out);
+      return;
+    }
+  fputc ('"', out);
+  for (const char *p = text; *p; p++)
+    {
+      if (*p == '"')
+        fputc ('"', out);
+      fputc (*p, out);
+    }
+  fputc ('"', out);
+}
+
+static void
+write_csv_number (FILE *out, double value)
+{
+  char buf[G_ASCII_DTOSTR_BUF_SIZE];
+
+  if (isfinite (value))
+    fputs (sl_format_double (buf, value), out);
+}
+
+static void
+write_csv_header (FILE *out, GArray *columns)
+{
+  fputs ("id", out);
+  for (guint i = 0; i < columns->len; i++)
+    {
+      const Column *c = &g_array_index (columns, Column, i);
+      const char *name = column_name (c);
+
+      if (column_is_text (c))
+        fprintf (out, ",%s", name);
+      else
+        fprintf (out, ",%s,%s_lo,%s_hi", name, name, name);
     }
   fputc ('\n', out);
+}
+
+static void
+write_csv_row (FILE *out, GArray *columns, const StarRow *row)
+{
+  write_csv_text (out, row->in->designation);
+  for (guint i = 0; i < columns->len; i++)
+    {
+      const Column *c = &g_array_index (columns, Column, i);
+      double value = NAN, lo = NAN, hi = NAN;
+
+      fputc (',', out);
+      if (column_is_text (c))
+        {
+          g_autofree char *free_me = NULL;
+
+          write_csv_text (out, column_text (c, row, &free_me));
+          continue;
+        }
+      column_numbers (c, row, &value, &lo, &hi);
+      write_csv_number (out, value);
+      fputc (',', out);
+      write_csv_number (out, lo);
+      fputc (',', out);
+      write_csv_number (out, hi);
+    }
+  fputc ('\n', out);
+}
+
+/* ------------------------------------------------------------------ */
+/* LaTeX                                                              */
+
+static void
+write_tex_text (FILE *out, const char *text)
+{
+  for (const char *p = text ? text : ""; *p; p++)
+    switch (*p)
+      {
+      case '&': case '%': case '$': case '#': case '_': case '{': case '}':
+        fprintf (out, "\\%c", *p);
+        break;
+      case '~':  fputs ("\\textasciitilde{}", out); break;
+      case '^':  fputs ("\\textasciicircum{}", out); break;
+      case '\\': fputs ("\\textbackslash{}", out); break;
+      default:   fputc (*p, out);
+      }
+}
+
+static void
+write_tex_header (FILE *out, GArray *columns)
+{
+  fputs ("% Written by Starledger " PACKAGE_VERSION ". Uncertainties are 68% intervals, rounded\n"
+         "% to their significant digits (Particle Data Group rule).\n", out);
+  fputs ("\\begin{tabular}{l", out);
+  for (guint i = 0; i < columns->len; i++)
+    fputs (column_is_text (&g_array_index (columns, Column, i)) ? "l" : "r", out);
+  fputs ("}\n\\hline\nid", out);
+  for (guint i = 0; i < columns->len; i++)
+    {
+      const Column *c = &g_array_index (columns, Column, i);
+
+      fputs (" & ", out);
+      write_tex_text (out, column_name (c));
+      if (*column_unit (c))
+        {
+          fputs (" (", out);
+          write_tex_text (out, column_unit (c));
+          fputc (')', out);
+        }
+    }
+  fputs (" \\\\\n\\hline\n", out);
+}
+
+static void
+write_tex_row (FILE *out, GArray *columns, const StarRow *row)
+{
+  write_tex_text (out, row->in->designation);
+  for (guint i = 0; i < columns->len; i++)
+    {
+      const Column *c = &g_array_index (columns, Column, i);
+      double value, lo, hi;
+      SlRounded r;
+
+      fputs (" & ", out);
+      if (column_is_text (c))
+        {
+          g_autofree char *free_me = NULL;
+
+          write_tex_text (out, column_text (c, row, &free_me));
+          continue;
+        }
+      if (!column_numbers (c, row, &value, &lo, &hi))
+        continue;
+      if (!sl_round_with_interval (value, lo, hi, &r))
+        fprintf (out, "$%s$", r.value);
+      else if (strcmp (r.plus, r.minus) == 0)
+        fprintf (out, "$%s \\pm %s$", r.value, r.plus);
+      else
+        fprintf (out, "$%s^{+%s}_{-%s}$", r.value, r.plus, r.minus);
+    }
+  fputs (" \\\\\n", out);
 }
 
 /* Opens a temporary file beside PATH; the rename in close_output makes it
@@ -228,39 +428,75 @@ close_output (FILE *out, const char *path, char *temp_path, gboolean ok, GError 
   return FALSE;
 }
 
-gint64
-sl_export_csv (SlProject *project, const char *path, const SlExportOptions *options,
-               GError **error)
+/* Reads derived rows in star order alongside the inputs. */
+static gboolean
+next_derived_row (sqlite3_stmt *stmt, gint64 star_id, SlDerivedRow *row, gboolean *pending,
+                  gboolean *finished)
 {
-  g_autoptr (GArray) fields = NULL;
+  while (!*finished && (!*pending || row->star_id < star_id))
+    {
+      if (sqlite3_step (stmt) != SQLITE_ROW)
+        {
+          *finished = TRUE;
+          break;
+        }
+      sl_derived_row_read (stmt, row);
+      *pending = TRUE;
+    }
+  return *pending && row->star_id == star_id;
+}
+
+gint64
+sl_export (SlProject *project, const char *path, const SlExportOptions *options, GError **error)
+{
+  g_autoptr (GArray) columns = NULL;
   g_autoptr (SlInputCursor) cursor = NULL;
   g_autoptr (GError) local_error = NULL;
+  g_autofree char *derived_sql = sl_derived_select_sql ("ORDER BY star_id");
+  sqlite3_stmt *derived = NULL;
+  gboolean pending = FALSE, finished = FALSE;
+  SlDerivedRow derived_row;
   char *temp_path;
   SlStarInputs inputs;
   gint64 count = 0;
   FILE *out;
   gboolean ok;
 
-  fields = resolve_columns (options->columns, error);
-  if (fields == NULL)
+  columns = resolve_columns (options->columns, error);
+  if (columns == NULL)
     return -1;
   /* Read in one transaction so the table is one consistent snapshot. */
   if (!sl_project_exec (project, "BEGIN", error))
     return -1;
-  cursor = sl_input_cursor_new (project, 0, error);
+  derived = sl_project_prepare (project, derived_sql, error);
+  cursor = derived ? sl_input_cursor_new (project, 0, error) : NULL;
   if (cursor == NULL || (out = open_output (path, &temp_path, error)) == NULL)
     {
+      sqlite3_finalize (derived);
       sl_project_rollback (project);
       return -1;
     }
 
-  write_header (out, fields);
+  if (options->format == SL_EXPORT_TEX)
+    write_tex_header (out, columns);
+  else
+    write_csv_header (out, columns);
   while (sl_input_cursor_next (cursor, &inputs, &local_error))
     {
-      write_star (out, &inputs, fields);
+      StarRow row = { &inputs, NULL };
+
+      if (next_derived_row (derived, inputs.star_id, &derived_row, &pending, &finished))
+        row.derived = &derived_row;
+      if (options->format == SL_EXPORT_TEX)
+        write_tex_row (out, columns, &row);
+      else
+        write_csv_row (out, columns, &row);
       if (++count % 4096 == 0 && g_cancellable_is_cancelled (options->cancellable))
         break;
     }
+  if (options->format == SL_EXPORT_TEX)
+    fputs ("\\hline\n\\end{tabular}\n", out);
+  sqlite3_finalize (derived);
   ok = local_error == NULL
        && !g_cancellable_set_error_if_cancelled (options->cancellable, &local_error);
   sl_project_rollback (project);

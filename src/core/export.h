@@ -1,9 +1,11 @@
-/* export.h: writing a project's stars as an RFC 4180 CSV table.
+/* export.h: writing a project's stars as a table, CSV or LaTeX.
  *
- * Every numeric quantity q is three columns, q, q_lo and q_hi: the value
- * and the bounds of its 68% interval (DESIGN.md); an empty cell is no
- * value.  The file is written to a temporary name and renamed into place,
- * so a failed export never leaves half a file.
+ * CSV (RFC 4180): every numeric quantity q is three columns, q, q_lo and
+ * q_hi: the value and the bounds of its 68% interval (DESIGN.md); an empty
+ * cell is no value; the flags column lists flags separated by '|'.  LaTeX:
+ * a tabular with each value and its (asymmetric) uncertainty rounded to
+ * the uncertainty's significant digits.  A file is written to a temporary
+ * name and renamed into place, so a failed export never leaves half a file.
  */
 #pragma once
 
@@ -13,17 +15,23 @@
 
 G_BEGIN_DECLS
 
+typedef enum {
+  SL_EXPORT_CSV,
+  SL_EXPORT_TEX,
+} SlExportFormat;
+
 typedef struct {
-  const char *const *columns;  /* quantity names, NULL-terminated; NULL: all */
+  SlExportFormat     format;
+  const char *const *columns;  /* names, NULL-terminated; NULL: every input, derived value and flags */
   GCancellable      *cancellable;
 } SlExportOptions;
 
 /* Writes the table to PATH, or to standard output when PATH is "-".
  * Returns the number of stars written, or -1 on error. */
-gint64 sl_export_csv (SlProject *project, const char *path,
-                      const SlExportOptions *options, GError **error);
+gint64 sl_export (SlProject *project, const char *path, const SlExportOptions *options,
+                  GError **error);
 
-/* The quantity names --columns accepts, in table order. */
+/* The names --columns accepts, in table order. */
 GPtrArray *sl_export_column_names (void);
 
 G_END_DECLS

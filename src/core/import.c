@@ -704,6 +704,25 @@ finish_source (Import *im, GError **error)
       return FALSE;
     }
 
+  /* Stars that gained a measurement must be derived again. */
+  stmt = sl_project_prepare (im->project,
+                             "UPDATE derived SET stale = 1 WHERE star_id IN "
+                             "(SELECT star_id FROM measurements WHERE source_id = ?)", error);
+  if (stmt == NULL)
+    {
+      g_string_free (details, TRUE);
+      return FALSE;
+    }
+  sqlite3_bind_int64 (stmt, 1, report->source_id);
+  ok = sqlite3_step (stmt) == SQLITE_DONE;
+  sqlite3_finalize (stmt);
+  if (!ok)
+    {
+      sl_project_set_db_error (im->project, error, "derived");
+      g_string_free (details, TRUE);
+      return FALSE;
+    }
+
   summary = g_strdup_printf (_("imported %s: %" G_GUINT64_FORMAT " rows accepted, %u rejected, %"
                                G_GUINT64_FORMAT " new stars"),
                              report->file_name, report->rows_accepted, report->rejections->len,

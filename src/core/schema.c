@@ -96,9 +96,71 @@ static const char migration_to_2[] =
   "  PRIMARY KEY (list_id, star_id)"
   ") STRICT, WITHOUT ROWID;";
 
+/* Version 3: derivation runs, one wide row of derived values per star,
+ * and values set by hand.  Column names are the vocabulary's; every
+ * number q has q_lo and q_hi, the bounds of its 68% interval (NULL: none). */
+static const char migration_to_3[] =
+  "CREATE TABLE derivation_runs ("
+  "  id               INTEGER PRIMARY KEY,"
+  "  started_at       TEXT NOT NULL,"
+  "  finished_at      TEXT,"
+  "  who              TEXT NOT NULL,"
+  "  software_version TEXT NOT NULL,"
+  "  parameters       TEXT NOT NULL,"      /* GLib key file (derive.h SlDeriveParams) */
+  "  methods          TEXT NOT NULL,"      /* JSON: {module: version} */
+  "  stars            INTEGER NOT NULL DEFAULT 0,"
+  "  duration_s       REAL"
+  ") STRICT;"
+  "CREATE TABLE derived ("
+  "  star_id        INTEGER PRIMARY KEY REFERENCES stars (id),"
+  "  run_id         INTEGER NOT NULL REFERENCES derivation_runs (id),"
+  "  stale          INTEGER NOT NULL DEFAULT 0,"   /* inputs or overrides changed since */
+  "  flags          INTEGER NOT NULL DEFAULT 0,"   /* derive.h SlFlag bits */
+  "  monte_carlo    INTEGER NOT NULL DEFAULT 0,"   /* intervals are draw percentiles */
+  /* The measurements rows each group of inputs came from. */
+  "  m_position INTEGER, m_parallax INTEGER, m_pm INTEGER, m_vmag INTEGER, m_bmag INTEGER,"
+  "  m_bv INTEGER, m_ebv INTEGER, m_vrad INTEGER, m_sptype INTEGER,"
+  "  plx_snr REAL, plx_snr_lo REAL, plx_snr_hi REAL,"
+  "  dist REAL, dist_lo REAL, dist_hi REAL,"
+  "  distmod REAL, distmod_lo REAL, distmod_hi REAL,"
+  "  av REAL, av_lo REAL, av_hi REAL,"
+  "  bv0 REAL, bv0_lo REAL, bv0_hi REAL,"
+  "  absmag REAL, absmag_lo REAL, absmag_hi REAL,"
+  "  teff REAL, teff_lo REAL, teff_hi REAL,"
+  "  bc REAL, bc_lo REAL, bc_hi REAL,"
+  "  mbol REAL, mbol_lo REAL, mbol_hi REAL,"
+  "  lum REAL, lum_lo REAL, lum_hi REAL,"
+  "  radius REAL, radius_lo REAL, radius_hi REAL,"
+  "  vtan REAL, vtan_lo REAL, vtan_hi REAL,"
+  "  elon REAL, elon_lo REAL, elon_hi REAL,"
+  "  elat REAL, elat_lo REAL, elat_hi REAL,"
+  "  ellipse_a REAL, ellipse_a_lo REAL, ellipse_a_hi REAL,"
+  "  ellipse_b REAL, ellipse_b_lo REAL, ellipse_b_hi REAL,"
+  "  ellipse_pa REAL, ellipse_pa_lo REAL, ellipse_pa_hi REAL,"
+  "  spclass TEXT,"
+  /* The 1-sigma error ellipse in log Teff - log L, for the HR diagram. */
+  "  logt_sigma REAL, logl_sigma REAL, logt_logl_corr REAL"
+  ") STRICT;"
+  "CREATE INDEX derived_by_run ON derived (run_id);"
+  "CREATE TABLE overrides ("
+  "  id         INTEGER PRIMARY KEY,"
+  "  star_id    INTEGER NOT NULL REFERENCES stars (id),"
+  "  quantity   TEXT NOT NULL,"
+  "  value      REAL NOT NULL,"
+  "  lo         REAL,"
+  "  hi         REAL,"
+  "  reason     TEXT NOT NULL,"
+  "  set_by     TEXT NOT NULL,"
+  "  set_at     TEXT NOT NULL,"
+  "  cleared_by TEXT,"                     /* history is kept: a cleared override stays */
+  "  cleared_at TEXT"
+  ") STRICT;"
+  "CREATE UNIQUE INDEX overrides_active ON overrides (star_id, quantity) WHERE cleared_at IS NULL;";
+
 static const char *const migrations[] = {
   migration_to_1,
   migration_to_2,
+  migration_to_3,
 };
 
 int

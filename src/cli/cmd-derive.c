@@ -1,0 +1,144 @@
+/* cmd-derive.c: starledger-cli derive PROJECT [options] */
+#include <glib/gi18n.h>
+#include <math.h>
+#include <stdio.h>
+#include <string.h>
+
+#include "cli.h"
+#include "derivation.h"
+#include "units.h"
+
+/* --distance inverse | edsd[:L=PC] */
+static gboolean
+parse_distance (const char *text, SlDeriveParams *params)
+{
+  const char *problem;
+
+  if (strcmp (text, "inverse") == 0)
+    {
+      params->distance = SL_DISTANCE_INVERSE;
+      return TRUE;
+    }
+  if (strcmp (text, "edsd") == 0)
+    {
+      params->distance = SL_DISTANCE_EDSD;
+      return TRUE;
+    }
+  if (g_str_has_prefix (text, "edsd:L="))
+    {
+      params->distance = SL_DISTANCE_EDSD;
+      return sl_parse_number (text + strlen ("edsd:L="), &params->length_scale_pc, &problem)
+             && params->length_scale_pc > 0.0;
+    }
+  return FALSE;
+}
+
+/* --errors linear | mc[:N] */
+static gboolean
+parse_errors (const char *text, SlDeriveParams *params)
+{
+  if (strcmp (text, "linear") == 0)
+    {
+      params->errors = SL_ERRORS_LINEAR;
+      return TRUE;
+    }
+  if (strcmp (text, "mc") == 0)
+    {
+      params->errors = SL_ERRORS_MONTE_CARLO;
+      return TRUE;
+    }
+  if (g_str_has_prefix (text, "mc:"))
+    {
+      guint64 n;
+
+      params->errors = SL_ERRORS_MONTE_CARLO;
+      if (!g_ascii_string_to_unsigned (text + 3, 10, 10, 10000000, &n, NULL))
+        return FALSE;
+      params->draws = (guint) n;
+      return TRUE;
+    }
+  return FALSE;
+}
+
+static gboolean
+parse_positive_number (const char *text, double *value, gboolean allow_zero_or_negative)
+{
+  const char *problem;
+
+  return sl_parse_number (text, value, &problem) && (allow_zero_or_negative || *value > 0.0);
+}
+
+int
+sl_cli_derive (int argc, char **argv)
+{
+  g_autofree char *distance = NULL;
+  g_autofree char *errors = NULL;
+  g_autofree char *seed = NULL;
+  g_autofree char *rv = NULL;
+  g_autofree char *rv_err = NULL;
+  g_autofree char *zero_point = NULL;
+  g_autofree char *teff = NULL;
+  gboolean all = FALSE;
+  const GOptionEntry entries[] = {
+    { "distance", 0, 0, G_OPTION_ARG_STRING, &distance,
+      N_("Distance method: inverse (default; parallax S/N >= 5 only) or edsd[:L=PC] "
+         "(exponentially decreasing space density prior, L = 1350 pc by default)"), N_("METHOD") },
+    { "errors", 0, 0, G_OPTION_ARG_STRING, &errors,
+      N_("Uncertainties: linear (default; Monte Carlo below parallax S/N 5) or mc[:N] (N draws, 1000 by default)"),
+      N_("METHOD") },
+    { "seed", 0, 0, G_OPTION_ARG_STRING, &seed, N_("Seed of the Monte Carlo draws (default 1)"), N_("N") },
+    { "extinction-ratio", 0, 0, G_OPTION_ARG_STRING, &rv, N_("R_V = A_V / E(B-V) (default 3.1)"), N_("R") },
+    { "extinction-ratio-error", 0, 0, G_OPTION_ARG_STRING, &rv_err, N_("The 1-sigma error of R_V (default 0)"),
+      N_("S") },
+    { "parallax-zero-point", 0, 0, G_OPTION_ARG_STRING, &zero_point,
+      N_("Subtract MAS from every parallax before use (default 0)"), N_("MAS") },
+    { "teff", 0, 0, G_OPTION_ARG_STRING, &teff,
+      N_("Temperature calibration: flower (default; Flower 1996 with Torres 2010) or ballesteros"), N_("METHOD") },
+    { "all", 0, 0, G_OPTION_ARG_NONE, &all, N_("Derive every star, not only those that need it"), NULL },
+    { NULL }
+  };
+  g_autoptr (GOptionContext) context =
+    sl_cli_context_new ("derive", _("PROJECT"), _("Derive physical quantities with their uncertainties."),
+                        _("Derives every star that has no derived values yet, whose inputs or hand-set values "
+                          "changed, or that was derived with other parameters (--all: every star). Each run "
+                          "is recorded with its parameters and method versions; 'explain' shows how any value "
+                          "was obtained and 'verify' recomputes them."),
+                        entries);
+  g_autoptr (SlProject) project = NULL;
+  g_autoptr (GError) error = NULL;
+  g_autofree char *described = NULL;
+  SlDeriveParams params;
+  SlDeriveReport report;
+
+  if (!sl_cli_parse (context, "derive", &argc, &argv, 1))
+    return SL_EXIT_USAGE;
+  sl_derive_params_init (&params);
+  if (distance && !parse_distance (distance, &params))
+    return sl_cli_usage_error ("derive", _("--distance %s: expected inverse, edsd or edsd:L=PC"), distance);
+  if (errors && !parse_errors (errors, &params))
+    return sl_cli_usage_error ("derive", _("--errors %s: expected linear, mc or mc:N"), errors);
+  if (seed && !g_ascii_string_to_unsigned (seed, 10, 0, G_MAXUINT64, &params.seed, NULL))
+    return sl_cli_usage_error ("derive", _("--seed %s: expected a whole number"), seed);
+  if (rv && !parse_positive_number (rv, &params.rv, FALSE))
+    return sl_cli_usage_error ("derive", _("--extinction-ratio %s: expected a positive number"), rv);
+  if (rv_err && (!parse_positive_number (rv_err, &params.rv_err, TRUE) || params.rv_err < 0))
+    return sl_cli_usage_error ("derive", _("--extinction-ratio-error %s: expected a number >= 0"), rv_err);
+  if (zero_point && !parse_positive_number (zero_point, &params.parallax_zero_point, TRUE))
+    return sl_cli_usage_error ("derive", _("--parallax-zero-point %s: expected a number"), zero_point);
+  if (teff && strcmp (teff, "flower") != 0 && strcmp (teff, "ballesteros") != 0)
+    return sl_cli_usage_error ("derive", _("--teff %s: expected flower or ballesteros"), teff);
+  if (teff)
+    params.teff = strcmp (teff, "ballesteros") == 0 ? SL_TEFF_BALLESTEROS : SL_TEFF_FLOWER_TORRES;
+
+  project = sl_cli_open_project (argv[1]);
+  if (project == NULL)
+    return SL_EXIT_FAILURE;
+  if (!sl_derivation_run (project, &params, all, NULL, NULL, NULL, &report, &error))
+    return sl_cli_fail (error);
+  described = sl_derive_params_describe (&params);
+  printf (_("derived %" G_GUINT64_FORMAT " stars, %" G_GUINT64_FORMAT " already up to date (run %"
+            G_GINT64_FORMAT ", %.2f s)\n"),
+          report.computed, report.up_to_date, report.run_id, report.seconds);
+  printf (_("parameters: %s\n"), described);
+  return SL_EXIT_OK;
+}

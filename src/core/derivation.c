@@ -1,0 +1,861 @@
+/* derivation.c: derivation runs, overrides and verification on a project.
+ *
+ * Contents:
+ *   the derived row ........ DerivedColumns, bind_derived_row, read_derived_row
+ *   choosing stars ......... stars_to_derive
+ *   overrides .............. load_all_overrides, sl_override_set, sl_override_clear
+ *   the run ................ sl_derivation_run
+ *   verification ........... sl_verify
+ */
+#include "derivation.h"
+
+#include <glib/gi18n.h>
+#include <math.h>
+#include <string.h>
+
+#include "inputs.h"
+#include "ledger.h"
+#include "sl-error.h"
+#include "util.h"
+
+#define ROWS_PER_CHECK 4096
+
+/* The measurements rows a derived row records, by the field that leads
+ * each group of inputs (inputs.c). */
+static const struct {
+  const char *column;
+  SlField     field;
+} measurement_columns[] = {
+  { "m_position", SL_FIELD_RA }, { "m_parallax", SL_FIELD_PARALLAX }, { "m_pm", SL_FIELD_PMRA },
+  { "m_vmag", SL_FIELD_VMAG }, { "m_bmag", SL_FIELD_BMAG }, { "m_bv", SL_FIELD_BV },
+  { "m_ebv", SL_FIELD_EBV }, { "m_vrad", SL_FIELD_VRAD }, { "m_sptype", SL_FIELD_SPTYPE },
+};
+
+#define N_MEASUREMENT_COLUMNS G_N_ELEMENTS (measurement_columns)
+
+/* ------------------------------------------------------------------ */
+/* The derived row                                                    */
+
+/* The columns after star_id and run_id, in one order for writing and
+ * reading: stale, flags, monte_carlo, m_*, each numeric q with q_lo and
+ * q_hi, spclass, and the log Teff - log L ellipse. */
+static char *
+derived_columns_sql (void)
+{
+  GString *sql = g_string_new ("stale, flags, monte_carlo");
+
+  for (gsize i = 0; i < N_MEASUREMENT_COLUMNS; i++)
+    g_string_append_printf (sql, ", %s", measurement_columns[i].column);
+  for (SlQuantity q = 0; q < SL_N_QUANTITIES; q++)
+    {
+      const char *name = sl_quantity_info (q)->name;
+
+      if (sl_quantity_info (q)->is_text)
+        g_string_append_printf (sql, ", %s", name);
+      else
+        g_string_append_printf (sql, ", %s, %s_lo, %s_hi", name, name, name);
+    }
+  g_string_append (sql, ", logt_sigma, logl_sigma, logt_logl_corr");
+  return g_string_free (sql, FALSE);
+}
+
+static char *
+derived_insert_sql (const char *columns)
+{
+  GString *sql = g_string_new (NULL);
+
+  g_string_append_printf (sql, "INSERT OR REPLACE INTO derived (star_id, run_id, %s) VALUES (?, ?", columns);
+  for (const char *p = columns; *p; p++)
+    if (*p == ',')
+      g_string_append (sql, ", ?");
+  g_string_append (sql, ", ?)");   /* the first column has no comma before it */
+  return g_string_free (sql, FALSE);
+}
+
+static void
+bind_double_or_null (sqlite3_stmt *stmt, int index, gboolean present, double value)
+{
+  if (present && isfinite (value))
+    sqlite3_bind_double (stmt, index, value);
+  else
+    sqlite3_bind_null (stmt, index);
+}
+
+/* Binds a star's derived row from parameter FIRST on (stale is 0). */
+static void
+bind_derived_row (sqlite3_stmt *stmt, int first, const SlStarInputs *in, const SlDerivedValues *v)
+{
+  int i = first;
+
+  sqlite3_bind_int (stmt, i++, 0);
+  sqlite3_bind_int64 (stmt, i++, v->flags);
+  sqlite3_bind_int (stmt, i++, v->monte_carlo);
+  for (gsize m = 0; m < N_MEASUREMENT_COLUMNS; m++, i++)
+    {
+      gint64 id = in->measurement[measurement_columns[m].field];
+
+      if (id > 0)
+        sqlite3_bind_int64 (stmt, i, id);
+      else
+        sqlite3_bind_null (stmt, i);
+    }
+  for (SlQuantity q = 0; q < SL_N_QUANTITIES; q++)
+    {
+      if (sl_quantity_info (q)->is_text)
+        {
+          if (v->has[q])
+            sqlite3_bind_text (stmt, i++, v->text[q], -1, SQLITE_TRANSIENT);
+          else
+            sqlite3_bind_null (stmt, i++);
+          continue;
+        }
+      bind_double_or_null (stmt, i++, v->has[q], v->value[q]);
+      bind_double_or_null (stmt, i++, v->has[q], v->lo[q]);
+      bind_double_or_null (stmt, i++, v->has[q], v->hi[q]);
+    }
+  bind_double_or_null (stmt, i++, TRUE, v->logt_sigma);
+  bind_double_or_null (stmt, i++, TRUE, v->logl_sigma);
+  bind_double_or_null (stmt, i++, TRUE, v->logt_logl_corr);
+}
+
+char *
+sl_derived_select_sql (const char *where_and_order)
+{
+  g_autofree char *columns = derived_columns_sql ();
+
+  return g_strdup_printf ("SELECT star_id, run_id, %s FROM derived %s", columns,
+                          where_and_order ? where_and_order : "");
+}
+
+static double
+column_double_or_nan (sqlite3_stmt *stmt, int column)
+{
+  return sqlite3_column_type (stmt, column) == SQLITE_NULL ? NAN : sqlite3_column_double (stmt, column);
+}
+
+void
+sl_derived_row_read (sqlite3_stmt *stmt, SlDerivedRow *row)
+{
+  SlDerivedValues *v = &row->values;
+  int c = 0;
+
+  memset (row, 0, sizeof *row);
+  row->star_id = sqlite3_column_int64 (stmt, c++);
+  row->run_id = sqlite3_column_int64 (stmt, c++);
+  row->stale = sqlite3_column_int (stmt, c++);
+  v->flags = (guint32) sqlite3_column_int64 (stmt, c++);
+  v->monte_carlo = sqlite3_column_int (stmt, c++);
+  for (gsize m = 0; m < N_MEASUREMENT_COLUMNS; m++)
+    row->measurement[measurement_columns[m].field] = sqlite3_column_int64 (stmt, c++);
+  for (SlQuantity q = 0; q < SL_N_QUANTITIES; q++)
+    {
+      if (sl_quantity_info (q)->is_text)
+        {
+          const char *text = (const char *) sqlite3_column_text (stmt, c++);
+
+          v->has[q] = text != NULL;
+          g_strlcpy (v->text[q], text ? text : "", sizeof v->text[q]);
+          continue;
+        }
+      v->has[q] = sqlite3_column_type (stmt, c) != SQLITE_NULL;
+      v->value[q] = column_double_or_nan (stmt, c++);
+      v->lo[q] = column_double_or_nan (stmt, c++);
+      v->hi[q] = column_double_or_nan (stmt, c++);
+    }
+  v->logt_sigma = column_double_or_nan (stmt, c++);
+  v->logl_sigma = column_double_or_nan (stmt, c++);
+  v->logt_logl_corr = column_double_or_nan (stmt, c++);
+}
+
+gboolean
+sl_derived_row_load (SlProject *project, gint64 star_id, SlDerivedRow *row, GError **error)
+{
+  g_autofree char *sql = sl_derived_select_sql ("WHERE star_id = ?");
+  sqlite3_stmt *stmt = sl_project_prepare (project, sql, error);
+  gboolean found = FALSE;
+
+  if (stmt == NULL)
+    return FALSE;
+  sqlite3_bind_int64 (stmt, 1, star_id);
+  if (sqlite3_step (stmt) == SQLITE_ROW)
+    {
+      sl_derived_row_read (stmt, row);
+      found = TRUE;
+    }
+  sqlite3_finalize (stmt);
+  return found;
+}
+
+/* ------------------------------------------------------------------ */
+/* Overrides                                                          */
+
+static void
+override_array_free (gpointer data)
+{
+  g_array_unref (data);
+}
+
+static GArray *
+read_overrides (sqlite3_stmt *stmt, GHashTable *by_star, GError **error)
+{
+  GArray *single = by_star ? NULL : g_array_new (FALSE, FALSE, sizeof (SlOverride));
+  int rc;
+
+  while ((rc = sqlite3_step (stmt)) == SQLITE_ROW)
+    {
+      gint64 star_id = sqlite3_column_int64 (stmt, 0);
+      SlOverride o;
+      GArray *list = single;
+
+      if (!sl_quantity_from_name ((const char *) sqlite3_column_text (stmt, 1), &o.quantity))
+        continue;   /* written by a newer Starledger: ignored, not guessed */
+      o.value = sqlite3_column_double (stmt, 2);
+      o.lo = sqlite3_column_type (stmt, 3) == SQLITE_NULL ? NAN : sqlite3_column_double (stmt, 3);
+      o.hi = sqlite3_column_type (stmt, 4) == SQLITE_NULL ? NAN : sqlite3_column_double (stmt, 4);
+      if (by_star)
+        {
+          list = g_hash_table_lookup (by_star, &star_id);
+          if (list == NULL)
+            {
+              gint64 *key = g_new (gint64, 1);
+
+              *key = star_id;
+              list = g_array_new (FALSE, FALSE, sizeof (SlOverride));
+              g_hash_table_insert (by_star, key, list);
+            }
+        }
+      g_array_append_val (list, o);
+    }
+  if (rc != SQLITE_DONE)
+    {
+      g_set_error (error, SL_ERROR, SL_ERROR_DATABASE, "%s", sqlite3_errmsg (sqlite3_db_handle (stmt)));
+      if (single)
+        g_array_unref (single);
+      return NULL;
+    }
+  return single;
+}
+
+#define OVERRIDE_COLUMNS "SELECT star_id, quantity, value, lo, hi FROM overrides WHERE cleared_at IS NULL"
+
+static GHashTable *
+load_all_overrides (SlProject *project, GError **error)
+{
+  GHashTable *by_star = g_hash_table_new_full (g_int64_hash, g_int64_equal, g_free, override_array_free);
+  sqlite3_stmt *stmt = sl_project_prepare (project, OVERRIDE_COLUMNS " ORDER BY id", error);
+  GError *local = NULL;
+
+  if (stmt == NULL)
+    {
+      g_hash_table_unref (by_star);
+      return NULL;
+    }
+  read_overrides (stmt, by_star, &local);
+  sqlite3_finalize (stmt);
+  if (local)
+    {
+      g_propagate_error (error, local);
+      g_hash_table_unref (by_star);
+      return NULL;
+    }
+  return by_star;
+}
+
+GArray *
+sl_overrides_for_star (SlProject *project, gint64 star_id, GError **error)
+{
+  sqlite3_stmt *stmt = sl_project_prepare (project, OVERRIDE_COLUMNS " AND star_id = ? ORDER BY id", error);
+  GArray *list;
+
+  if (stmt == NULL)
+    return NULL;
+  sqlite3_bind_int64 (stmt, 1, star_id);
+  list = read_overrides (stmt, NULL, error);
+  sqlite3_finalize (stmt);
+  return list;
+}
+
+gint64
+sl_star_lookup (SlProject *project, const char *designation, GError **error)
+{
+  sqlite3_stmt *stmt = sl_project_prepare (project, "SELECT id FROM stars WHERE designation = ?", error);
+  gint64 id = 0;
+
+  if (stmt == NULL)
+    return 0;
+  sqlite3_bind_text (stmt, 1, designation, -1, SQLITE_STATIC);
+  if (sqlite3_step (stmt) == SQLITE_ROW)
+    id = sqlite3_column_int64 (stmt, 0);
+  sqlite3_finalize (stmt);
+  if (id == 0)
+    g_set_error (error, SL_ERROR, SL_ERROR_UNKNOWN_NAME, _("%s: no star '%s' in the project"),
+                 sl_project_path (project), designation);
+  return id;
+}
+
+static gboolean
+mark_stale (SlProject *project, gint64 star_id, GError **error)
+{
+  sqlite3_stmt *stmt = sl_project_prepare (project, "UPDATE derived SET stale = 1 WHERE star_id = ?", error);
+  gboolean ok;
+
+  if (stmt == NULL)
+    return FALSE;
+  sqlite3_bind_int64 (stmt, 1, star_id);
+  ok = sqlite3_step (stmt) == SQLITE_DONE;
+  if (!ok)
+    sl_project_set_db_error (project, error, "derived");
+  sqlite3_finalize (stmt);
+  return ok;
+}
+
+/* Marks the active override of (STAR, QUANTITY) cleared; returns how many
+ * rows it touched (0 or 1), or -1 on error. */
+static int
+clear_active_override (SlProject *project, gint64 star_id, SlQuantity quantity, const char *now,
+                       GError **error)
+{
+  sqlite3_stmt *stmt = sl_project_prepare (project,
+                                           "UPDATE overrides SET cleared_by = ?, cleared_at = ? "
+                                           "WHERE star_id = ? AND quantity = ? AND cleared_at IS NULL",
+                                           error);
+  int changed;
+
+  if (stmt == NULL)
+    return -1;
+  sqlite3_bind_text (stmt, 1, sl_current_user (), -1, SQLITE_TRANSIENT);
+  sqlite3_bind_text (stmt, 2, now, -1, SQLITE_STATIC);
+  sqlite3_bind_int64 (stmt, 3, star_id);
+  sqlite3_bind_text (stmt, 4, sl_quantity_info (quantity)->name, -1, SQLITE_STATIC);
+  changed = sqlite3_step (stmt) == SQLITE_DONE ? sqlite3_changes (sl_project_db (project)) : -1;
+  if (changed < 0)
+    sl_project_set_db_error (project, error, "overrides");
+  sqlite3_finalize (stmt);
+  return changed;
+}
+
+static char *
+override_ledger_details (const char *designation, SlQuantity quantity, double value, double lo,
+                         double hi, const char *reason)
+{
+  GString *json = g_string_new ("{\"star\":");
+
+  sl_json_append_string (json, designation);
+  g_string_append (json, ",\"quantity\":");
+  sl_json_append_string (json, sl_quantity_info (quantity)->name);
+  g_string_append (json, ",\"value\":");
+  sl_json_append_number (json, value);
+  g_string_append (json, ",\"lo\":");
+  sl_json_append_number (json, lo);
+  g_string_append (json, ",\"hi\":");
+  sl_json_append_number (json, hi);
+  g_string_append (json, ",\"reason\":");
+  sl_json_append_string (json, reason);
+  g_string_append_c (json, '}');
+  return g_string_free (json, FALSE);
+}
+
+gboolean
+sl_override_set (SlProject *project, const char *designation, SlQuantity quantity, double value,
+                 double lo, double hi, const char *reason, GError **error)
+{
+  g_autofree char *now = sl_now_utc ();
+  g_autofree char *summary = NULL;
+  g_autofree char *details = NULL;
+  char buf[G_ASCII_DTOSTR_BUF_SIZE];
+  sqlite3_stmt *stmt;
+  gint64 star_id;
+  gboolean ok;
+
+  g_return_val_if_fail (quantity < SL_N_QUANTITIES, FALSE);
+  if (sl_quantity_info (quantity)->is_text || !isfinite (value)
+      || (isfinite (lo) && !(lo <= value)) || (isfinite (hi) && !(hi >= value))
+      || isfinite (lo) != isfinite (hi) || reason == NULL || *reason == '\0')
+    {
+      g_set_error (error, SL_ERROR, SL_ERROR_BAD_INPUT,
+                   sl_quantity_info (quantity)->is_text
+                     ? _("%s is text and cannot be set by hand")
+                     : _("an override of %s needs a finite value, both or neither of lo <= value <= hi, "
+                         "and a reason"),
+                   sl_quantity_info (quantity)->name);
+      return FALSE;
+    }
+
+  if (!sl_project_begin (project, error))
+    return FALSE;
+  star_id = sl_star_lookup (project, designation, error);
+  stmt = star_id ? sl_project_prepare (project,
+                                       "INSERT INTO overrides (star_id, quantity, value, lo, hi, reason, set_by, set_at) "
+                                       "VALUES (?, ?, ?, ?, ?, ?, ?, ?)", error)
+                 : NULL;
+  if (stmt == NULL || clear_active_override (project, star_id, quantity, now, error) < 0)
+    {
+      sqlite3_finalize (stmt);
+      sl_project_rollback (project);
+      return FALSE;
+    }
+  sqlite3_bind_int64 (stmt, 1, star_id);
+  sqlite3_bind_text (stmt, 2, sl_quantity_info (quantity)->name, -1, SQLITE_STATIC);
+  sqlite3_bind_double (stmt, 3, value);
+  bind_double_or_null (stmt, 4, TRUE, lo);
+  bind_double_or_null (stmt, 5, TRUE, hi);
+  sqlite3_bind_text (stmt, 6, reason, -1, SQLITE_STATIC);
+  sqlite3_bind_text (stmt, 7, sl_current_user (), -1, SQLITE_TRANSIENT);
+  sqlite3_bind_text (stmt, 8, now, -1, SQLITE_STATIC);
+  ok = sqlite3_step (stmt) == SQLITE_DONE;
+  if (!ok)
+    sl_project_set_db_error (project, error, "overrides");
+  sqlite3_finalize (stmt);
+
+  summary = g_strdup_printf (_("set %s of %s to %s by hand: %s"), sl_quantity_info (quantity)->name,
+                             designation, sl_format_double (buf, value), reason);
+  details = override_ledger_details (designation, quantity, value, lo, hi, reason);
+  if (!ok || !mark_stale (project, star_id, error)
+      || !sl_ledger_append (project, "override", summary, details, error)
+      || !sl_project_commit (project, error))
+    {
+      sl_project_rollback (project);
+      return FALSE;
+    }
+  return TRUE;
+}
+
+gboolean
+sl_override_clear (SlProject *project, const char *designation, SlQuantity quantity,
+                   const char *reason, GError **error)
+{
+  g_autofree char *now = sl_now_utc ();
+  g_autofree char *summary = NULL;
+  g_autofree char *details = NULL;
+  gint64 star_id;
+  int cleared;
+
+  if (!sl_project_begin (project, error))
+    return FALSE;
+  star_id = sl_star_lookup (project, designation, error);
+  cleared = star_id ? clear_active_override (project, star_id, quantity, now, error) : -1;
+  if (cleared == 0)
+    g_set_error (error, SL_ERROR, SL_ERROR_UNKNOWN_NAME, _("%s: %s of %s was not set by hand"),
+                 sl_project_path (project), sl_quantity_info (quantity)->name, designation);
+  if (cleared <= 0)
+    {
+      sl_project_rollback (project);
+      return FALSE;
+    }
+  summary = g_strdup_printf (_("cleared the hand-set %s of %s%s%s"), sl_quantity_info (quantity)->name,
+                             designation, reason && *reason ? ": " : "", reason ? reason : "");
+  details = override_ledger_details (designation, quantity, NAN, NAN, NAN, reason ? reason : "");
+  if (!mark_stale (project, star_id, error)
+      || !sl_ledger_append (project, "override", summary, details, error)
+      || !sl_project_commit (project, error))
+    {
+      sl_project_rollback (project);
+      return FALSE;
+    }
+  return TRUE;
+}
+
+/* ------------------------------------------------------------------ */
+/* Choosing the stars                                                 */
+
+static GArray *
+stars_to_derive (SlProject *project, const char *params_text, gboolean all, guint64 *total,
+                 GError **error)
+{
+  sqlite3_stmt *stmt = sl_project_prepare (project,
+                                           "SELECT s.id, ?1 OR d.star_id IS NULL OR d.stale OR r.parameters <> ?2 "
+                                           "FROM stars s LEFT JOIN derived d ON d.star_id = s.id "
+                                           "LEFT JOIN derivation_runs r ON r.id = d.run_id ORDER BY s.id",
+                                           error);
+  GArray *ids;
+  int rc;
+
+  if (stmt == NULL)
+    return NULL;
+  sqlite3_bind_int (stmt, 1, all);
+  sqlite3_bind_text (stmt, 2, params_text, -1, SQLITE_STATIC);
+  ids = g_array_new (FALSE, FALSE, sizeof (gint64));
+  *total = 0;
+  while ((rc = sqlite3_step (stmt)) == SQLITE_ROW)
+    {
+      gint64 id = sqlite3_column_int64 (stmt, 0);
+
+      (*total)++;
+      if (sqlite3_column_int (stmt, 1))
+        g_array_append_val (ids, id);
+    }
+  sqlite3_finalize (stmt);
+  if (rc != SQLITE_DONE)
+    {
+      sl_project_set_db_error (project, error, "derived");
+      g_array_unref (ids);
+      return NULL;
+    }
+  return ids;
+}
+
+/* ------------------------------------------------------------------ */
+/* The run                                                            */
+
+static char *
+methods_json (void)
+{
+  guint n;
+  const SlModule *const *modules = sl_modules (&n);
+  GString *json = g_string_new ("{");
+
+  for (guint i = 0; i < n; i++)
+    {
+      if (i)
+        g_string_append_c (json, ',');
+      sl_json_append_string (json, modules[i]->name);
+      g_string_append_printf (json, ":%d", modules[i]->version);
+    }
+  g_string_append_c (json, '}');
+  return g_string_free (json, FALSE);
+}
+
+static gint64
+insert_run (SlProject *project, const char *params_text, const char *started, GError **error)
+{
+  g_autofree char *methods = methods_json ();
+  sqlite3_stmt *stmt = sl_project_prepare (project,
+                                           "INSERT INTO derivation_runs (started_at, who, software_version, "
+                                           "parameters, methods) VALUES (?, ?, ?, ?, ?)", error);
+  gint64 id = 0;
+
+  if (stmt == NULL)
+    return 0;
+  sqlite3_bind_text (stmt, 1, started, -1, SQLITE_STATIC);
+  sqlite3_bind_text (stmt, 2, sl_current_user (), -1, SQLITE_TRANSIENT);
+  sqlite3_bind_text (stmt, 3, PACKAGE_VERSION, -1, SQLITE_STATIC);
+  sqlite3_bind_text (stmt, 4, params_text, -1, SQLITE_STATIC);
+  sqlite3_bind_text (stmt, 5, methods, -1, SQLITE_STATIC);
+  if (sqlite3_step (stmt) == SQLITE_DONE)
+    id = sqlite3_last_insert_rowid (sl_project_db (project));
+  else
+    sl_project_set_db_error (project, error, "derivation_runs");
+  sqlite3_finalize (stmt);
+  return id;
+}
+
+static gboolean
+finish_run (SlProject *project, const SlDeriveParams *params, SlDeriveReport *report, GError **error)
+{
+  g_autofree char *now = sl_now_utc ();
+  g_autofree char *described = sl_derive_params_describe (params);
+  g_autofree char *summary = NULL;
+  g_autofree char *details = NULL;
+  sqlite3_stmt *stmt = sl_project_prepare (project,
+                                           "UPDATE derivation_runs SET finished_at = ?, stars = ?, duration_s = ? "
+                                           "WHERE id = ?", error);
+  gboolean ok;
+
+  if (stmt == NULL)
+    return FALSE;
+  sqlite3_bind_text (stmt, 1, now, -1, SQLITE_STATIC);
+  sqlite3_bind_int64 (stmt, 2, (gint64) report->computed);
+  sqlite3_bind_double (stmt, 3, report->seconds);
+  sqlite3_bind_int64 (stmt, 4, report->run_id);
+  ok = sqlite3_step (stmt) == SQLITE_DONE;
+  sqlite3_finalize (stmt);
+  if (!ok)
+    {
+      sl_project_set_db_error (project, error, "derivation_runs");
+      return FALSE;
+    }
+  summary = g_strdup_printf (_("derived %" G_GUINT64_FORMAT " stars (run %" G_GINT64_FORMAT "; %s)"),
+                             report->computed, report->run_id, described);
+  details = g_strdup_printf ("{\"run_id\":%" G_GINT64_FORMAT ",\"stars\":%" G_GUINT64_FORMAT
+                             ",\"up_to_date\":%" G_GUINT64_FORMAT "}",
+                             report->run_id, report->computed, report->up_to_date);
+  return sl_ledger_append (project, "derive", summary, details, error);
+}
+
+gboolean
+sl_derivation_run (SlProject *project, const SlDeriveParams *params, gboolean all,
+                   GCancellable *cancellable, SlProgressFunc progress, gpointer progress_data,
+                   SlDeriveReport *report, GError **error)
+{
+  g_autofree char *params_text = sl_derive_params_to_keyfile (params);
+  g_autofree char *started = sl_now_utc ();
+  g_autofree char *columns = derived_columns_sql ();
+  g_autofree char *insert_sql = NULL;
+  g_autoptr (GArray) ids = NULL;
+  g_autoptr (GHashTable) overrides = NULL;
+  g_autoptr (SlInputCursor) cursor = NULL;
+  g_autoptr (SlEngine) engine = NULL;
+  g_autoptr (GTimer) timer = g_timer_new ();
+  sqlite3_stmt *insert = NULL;
+  SlStarInputs inputs;
+  SlDerivedValues values;
+  GError *local = NULL;
+  guint64 total;
+  guint next = 0;
+
+  memset (report, 0, sizeof *report);
+  insert_sql = derived_insert_sql (columns);
+
+  if (!sl_project_begin (project, error))
+    return FALSE;
+  ids = stars_to_derive (project, params_text, all, &total, error);
+  overrides = ids ? load_all_overrides (project, error) : NULL;
+  report->run_id = overrides ? insert_run (project, params_text, started, error) : 0;
+  insert = report->run_id ? sl_project_prepare (project, insert_sql, error) : NULL;
+  cursor = insert ? sl_input_cursor_new (project, 0, error) : NULL;
+  if (cursor == NULL)
+    {
+      sqlite3_finalize (insert);
+      sl_project_rollback (project);
+      return FALSE;
+    }
+
+  engine = sl_engine_new (params);
+  while (next < ids->len && sl_input_cursor_next (cursor, &inputs, &local))
+    {
+      GArray *star_overrides;
+
+      if (inputs.star_id != g_array_index (ids, gint64, next))
+        continue;
+      next++;
+      star_overrides = g_hash_table_lookup (overrides, &inputs.star_id);
+      sl_engine_derive (engine, &inputs,
+                        star_overrides ? (const SlOverride *) star_overrides->data : NULL,
+                        star_overrides ? star_overrides->len : 0, &values);
+      sqlite3_bind_int64 (insert, 1, inputs.star_id);
+      sqlite3_bind_int64 (insert, 2, report->run_id);
+      bind_derived_row (insert, 3, &inputs, &values);
+      if (sqlite3_step (insert) != SQLITE_DONE)
+        {
+          sl_project_set_db_error (project, &local, "derived");
+          sqlite3_reset (insert);
+          break;
+        }
+      sqlite3_reset (insert);
+      report->computed++;
+      if (report->computed % ROWS_PER_CHECK == 0)
+        {
+          if (g_cancellable_set_error_if_cancelled (cancellable, &local))
+            break;
+          if (progress)
+            progress ((double) report->computed / ids->len, progress_data);
+        }
+    }
+  sqlite3_finalize (insert);
+
+  report->up_to_date = total - report->computed;
+  report->seconds = g_timer_elapsed (timer, NULL);
+  if (local != NULL || !finish_run (project, params, report, &local) || !sl_project_commit (project, &local))
+    {
+      g_propagate_error (error, local);
+      sl_project_rollback (project);
+      return FALSE;
+    }
+  return TRUE;
+}
+
+/* ------------------------------------------------------------------ */
+/* Verification                                                       */
+
+static SlEngine *
+engine_for_run (SlProject *project, GHashTable *engines, gint64 run_id, GError **error)
+{
+  SlEngine *engine = g_hash_table_lookup (engines, &run_id);
+  sqlite3_stmt *stmt;
+  SlDeriveParams params;
+  gboolean ok = FALSE;
+  gint64 *key;
+
+  if (engine)
+    return engine;
+  stmt = sl_project_prepare (project, "SELECT parameters FROM derivation_runs WHERE id = ?", error);
+  if (stmt == NULL)
+    return NULL;
+  sqlite3_bind_int64 (stmt, 1, run_id);
+  if (sqlite3_step (stmt) == SQLITE_ROW)
+    ok = sl_derive_params_from_keyfile (&params, (const char *) sqlite3_column_text (stmt, 0), error);
+  else
+    g_set_error (error, SL_ERROR, SL_ERROR_DATABASE, _("derived values refer to run %" G_GINT64_FORMAT
+                                                       ", which is not recorded"), run_id);
+  sqlite3_finalize (stmt);
+  if (!ok)
+    return NULL;
+  key = g_new (gint64, 1);
+  *key = run_id;
+  engine = sl_engine_new (&params);
+  g_hash_table_insert (engines, key, engine);
+  return engine;
+}
+
+static gboolean
+same_double (sqlite3_stmt *stmt, int column, gboolean present, double value)
+{
+  gboolean stored_null = sqlite3_column_type (stmt, column) == SQLITE_NULL;
+
+  if (!present || !isfinite (value))
+    return stored_null;
+  return !stored_null && sqlite3_column_double (stmt, column) == value;
+}
+
+static void
+describe_stored (sqlite3_stmt *stmt, int column, char *buf)
+{
+  if (sqlite3_column_type (stmt, column) == SQLITE_NULL)
+    g_strlcpy (buf, "none", G_ASCII_DTOSTR_BUF_SIZE);
+  else
+    g_ascii_formatd (buf, G_ASCII_DTOSTR_BUF_SIZE, "%.17g", sqlite3_column_double (stmt, column));
+}
+
+/* Compares a stored row (columns from FIRST on, as derived_columns_sql)
+ * with a recomputation; appends a line per difference. */
+static void
+compare_row (sqlite3_stmt *stmt, int first, const SlStarInputs *in, const SlDerivedValues *v,
+             GPtrArray *mismatches)
+{
+  char stored[G_ASCII_DTOSTR_BUF_SIZE], again[G_ASCII_DTOSTR_BUF_SIZE];
+  int c = first + 1;   /* after stale */
+
+  if ((guint32) sqlite3_column_int64 (stmt, c) != v->flags)
+    g_ptr_array_add (mismatches, g_strdup_printf (_("%s: flags differ"), in->designation));
+  c += 2;
+  for (gsize m = 0; m < N_MEASUREMENT_COLUMNS; m++, c++)
+    if (sqlite3_column_int64 (stmt, c) != in->measurement[measurement_columns[m].field])
+      g_ptr_array_add (mismatches, g_strdup_printf (_("%s: %s: the inputs now come from another row"),
+                                                    in->designation, measurement_columns[m].column));
+  for (SlQuantity q = 0; q < SL_N_QUANTITIES; q++)
+    {
+      const char *name = sl_quantity_info (q)->name;
+
+      if (sl_quantity_info (q)->is_text)
+        {
+          const char *text = (const char *) sqlite3_column_text (stmt, c++);
+
+          if (g_strcmp0 (text, v->has[q] ? v->text[q] : NULL) != 0)
+            g_ptr_array_add (mismatches, g_strdup_printf (_("%s: %s: stored %s, recomputed %s"), in->designation,
+                                                          name, text ? text : "none",
+                                                          v->has[q] ? v->text[q] : "none"));
+          continue;
+        }
+      for (int part = 0; part < 3; part++, c++)
+        {
+          double value = part == 0 ? v->value[q] : part == 1 ? v->lo[q] : v->hi[q];
+
+          if (same_double (stmt, c, v->has[q], value))
+            continue;
+          describe_stored (stmt, c, stored);
+          if (v->has[q] && isfinite (value))
+            g_ascii_formatd (again, sizeof again, "%.17g", value);
+          else
+            g_strlcpy (again, "none", sizeof again);
+          g_ptr_array_add (mismatches, g_strdup_printf (_("%s: %s%s: stored %s, recomputed %s"),
+                                                        in->designation, name,
+                                                        part == 0 ? "" : part == 1 ? "_lo" : "_hi",
+                                                        stored, again));
+        }
+    }
+}
+
+static char *
+integrity_check (SlProject *project, GError **error)
+{
+  sqlite3_stmt *stmt = sl_project_prepare (project, "PRAGMA integrity_check", error);
+  GString *text = g_string_new (NULL);
+
+  if (stmt == NULL)
+    {
+      g_string_free (text, TRUE);
+      return NULL;
+    }
+  while (sqlite3_step (stmt) == SQLITE_ROW)
+    g_string_append_printf (text, "%s%s", text->len ? "; " : "", sqlite3_column_text (stmt, 0));
+  sqlite3_finalize (stmt);
+  return g_string_free (text, FALSE);
+}
+
+SlVerifyReport *
+sl_verify (SlProject *project, GCancellable *cancellable, GError **error)
+{
+  g_autoptr (SlVerifyReport) report = g_new0 (SlVerifyReport, 1);
+  g_autofree char *columns = derived_columns_sql ();
+  g_autofree char *sql = g_strdup_printf ("SELECT star_id, run_id, %s FROM derived ORDER BY star_id", columns);
+  g_autoptr (GHashTable) engines = g_hash_table_new_full (g_int64_hash, g_int64_equal, g_free,
+                                                         (GDestroyNotify) sl_engine_free);
+  g_autoptr (GHashTable) overrides = NULL;
+  g_autoptr (SlInputCursor) cursor = NULL;
+  sqlite3_stmt *stmt = NULL;
+  SlStarInputs inputs;
+  gboolean have_inputs = FALSE;
+  GError *local = NULL;
+  int rc;
+
+  report->mismatches = g_ptr_array_new_with_free_func (g_free);
+  if (!sl_project_exec (project, "BEGIN", error))
+    return NULL;
+  report->integrity = integrity_check (project, error);
+  overrides = report->integrity ? load_all_overrides (project, error) : NULL;
+  stmt = overrides ? sl_project_prepare (project, sql, error) : NULL;
+  cursor = stmt ? sl_input_cursor_new (project, 0, error) : NULL;
+  if (cursor == NULL)
+    {
+      sqlite3_finalize (stmt);
+      sl_project_rollback (project);
+      return NULL;
+    }
+
+  while (local == NULL && (rc = sqlite3_step (stmt)) == SQLITE_ROW)
+    {
+      gint64 star_id = sqlite3_column_int64 (stmt, 0);
+      SlEngine *engine;
+      SlDerivedValues values;
+      GArray *star_overrides;
+
+      if (sqlite3_column_int (stmt, 2))
+        {
+          report->stale++;
+          continue;
+        }
+      /* Walk the inputs in step with the derived rows (both by star id). */
+      while ((!have_inputs || inputs.star_id < star_id)
+             && (have_inputs = sl_input_cursor_next (cursor, &inputs, &local)))
+        ;
+      if (local)
+        break;
+      report->checked++;
+      if (!have_inputs || inputs.star_id != star_id)
+        {
+          g_ptr_array_add (report->mismatches,
+                           g_strdup_printf (_("star %" G_GINT64_FORMAT ": derived values but no measurements"),
+                                            star_id));
+          continue;
+        }
+      engine = engine_for_run (project, engines, sqlite3_column_int64 (stmt, 1), &local);
+      if (engine == NULL)
+        break;
+      star_overrides = g_hash_table_lookup (overrides, &star_id);
+      sl_engine_derive (engine, &inputs, star_overrides ? (const SlOverride *) star_overrides->data : NULL,
+                        star_overrides ? star_overrides->len : 0, &values);
+      compare_row (stmt, 2, &inputs, &values, report->mismatches);
+      if (report->checked % ROWS_PER_CHECK == 0
+          && g_cancellable_set_error_if_cancelled (cancellable, &local))
+        break;
+    }
+  sqlite3_finalize (stmt);
+  sl_project_rollback (project);
+  if (local)
+    {
+      g_propagate_error (error, local);
+      return NULL;
+    }
+  return g_steal_pointer (&report);
+}
+
+void
+sl_verify_report_free (SlVerifyReport *report)
+{
+  if (report == NULL)
+    return;
+  if (report->mismatches)
+    g_ptr_array_unref (report->mismatches);
+  g_free (report->integrity);
+  g_free (report);
+}

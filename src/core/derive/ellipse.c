@@ -1,0 +1,61 @@
+/* ellipse.c: the annual parallax ellipse.
+ *
+ * Computes: ellipse_a = parallax [mas] (semi-major axis, parallel to the
+ *   ecliptic); ellipse_b = parallax |sin elat| [mas] (semi-minor axis, along
+ *   ecliptic latitude); ellipse_pa [deg], the position angle (from north
+ *   through east) of the major axis: that of ecliptic north plus 90 deg,
+ *     PA_north = atan2(-sin e cos a, cos e cos d + sin e sin d sin a).
+ * Method: the parallactic displacement for a circular Earth orbit
+ *   (dl cos b = p sin(l_sun - l), db = -p sin b cos(l_sun - l); e.g. the
+ *   Astronomical Almanac, and REFERENCES.md 7).  A star at the ecliptic pole
+ *   traces a circle of radius p; one on the ecliptic a line of half-length p.
+ * Inputs: parallax [mas] (zero point subtracted), ra, dec [deg]; elat.
+ * Outputs: ellipse_a, ellipse_b [mas], ellipse_pa in [0, 180) deg.
+ * Validity: positive parallaxes; the Earth's orbit taken as circular
+ *   (eccentricity 0.017 changes the axes by under 2 per cent).
+ */
+#include <erfa.h>
+#include <glib/gi18n.h>
+#include <math.h>
+
+#include "../constants.h"
+#include "derive.h"
+#include "methods.h"
+
+static void
+compute_ellipse (SlEval *ev)
+{
+  double eps = sl_obliquity_j2000 ();
+  double ra, dec, pa;
+  SlDual parallax;
+
+  if (!ev->has_in[SL_FIELD_PARALLAX] || !ev->has[SL_Q_ELAT]
+      || (ev->flags & SL_FLAG_NONPOSITIVE_PARALLAX))
+    return;
+  parallax = ev->in[SL_FIELD_PARALLAX];
+  sl_eval_set (ev, SL_Q_ELLIPSE_A, parallax);
+  sl_eval_set (ev, SL_Q_ELLIPSE_B,
+               sl_dual_mul (parallax, sl_dual_fabs (sl_dual_sin (sl_dual_scale (ev->q[SL_Q_ELAT], ERFA_DD2R)))));
+
+  /* The orientation: its uncertainty from position errors is negligible. */
+  ra = ev->measured[SL_FIELD_RA] * ERFA_DD2R;
+  dec = ev->measured[SL_FIELD_DEC] * ERFA_DD2R;
+  pa = atan2 (-sin (eps) * cos (ra), cos (eps) * cos (dec) + sin (eps) * sin (dec) * sin (ra)) * ERFA_DR2D
+       + 90.0;
+  pa = fmod (fmod (pa, 180.0) + 180.0, 180.0);
+  sl_eval_set (ev, SL_Q_ELLIPSE_PA, sl_dual_const (pa));
+}
+
+const SlModule sl_module_ellipse = {
+  .name = "parallax-ellipse",
+  .version = 1,
+  .method = "annual parallax ellipse for a circular Earth orbit",
+  .citation = "Astronomical Almanac (parallax in ecliptic coordinates); REFERENCES.md 7",
+  .formula = N_("ellipse_a = parallax; ellipse_b = parallax |sin elat|; ellipse_pa = PA of ecliptic north + 90 deg"),
+  .validity = N_("positive parallaxes; circular Earth orbit (axes good to 2 per cent)"),
+  .inputs = { SL_FIELD_PARALLAX, SL_FIELD_PARALLAX_ERR, SL_FIELD_RA, SL_FIELD_DEC, SL_FIELD_NONE },
+  .needs = { SL_Q_ELAT, SL_Q_PLX_SNR, SL_Q_NONE },
+  .gives = { SL_Q_ELLIPSE_A, SL_Q_ELLIPSE_B, SL_Q_ELLIPSE_PA, SL_Q_NONE },
+  .parameters = "parallax_zero_point",
+  .compute = compute_ellipse,
+};

@@ -1,0 +1,504 @@
+/* engine.c: the derivation of one star, linear and Monte Carlo.
+ *
+ * Contents:
+ *   module order .......... sl_modules_in_order (Kahn's algorithm on needs/gives)
+ *   inputs ................ load_inputs, partial_sigmas
+ *   linear pass ........... run_linear_pass, linear_intervals
+ *   Monte Carlo ........... run_draws, draw_percentiles
+ *
+ * Conventions (REFERENCES.md 11): a linear value is the chain at the
+ * measured inputs with value -/+ 1 sigma; a Monte Carlo value is the median
+ * of the draws with the 15.87th and 84.13th percentiles.  A quantity that
+ * fewer than 95% of the draws give has no value (it sits at a calibration's
+ * edge, where percentiles would be biased).
+ */
+#include "engine.h"
+
+#include <gsl/gsl_randist.h>
+#include <gsl/gsl_statistics_double.h>
+#include <math.h>
+#include <string.h>
+
+#define P16 0.15865525393145705   /* Phi(-1) */
+#define P84 0.8413447460685429    /* Phi(+1) */
+#define MIN_DRAW_FRACTION 0.95
+
+struct _SlEngine {
+  SlDeriveParams        params;
+  GPtrArray            *order;     /* const SlModule *, evaluation order */
+  gsl_rng              *rng;
+  double               *samples;   /* SL_N_QUANTITIES x draws */
+  double               *logt_draws, *logl_draws;
+  double               *scratch;   /* draws */
+  SlEval                ev;
+};
+
+/* ------------------------------------------------------------------ */
+/* Module order                                                       */
+
+static gboolean
+module_gives (const SlModule *m, SlQuantity q)
+{
+  for (int i = 0; i < SL_MODULE_MAX_IO && m->gives[i] != SL_Q_NONE; i++)
+    if (m->gives[i] == q)
+      return TRUE;
+  return FALSE;
+}
+
+const SlModule *
+sl_module_for_quantity (SlQuantity q)
+{
+  guint n;
+  const SlModule *const *modules = sl_modules (&n);
+
+  for (guint i = 0; i < n; i++)
+    if (module_gives (modules[i], q))
+      return modules[i];
+  return NULL;
+}
+
+/* Orders modules so that each runs after those giving what it needs; a
+ * need nobody gives, or a cycle, is a programming error. */
+GPtrArray *
+sl_modules_in_order (void)
+{
+  guint n;
+  const SlModule *const *modules = sl_modules (&n);
+  GPtrArray *order = g_ptr_array_new ();
+  gboolean done[64] = { FALSE };
+  gboolean available[SL_N_QUANTITIES] = { FALSE };
+
+  g_assert (n <= G_N_ELEMENTS (done));
+  while (order->len < n)
+    {
+      gboolean progress = FALSE;
+
+      for (guint i = 0; i < n; i++)
+        {
+          gboolean ready = !done[i];
+
+          for (int k = 0; ready && k < SL_MODULE_MAX_IO && modules[i]->needs[k] != SL_Q_NONE; k++)
+            ready = available[modules[i]->needs[k]];
+          if (!ready)
+            continue;
+          g_ptr_array_add (order, (gpointer) modules[i]);
+          done[i] = progress = TRUE;
+          for (int k = 0; k < SL_MODULE_MAX_IO && modules[i]->gives[k] != SL_Q_NONE; k++)
+            available[modules[i]->gives[k]] = TRUE;
+        }
+      if (!progress)
+        g_error ("derivation modules: a need that no module gives, or a cycle");
+    }
+  return order;
+}
+
+SlEngine *
+sl_engine_new (const SlDeriveParams *params)
+{
+  SlEngine *engine = g_new0 (SlEngine, 1);
+  guint draws = MAX (params->draws, 1);
+
+  engine->params = *params;
+  engine->order = sl_modules_in_order ();
+  engine->rng = gsl_rng_alloc (gsl_rng_mt19937);
+  engine->samples = g_new (double, (gsize) SL_N_QUANTITIES * draws);
+  engine->logt_draws = g_new (double, draws);
+  engine->logl_draws = g_new (double, draws);
+  engine->scratch = g_new (double, draws);
+  engine->ev.params = &engine->params;
+  return engine;
+}
+
+void
+sl_engine_free (SlEngine *engine)
+{
+  if (engine == NULL)
+    return;
+  g_ptr_array_unref (engine->order);
+  gsl_rng_free (engine->rng);
+  g_free (engine->samples);
+  g_free (engine->logt_draws);
+  g_free (engine->logl_draws);
+  g_free (engine->scratch);
+  g_free (engine);
+}
+
+const SlModule *const *
+sl_engine_modules (SlEngine *engine, guint *n_modules)
+{
+  *n_modules = engine->order->len;
+  return (const SlModule *const *) engine->order->pdata;
+}
+
+/* ------------------------------------------------------------------ */
+/* Inputs                                                             */
+
+/* The partial derivative slot of each input field, or -1. */
+static int
+partial_of (SlField f)
+{
+  switch (f)
+    {
+    case SL_FIELD_PARALLAX: return SL_PARTIAL_PARALLAX;
+    case SL_FIELD_VMAG:     return SL_PARTIAL_VMAG;
+    case SL_FIELD_BMAG:     return SL_PARTIAL_BMAG;
+    case SL_FIELD_BV:       return SL_PARTIAL_BV;
+    case SL_FIELD_EBV:      return SL_PARTIAL_EBV;
+    case SL_FIELD_PMRA:     return SL_PARTIAL_PMRA;
+    case SL_FIELD_PMDEC:    return SL_PARTIAL_PMDEC;
+    case SL_FIELD_RA:       return SL_PARTIAL_RA;
+    case SL_FIELD_DEC:      return SL_PARTIAL_DEC;
+    case SL_FIELD_VRAD:     return SL_PARTIAL_VRAD;
+    default:                return -1;
+    }
+}
+
+/* The 1-sigma error of an input in its own unit: ra and dec errors are mas
+ * on the sky, the values degrees. */
+static double
+input_sigma (const SlStarInputs *in, SlField f)
+{
+  SlField err = sl_field_info (f)->error;
+  double sigma;
+
+  if (err == SL_FIELD_NONE || !in->present[err])
+    return NAN;
+  sigma = in->value[err];
+  if (f == SL_FIELD_DEC)
+    sigma /= 3.6e6;
+  if (f == SL_FIELD_RA)
+    sigma /= 3.6e6 * cos (in->value[SL_FIELD_DEC] * G_PI / 180.0);
+  return sigma;
+}
+
+static void
+load_inputs (SlEngine *engine, const SlStarInputs *in)
+{
+  SlEval *ev = &engine->ev;
+
+  for (SlField f = 0; f < SL_N_FIELDS; f++)
+    {
+      SlFieldKind kind = sl_field_info (f)->kind;
+
+      ev->has_in[f] = in->present[f] && kind == SL_FIELD_KIND_VALUE;
+      ev->measured[f] = in->value[f];
+      ev->sigma[f] = ev->has_in[f] ? input_sigma (in, f) : NAN;
+    }
+  if (ev->has_in[SL_FIELD_PARALLAX])
+    ev->measured[SL_FIELD_PARALLAX] -= engine->params.parallax_zero_point;
+  if (ev->has_in[SL_FIELD_RA] && !ev->has_in[SL_FIELD_DEC])
+    ev->sigma[SL_FIELD_RA] = NAN;
+  ev->sptype = in->present[SL_FIELD_SPTYPE] ? in->sptype : NULL;
+}
+
+static void
+partial_sigmas (SlEngine *engine, const SlOverride *overrides, guint n_overrides, double *sigma)
+{
+  SlEval *ev = &engine->ev;
+
+  for (int k = 0; k < SL_N_PARTIALS; k++)
+    sigma[k] = 0.0;
+  for (SlField f = 0; f < SL_N_FIELDS; f++)
+    if (ev->has_in[f] && partial_of (f) >= 0)
+      sigma[partial_of (f)] = ev->sigma[f];
+  sigma[SL_PARTIAL_RV] = engine->params.rv_err;
+  /* One slot for hand-set values: a second override on the same star
+   * shares it, which makes the two fully correlated (documented). */
+  for (guint i = 0; i < n_overrides; i++)
+    sigma[SL_PARTIAL_OVERRIDE] = (overrides[i].hi - overrides[i].lo) / 2.0;
+}
+
+/* Resets the per-pass state and puts inputs and overrides in place;
+ * TRACK selects the linear pass (partials) over a draw. */
+static void
+start_pass (SlEngine *engine, const SlOverride *overrides, guint n_overrides, gboolean track)
+{
+  SlEval *ev = &engine->ev;
+
+  memset (ev->has, 0, sizeof ev->has);
+  memset (ev->overridden, 0, sizeof ev->overridden);
+  memset (ev->has_interval, 0, sizeof ev->has_interval);
+  for (SlField f = 0; f < SL_N_FIELDS; f++)
+    {
+      double value;
+
+      if (!ev->has_in[f])
+        continue;
+      value = ev->measured[f];
+      if (!track && isfinite (ev->sigma[f]))
+        value += gsl_ran_gaussian_ziggurat (ev->rng, ev->sigma[f]);
+      ev->in[f] = partial_of (f) >= 0 ? sl_dual_input (value, partial_of (f), track) : sl_dual_const (value);
+    }
+  for (guint i = 0; i < n_overrides; i++)
+    {
+      SlQuantity q = overrides[i].quantity;
+      double value = overrides[i].value;
+      double sigma = (overrides[i].hi - overrides[i].lo) / 2.0;
+
+      if (!track && isfinite (sigma))
+        value += gsl_ran_gaussian_ziggurat (ev->rng, sigma);
+      ev->q[q] = sl_dual_input (value, SL_PARTIAL_OVERRIDE, track);
+      ev->has[q] = TRUE;
+      ev->overridden[q] = TRUE;
+    }
+}
+
+static gboolean
+gives_text (const SlModule *m)
+{
+  return sl_quantity_info (m->gives[0])->is_text;
+}
+
+static void
+run_modules (SlEngine *engine, gboolean numeric_only)
+{
+  for (guint i = 0; i < engine->order->len; i++)
+    {
+      const SlModule *m = engine->order->pdata[i];
+
+      if (!numeric_only || !gives_text (m))
+        m->compute (&engine->ev);
+    }
+}
+
+/* ------------------------------------------------------------------ */
+/* Results                                                            */
+
+static void
+linear_results (SlEngine *engine, const double *sigma, SlDerivedValues *out)
+{
+  SlEval *ev = &engine->ev;
+
+  for (SlQuantity q = 0; q < SL_N_QUANTITIES; q++)
+    {
+      double s;
+
+      out->has[q] = ev->has[q];
+      out->lo[q] = out->hi[q] = NAN;
+      if (!ev->has[q] || sl_quantity_info (q)->is_text)
+        continue;
+      out->value[q] = ev->q[q].v;
+      if (ev->has_interval[q])
+        {
+          out->lo[q] = ev->interval_lo[q];
+          out->hi[q] = ev->interval_hi[q];
+          continue;
+        }
+      if (ev->q[q].n == 0)
+        continue;   /* a constant: nothing to propagate */
+      s = sl_dual_sigma (ev->q[q], sigma);
+      if (isnan (s))
+        {
+          out->flags |= SL_FLAG_MISSING_ERROR;
+          continue;
+        }
+      out->lo[q] = out->value[q] - s;
+      out->hi[q] = out->value[q] + s;
+    }
+
+  if (ev->has[SL_Q_TEFF] && ev->has[SL_Q_LUM])
+    {
+      SlDual logt = sl_dual_log10 (ev->q[SL_Q_TEFF]);
+      SlDual logl = sl_dual_log10 (ev->q[SL_Q_LUM]);
+
+      out->logt_sigma = sl_dual_sigma (logt, sigma);
+      out->logl_sigma = sl_dual_sigma (logl, sigma);
+      out->logt_logl_corr = sl_dual_covariance (logt, logl, sigma) / (out->logt_sigma * out->logl_sigma);
+    }
+}
+
+/* The P quantile of DATA as gsl_stats_quantile_from_sorted_data defines
+ * it (linear between order statistics), found by selection (GSL's
+ * quickselect) instead of a full sort. */
+static double
+quantile_by_selection (double *data, gsize n, double p)
+{
+  double position = p * (n - 1);
+  gsize k = (gsize) floor (position);
+  double below = gsl_stats_select (data, 1, n, k);
+  double fraction = position - k;
+
+  if (fraction == 0.0 || k + 1 >= n)
+    return below;
+  return below + fraction * (gsl_stats_select (data, 1, n, k + 1) - below);
+}
+
+/* Median and 68% percentiles of the finite draws of Q. */
+static void
+draw_percentiles (SlEngine *engine, SlQuantity q, guint draws, SlDerivedValues *out)
+{
+  const double *samples = engine->samples + (gsize) q * draws;
+  double *finite = engine->scratch;
+  gsize n = 0;
+
+  for (guint d = 0; d < draws; d++)
+    if (isfinite (samples[d]))
+      finite[n++] = samples[d];
+  if (n < MIN_DRAW_FRACTION * draws)
+    {
+      out->has[q] = FALSE;
+      return;
+    }
+  out->has[q] = TRUE;
+  out->value[q] = quantile_by_selection (finite, n, 0.5);
+  out->lo[q] = quantile_by_selection (finite, n, P16);
+  out->hi[q] = quantile_by_selection (finite, n, P84);
+}
+
+/* A well-mixed 64-bit seed per star, so each star's draws are the same
+ * whatever else the run holds and in whatever order (splitmix64). */
+static unsigned long
+star_seed (guint64 seed, gint64 star_id)
+{
+  guint64 z = seed + 0x9E3779B97F4A7C15ULL * (guint64) (star_id + 1);
+
+  z = (z ^ (z >> 30)) * 0xBF58476D1CE4E5B9ULL;
+  z = (z ^ (z >> 27)) * 0x94D049BB133111EBULL;
+  return (unsigned long) (z ^ (z >> 31));
+}
+
+static void
+run_draws (SlEngine *engine, gint64 star_id, const SlOverride *overrides, guint n_overrides,
+           guint32 linear_flags, SlDerivedValues *out)
+{
+  SlEval *ev = &engine->ev;
+  guint draws = engine->params.draws;
+  double n_pairs = 0, mt = 0, ml = 0, ctt = 0, cll = 0, ctl = 0;
+
+  gsl_rng_set (engine->rng, star_seed (engine->params.seed, star_id));
+  ev->rng = engine->rng;
+  for (guint d = 0; d < draws; d++)
+    {
+      start_pass (engine, overrides, n_overrides, FALSE);
+      ev->flags = linear_flags;
+      run_modules (engine, TRUE);
+      for (SlQuantity q = 0; q < SL_N_QUANTITIES; q++)
+        engine->samples[(gsize) q * draws + d] = ev->has[q] ? ev->q[q].v : NAN;
+      engine->logt_draws[d] = engine->logl_draws[d] = NAN;
+      if (ev->has[SL_Q_TEFF] && ev->has[SL_Q_LUM] && ev->q[SL_Q_TEFF].v > 0 && ev->q[SL_Q_LUM].v > 0)
+        {
+          engine->logt_draws[d] = log10 (ev->q[SL_Q_TEFF].v);
+          engine->logl_draws[d] = log10 (ev->q[SL_Q_LUM].v);
+        }
+    }
+  ev->rng = NULL;
+
+  for (SlQuantity q = 0; q < SL_N_QUANTITIES; q++)
+    if (!sl_quantity_info (q)->is_text)
+      {
+        gboolean linear_interval = isfinite (out->lo[q]);
+
+        draw_percentiles (engine, q, draws, out);
+        /* No interval where first order has none: an input without an
+         * error, or a value that depends on no measured input. */
+        if (!linear_interval)
+          out->lo[q] = out->hi[q] = NAN;
+      }
+
+  /* The sample covariance of log Teff and log L (two-pass, stable). */
+  for (guint d = 0; d < draws; d++)
+    if (isfinite (engine->logt_draws[d]))
+      mt += engine->logt_draws[d], ml += engine->logl_draws[d], n_pairs++;
+  out->logt_sigma = out->logl_sigma = out->logt_logl_corr = NAN;
+  if (n_pairs >= MIN_DRAW_FRACTION * draws && n_pairs > 1)
+    {
+      mt /= n_pairs, ml /= n_pairs;
+      for (guint d = 0; d < draws; d++)
+        if (isfinite (engine->logt_draws[d]))
+          {
+            double dt = engine->logt_draws[d] - mt, dl = engine->logl_draws[d] - ml;
+
+            ctt += dt * dt, cll += dl * dl, ctl += dt * dl;
+          }
+      out->logt_sigma = sqrt (ctt / (n_pairs - 1));
+      out->logl_sigma = sqrt (cll / (n_pairs - 1));
+      out->logt_logl_corr = ctl / sqrt (ctt * cll);
+    }
+}
+
+/* Hand-set values are reported as given, whatever the pass. */
+static void
+apply_overrides (const SlOverride *overrides, guint n_overrides, SlDerivedValues *out)
+{
+  for (guint i = 0; i < n_overrides; i++)
+    {
+      SlQuantity q = overrides[i].quantity;
+
+      out->has[q] = TRUE;
+      out->value[q] = overrides[i].value;
+      out->lo[q] = overrides[i].lo;
+      out->hi[q] = overrides[i].hi;
+      out->flags |= SL_FLAG_OVERRIDDEN;
+    }
+}
+
+/* The text quantities follow the final numbers. */
+static void
+finish_text (SlEngine *engine, SlDerivedValues *out)
+{
+  SlEval *ev = &engine->ev;
+
+  for (SlQuantity q = 0; q < SL_N_QUANTITIES; q++)
+    {
+      ev->has[q] = out->has[q] && !sl_quantity_info (q)->is_text;
+      if (ev->has[q])
+        ev->q[q] = sl_dual_const (out->value[q]);
+    }
+  ev->flags = out->flags;
+  for (guint i = 0; i < engine->order->len; i++)
+    {
+      const SlModule *m = engine->order->pdata[i];
+
+      if (gives_text (m))
+        m->compute (ev);
+    }
+  out->flags = ev->flags;
+  for (SlQuantity q = 0; q < SL_N_QUANTITIES; q++)
+    if (sl_quantity_info (q)->is_text)
+      {
+        out->has[q] = ev->has[q];
+        g_strlcpy (out->text[q], ev->has[q] ? ev->text[q] : "", sizeof out->text[q]);
+      }
+}
+
+void
+sl_engine_derive (SlEngine *engine, const SlStarInputs *inputs, const SlOverride *overrides,
+                  guint n_overrides, SlDerivedValues *out)
+{
+  SlEval *ev = &engine->ev;
+  double sigma[SL_N_PARTIALS];
+  gboolean monte_carlo;
+
+  memset (out, 0, sizeof *out);
+  out->logt_sigma = out->logl_sigma = out->logt_logl_corr = NAN;
+
+  load_inputs (engine, inputs);
+  partial_sigmas (engine, overrides, n_overrides, sigma);
+  ev->rng = NULL;
+  ev->flags = 0;
+  start_pass (engine, overrides, n_overrides, TRUE);
+  run_modules (engine, TRUE);
+  out->flags = ev->flags;
+  linear_results (engine, sigma, out);
+
+  monte_carlo = engine->params.errors == SL_ERRORS_MONTE_CARLO;
+  if (!monte_carlo && ev->has[SL_Q_PLX_SNR] && ev->q[SL_Q_PLX_SNR].v < engine->params.mc_below_snr)
+    {
+      monte_carlo = TRUE;
+      out->flags |= SL_FLAG_MONTE_CARLO_AUTO;
+    }
+  if (monte_carlo && engine->params.draws > 0)
+    {
+      out->monte_carlo = TRUE;
+      run_draws (engine, inputs->star_id, overrides, n_overrides, out->flags, out);
+    }
+
+  apply_overrides (overrides, n_overrides, out);
+  finish_text (engine, out);
+
+  if (ev->cache)
+    {
+      ev->cache_free (ev->cache);
+      ev->cache = NULL;
+    }
+}

@@ -1,0 +1,664 @@
+/* explain.c: the derivation trail of one value.
+ *
+ * The walk: the module that gives the quantity, and recursively those
+ * that give what it needs, in evaluation order; for each, the stored
+ * values it gave and the raw inputs it read (from the measurement rows the
+ * derived row records).  One walk feeds two writers, text and JSON.
+ */
+#include "explain.h"
+
+#include <glib/gi18n.h>
+#include <math.h>
+#include <string.h>
+
+#include "derivation.h"
+#include "derive/engine.h"
+#include "sl-error.h"
+#include "util.h"
+
+/* A raw input's value and where it came from. */
+typedef struct {
+  SlField  field;
+  gboolean present;
+  double   value, error;
+  char    *text;
+  gint64   line;
+  char    *source_name, *file_name, *sha256, *imported_by, *imported_at, *column;
+  char    *unit_declared;
+} RawInput;
+
+static void
+raw_input_clear (RawInput *r)
+{
+  g_free (r->text);
+  g_free (r->source_name);
+  g_free (r->file_name);
+  g_free (r->sha256);
+  g_free (r->imported_by);
+  g_free (r->imported_at);
+  g_free (r->column);
+  g_free (r->unit_declared);
+}
+
+static char *
+dup_column (sqlite3_stmt *stmt, int column)
+{
+  return g_strdup ((const char *) sqlite3_column_text (stmt, column));
+}
+
+/* Loads FIELD (and its error) from measurement MEASUREMENT_ID with the
+ * source's provenance and the column the field was mapped from. */
+static gboolean
+load_raw_input (SlProject *project, gint64 measurement_id, SlField field, RawInput *r, GError **error)
+{
+  const SlFieldInfo *info = sl_field_info (field);
+  SlField err = info->error;
+  g_autofree char *sql = g_strdup_printf (
+    "SELECT m.%s, %s%s, m.line, s.name, s.file_name, s.sha256, s.imported_by, s.imported_at, "
+    "(SELECT value ->> 'column' FROM json_each (s.mapping) WHERE value ->> 'field' = ?2), "
+    "(SELECT value ->> 'unit' FROM json_each (s.mapping) WHERE value ->> 'field' = ?2) "
+    "FROM measurements m JOIN sources s ON s.id = m.source_id WHERE m.id = ?1",
+    info->name, err != SL_FIELD_NONE ? "m." : "NULL", err != SL_FIELD_NONE ? sl_field_info (err)->name : "");
+  sqlite3_stmt *stmt = sl_project_prepare (project, sql, error);
+
+  memset (r, 0, sizeof *r);
+  r->field = field;
+  if (stmt == NULL)
+    return FALSE;
+  sqlite3_bind_int64 (stmt, 1, measurement_id);
+  sqlite3_bind_text (stmt, 2, info->name, -1, SQLITE_STATIC);
+  if (sqlite3_step (stmt) == SQLITE_ROW)
+    {
+      r->present = sqlite3_column_type (stmt, 0) != SQLITE_NULL;
+      if (info->kind == SL_FIELD_KIND_TEXT)
+        r->text = dup_column (stmt, 0);
+      r->value = sqlite3_column_double (stmt, 0);
+      r->error = sqlite3_column_type (stmt, 1) == SQLITE_NULL ? NAN : sqlite3_column_double (stmt, 1);
+      r->line = sqlite3_column_int64 (stmt, 2);
+      r->source_name = dup_column (stmt, 3);
+      r->file_name = dup_column (stmt, 4);
+      r->sha256 = dup_column (stmt, 5);
+      r->imported_by = dup_column (stmt, 6);
+      r->imported_at = dup_column (stmt, 7);
+      r->column = dup_column (stmt, 8);
+      r->unit_declared = dup_column (stmt, 9);
+    }
+  sqlite3_finalize (stmt);
+  return TRUE;
+}
+
+/* The run a derived row belongs to. */
+typedef struct {
+  char *started_at, *who, *software_version, *parameters, *methods;
+  SlDeriveParams params;
+} RunInfo;
+
+static void
+run_info_clear (RunInfo *run)
+{
+  g_free (run->started_at);
+  g_free (run->who);
+  g_free (run->software_version);
+  g_free (run->parameters);
+  g_free (run->methods);
+}
+
+static gboolean
+load_run (SlProject *project, gint64 run_id, RunInfo *run, GError **error)
+{
+  sqlite3_stmt *stmt = sl_project_prepare (project,
+                                           "SELECT started_at, who, software_version, parameters, methods "
+                                           "FROM derivation_runs WHERE id = ?", error);
+  gboolean ok = FALSE;
+
+  memset (run, 0, sizeof *run);
+  if (stmt == NULL)
+    return FALSE;
+  sqlite3_bind_int64 (stmt, 1, run_id);
+  if (sqlite3_step (stmt) == SQLITE_ROW)
+    {
+      run->started_at = dup_column (stmt, 0);
+      run->who = dup_column (stmt, 1);
+      run->software_version = dup_column (stmt, 2);
+      run->parameters = dup_column (stmt, 3);
+      run->methods = dup_column (stmt, 4);
+      ok = sl_derive_params_from_keyfile (&run->params, run->parameters, error);
+    }
+  else
+    g_set_error (error, SL_ERROR, SL_ERROR_DATABASE, _("run %" G_GINT64_FORMAT " is not recorded"), run_id);
+  sqlite3_finalize (stmt);
+  return ok;
+}
+
+/* An active or past hand-set value. */
+typedef struct {
+  char  *quantity;
+  double value, lo, hi;
+  char  *reason, *set_by, *set_at;
+} OverrideInfo;
+
+static void
+override_info_clear (OverrideInfo *o)
+{
+  g_free (o->quantity);
+  g_free (o->reason);
+  g_free (o->set_by);
+  g_free (o->set_at);
+}
+
+static GArray *
+load_override_infos (SlProject *project, gint64 star_id, GError **error)
+{
+  sqlite3_stmt *stmt = sl_project_prepare (project,
+                                           "SELECT quantity, value, lo, hi, reason, set_by, set_at FROM overrides "
+                                           "WHERE star_id = ? AND cleared_at IS NULL ORDER BY id", error);
+  GArray *list;
+
+  if (stmt == NULL)
+    return NULL;
+  list = g_array_new (FALSE, TRUE, sizeof (OverrideInfo));
+  g_array_set_clear_func (list, (GDestroyNotify) override_info_clear);
+  sqlite3_bind_int64 (stmt, 1, star_id);
+  while (sqlite3_step (stmt) == SQLITE_ROW)
+    {
+      OverrideInfo o = {
+        dup_column (stmt, 0), sqlite3_column_double (stmt, 1),
+        sqlite3_column_type (stmt, 2) == SQLITE_NULL ? NAN : sqlite3_column_double (stmt, 2),
+        sqlite3_column_type (stmt, 3) == SQLITE_NULL ? NAN : sqlite3_column_double (stmt, 3),
+        dup_column (stmt, 4), dup_column (stmt, 5), dup_column (stmt, 6),
+      };
+
+      g_array_append_val (list, o);
+    }
+  sqlite3_finalize (stmt);
+  return list;
+}
+
+/* Marks in NEEDED every module the quantity Q depends on. */
+static void
+mark_needed (SlQuantity q, GHashTable *needed)
+{
+  const SlModule *m = sl_module_for_quantity (q);
+
+  if (m == NULL || g_hash_table_contains (needed, m))
+    return;
+  g_hash_table_add (needed, (gpointer) m);
+  for (int k = 0; k < SL_MODULE_MAX_IO && m->needs[k] != SL_Q_NONE; k++)
+    mark_needed (m->needs[k], needed);
+}
+
+/* A parameter's value as recorded, by its name in SlModule.parameters. */
+static char *
+parameter_value (const SlDeriveParams *p, const char *name)
+{
+  char buf[G_ASCII_DTOSTR_BUF_SIZE];
+
+  if (strcmp (name, "distance") == 0)
+    return g_strdup (p->distance == SL_DISTANCE_EDSD ? "edsd" : "inverse");
+  if (strcmp (name, "length_scale_pc") == 0)
+    return g_strdup_printf ("%s pc", sl_format_double (buf, p->length_scale_pc));
+  if (strcmp (name, "parallax_zero_point") == 0)
+    return g_strdup_printf ("%s mas", sl_format_double (buf, p->parallax_zero_point));
+  if (strcmp (name, "rv") == 0)
+    return g_strdup (sl_format_double (buf, p->rv));
+  if (strcmp (name, "rv_err") == 0)
+    return g_strdup (sl_format_double (buf, p->rv_err));
+  if (strcmp (name, "teff") == 0)
+    return g_strdup (p->teff == SL_TEFF_BALLESTEROS ? "ballesteros" : "flower");
+  return g_strdup ("?");
+}
+
+/* ------------------------------------------------------------------ */
+/* Writers                                                            */
+
+typedef struct {
+  SlExplainFormat format;
+  GString        *out;
+  gboolean        first_item;   /* JSON: no comma before the next item */
+} Writer;
+
+static void
+text_value (GString *out, double value, double lo, double hi, const char *unit)
+{
+  char v[G_ASCII_DTOSTR_BUF_SIZE], l[G_ASCII_DTOSTR_BUF_SIZE], h[G_ASCII_DTOSTR_BUF_SIZE];
+
+  g_ascii_formatd (v, sizeof v, "%.6g", value);
+  g_string_append (out, v);
+  if (unit && *unit)
+    g_string_append_printf (out, " %s", unit);
+  if (isfinite (lo) && isfinite (hi))
+    g_string_append_printf (out, "  [68%%: %s .. %s]", g_ascii_formatd (l, sizeof l, "%.6g", lo),
+                            g_ascii_formatd (h, sizeof h, "%.6g", hi));
+  else
+    g_string_append (out, _("  [no interval]"));
+}
+
+static void
+json_key (Writer *w, const char *key)
+{
+  if (!w->first_item)
+    g_string_append_c (w->out, ',');
+  w->first_item = FALSE;
+  sl_json_append_string (w->out, key);
+  g_string_append_c (w->out, ':');
+}
+
+static void
+json_number (Writer *w, const char *key, double value)
+{
+  json_key (w, key);
+  sl_json_append_number (w->out, value);
+}
+
+static void
+json_string (Writer *w, const char *key, const char *value)
+{
+  json_key (w, key);
+  if (value)
+    sl_json_append_string (w->out, value);
+  else
+    g_string_append (w->out, "null");
+}
+
+static void
+json_open (Writer *w, const char *key, char bracket)
+{
+  if (key)
+    json_key (w, key);
+  else if (!w->first_item)
+    g_string_append_c (w->out, ',');
+  g_string_append_c (w->out, bracket);
+  w->first_item = TRUE;
+}
+
+static void
+json_close (Writer *w, char bracket)
+{
+  g_string_append_c (w->out, bracket);
+  w->first_item = FALSE;
+}
+
+static void
+write_raw_input (Writer *w, const RawInput *r)
+{
+  const SlFieldInfo *info = sl_field_info (r->field);
+  char sha[17];
+
+  g_strlcpy (sha, r->sha256 ? r->sha256 : "", sizeof sha);
+  if (w->format == SL_EXPLAIN_JSON)
+    {
+      json_open (w, NULL, '{');
+      json_string (w, "field", info->name);
+      if (info->kind == SL_FIELD_KIND_TEXT)
+        json_string (w, "value", r->present ? r->text : NULL);
+      else
+        {
+          json_number (w, "value", r->present ? r->value : NAN);
+          json_number (w, "error", r->error);
+        }
+      json_string (w, "unit", sl_unit_name (info->canonical));
+      json_string (w, "source", r->source_name);
+      json_string (w, "file", r->file_name);
+      json_string (w, "sha256", r->sha256);
+      json_number (w, "line", (double) r->line);
+      json_string (w, "column", r->column);
+      json_string (w, "column_unit", r->unit_declared);
+      json_string (w, "imported_by", r->imported_by);
+      json_string (w, "imported_at", r->imported_at);
+      json_close (w, '}');
+      return;
+    }
+
+  g_string_append_printf (w->out, "      %s = ", info->name);
+  if (info->kind == SL_FIELD_KIND_TEXT)
+    g_string_append (w->out, r->present ? r->text : _("(none)"));
+  else
+    {
+      char v[G_ASCII_DTOSTR_BUF_SIZE], e[G_ASCII_DTOSTR_BUF_SIZE];
+
+      g_string_append_printf (w->out, "%s", sl_format_double (v, r->value));
+      if (isfinite (r->error))
+        g_string_append_printf (w->out, " +/- %s", sl_format_double (e, r->error));
+      else
+        g_string_append (w->out, _(" (no error)"));
+      g_string_append_printf (w->out, " %s", sl_unit_name (info->canonical));
+    }
+  g_string_append_printf (w->out, _("\n        from %s, line %" G_GINT64_FORMAT ", column '%s' (%s)\n"
+                                    "        source '%s', SHA-256 %s…, imported by %s at %s\n"),
+                          r->file_name, r->line, r->column ? r->column : "?",
+                          r->unit_declared && *r->unit_declared ? r->unit_declared : _("text"),
+                          r->source_name, sha, r->imported_by, r->imported_at);
+}
+
+static const OverrideInfo *
+find_override (GArray *overrides, SlQuantity q)
+{
+  for (guint i = 0; i < overrides->len; i++)
+    {
+      const OverrideInfo *o = &g_array_index (overrides, OverrideInfo, i);
+
+      if (strcmp (o->quantity, sl_quantity_info (q)->name) == 0)
+        return o;
+    }
+  return NULL;
+}
+
+static void
+write_quantity_value (Writer *w, SlQuantity q, const SlDerivedValues *v, GArray *overrides)
+{
+  const SlQuantityInfo *info = sl_quantity_info (q);
+  const OverrideInfo *o = find_override (overrides, q);
+
+  if (w->format == SL_EXPLAIN_JSON)
+    {
+      json_open (w, NULL, '{');
+      json_string (w, "quantity", info->name);
+      if (info->is_text)
+        json_string (w, "value", v->has[q] ? v->text[q] : NULL);
+      else
+        {
+          json_number (w, "value", v->has[q] ? v->value[q] : NAN);
+          json_number (w, "lo", v->has[q] ? v->lo[q] : NAN);
+          json_number (w, "hi", v->has[q] ? v->hi[q] : NAN);
+        }
+      json_string (w, "unit", info->unit);
+      if (o)
+        {
+          json_open (w, "set_by_hand", '{');
+          json_string (w, "reason", o->reason);
+          json_string (w, "by", o->set_by);
+          json_string (w, "at", o->set_at);
+          json_close (w, '}');
+        }
+      json_close (w, '}');
+      return;
+    }
+
+  g_string_append_printf (w->out, "      %s = ", info->name);
+  if (!v->has[q])
+    g_string_append (w->out, _("(no value)"));
+  else if (info->is_text)
+    g_string_append (w->out, v->text[q]);
+  else
+    text_value (w->out, v->value[q], v->lo[q], v->hi[q], info->unit);
+  g_string_append_c (w->out, '\n');
+  if (o)
+    g_string_append_printf (w->out, _("        SET BY HAND by %s at %s: %s\n"), o->set_by, o->set_at, o->reason);
+}
+
+static void
+write_step (Writer *w, const SlModule *m, const SlDerivedRow *row, const RunInfo *run,
+            GArray *overrides, GArray *raw_inputs, int number)
+{
+  g_auto (GStrv) params = g_strsplit (m->parameters, ",", -1);
+
+  if (w->format == SL_EXPLAIN_JSON)
+    {
+      json_open (w, NULL, '{');
+      json_string (w, "module", m->name);
+      json_number (w, "version", m->version);
+      json_string (w, "method", m->method);
+      json_string (w, "citation", m->citation);
+      json_string (w, "formula", m->formula);
+      json_string (w, "validity", m->validity);
+      json_open (w, "parameters", '{');
+      for (guint i = 0; params[i]; i++)
+        {
+          g_autofree char *value = NULL;
+
+          g_strstrip (params[i]);
+          if (*params[i] == '\0')
+            continue;
+          value = parameter_value (&run->params, params[i]);
+          json_string (w, params[i], value);
+        }
+      json_close (w, '}');
+      json_open (w, "gives", '[');
+      for (int k = 0; k < SL_MODULE_MAX_IO && m->gives[k] != SL_Q_NONE; k++)
+        write_quantity_value (w, m->gives[k], &row->values, overrides);
+      json_close (w, ']');
+      json_open (w, "raw_inputs", '[');
+      for (guint i = 0; i < raw_inputs->len; i++)
+        write_raw_input (w, &g_array_index (raw_inputs, RawInput, i));
+      json_close (w, ']');
+      json_close (w, '}');
+      return;
+    }
+
+  g_string_append_printf (w->out, _("  %d. %s (version %d): %s\n"), number, m->name, m->version, m->method);
+  g_string_append_printf (w->out, _("     formula: %s\n"), _(m->formula));
+  g_string_append_printf (w->out, _("     source: %s\n"), m->citation);
+  g_string_append_printf (w->out, _("     valid: %s\n"), _(m->validity));
+  for (guint i = 0; params[i]; i++)
+    {
+      g_autofree char *value = NULL;
+
+      g_strstrip (params[i]);
+      if (*params[i] == '\0')
+        continue;
+      value = parameter_value (&run->params, params[i]);
+      g_string_append_printf (w->out, _("     parameter %s = %s\n"), params[i], value);
+    }
+  g_string_append (w->out, _("     gives:\n"));
+  for (int k = 0; k < SL_MODULE_MAX_IO && m->gives[k] != SL_Q_NONE; k++)
+    write_quantity_value (w, m->gives[k], &row->values, overrides);
+  if (raw_inputs->len > 0)
+    g_string_append (w->out, _("     from the measurements:\n"));
+  for (guint i = 0; i < raw_inputs->len; i++)
+    write_raw_input (w, &g_array_index (raw_inputs, RawInput, i));
+}
+
+/* The measurement row holding FIELD for this star: the one recorded for
+ * the field's group. */
+static gint64
+measurement_for_field (const SlDerivedRow *row, SlField field)
+{
+  static const SlField group_of[SL_N_FIELDS] = {
+    [SL_FIELD_RA] = SL_FIELD_RA, [SL_FIELD_RA_ERR] = SL_FIELD_RA, [SL_FIELD_DEC] = SL_FIELD_RA,
+    [SL_FIELD_DEC_ERR] = SL_FIELD_RA, [SL_FIELD_EPOCH] = SL_FIELD_RA,
+    [SL_FIELD_PARALLAX] = SL_FIELD_PARALLAX, [SL_FIELD_PARALLAX_ERR] = SL_FIELD_PARALLAX,
+    [SL_FIELD_PMRA] = SL_FIELD_PMRA, [SL_FIELD_PMRA_ERR] = SL_FIELD_PMRA,
+    [SL_FIELD_PMDEC] = SL_FIELD_PMRA, [SL_FIELD_PMDEC_ERR] = SL_FIELD_PMRA,
+    [SL_FIELD_VMAG] = SL_FIELD_VMAG, [SL_FIELD_VMAG_ERR] = SL_FIELD_VMAG,
+    [SL_FIELD_BMAG] = SL_FIELD_BMAG, [SL_FIELD_BMAG_ERR] = SL_FIELD_BMAG,
+    [SL_FIELD_BV] = SL_FIELD_BV, [SL_FIELD_BV_ERR] = SL_FIELD_BV,
+    [SL_FIELD_EBV] = SL_FIELD_EBV, [SL_FIELD_EBV_ERR] = SL_FIELD_EBV,
+    [SL_FIELD_VRAD] = SL_FIELD_VRAD, [SL_FIELD_VRAD_ERR] = SL_FIELD_VRAD,
+    [SL_FIELD_SPTYPE] = SL_FIELD_SPTYPE,
+  };
+
+  return row->measurement[group_of[field]];
+}
+
+static gboolean
+collect_raw_inputs (SlProject *project, const SlModule *m, const SlDerivedRow *row, GArray *raw,
+                    GError **error)
+{
+  for (int k = 0; k < SL_MODULE_MAX_IO && m->inputs[k] != SL_FIELD_NONE; k++)
+    {
+      SlField f = m->inputs[k];
+      gint64 measurement = measurement_for_field (row, f);
+      RawInput r;
+
+      if (sl_field_info (f)->kind == SL_FIELD_KIND_ERROR || measurement == 0)
+        continue;   /* errors come with their values */
+      if (!load_raw_input (project, measurement, f, &r, error))
+        return FALSE;
+      g_array_append_val (raw, r);
+    }
+  return TRUE;
+}
+
+static void
+write_header (Writer *w, const char *designation, const char *quantity, const SlDerivedRow *row,
+              const RunInfo *run, gint64 run_id)
+{
+  g_autofree char *flags = sl_flags_to_string (row->values.flags);
+  g_autofree char *described = sl_derive_params_describe (&run->params);
+
+  if (w->format == SL_EXPLAIN_JSON)
+    {
+      json_string (w, "star", designation);
+      json_string (w, "quantity", quantity);
+      json_open (w, "run", '{');
+      json_number (w, "id", (double) run_id);
+      json_string (w, "started_at", run->started_at);
+      json_string (w, "who", run->who);
+      json_string (w, "software_version", run->software_version);
+      json_string (w, "parameters", described);
+      json_close (w, '}');
+      json_string (w, "uncertainties", row->values.monte_carlo
+                                       ? "monte carlo: median with 15.87 and 84.13 percentiles"
+                                       : "first order: value -/+ 1 sigma, covariance carried");
+      json_number (w, "stale", row->stale);
+      json_open (w, "flags", '[');
+      for (guint i = 0; i < SL_N_FLAGS; i++)
+        if (row->values.flags & sl_flag_info (i)->flag)
+          {
+            json_open (w, NULL, '{');
+            json_string (w, "flag", sl_flag_info (i)->name);
+            json_string (w, "meaning", sl_flag_info (i)->explanation);
+            json_close (w, '}');
+          }
+      json_close (w, ']');
+      return;
+    }
+
+  g_string_append_printf (w->out, _("%s: %s\n"), designation, quantity);
+  g_string_append_printf (w->out, _("Derived in run %" G_GINT64_FORMAT " at %s by %s (Starledger %s)\n"),
+                          run_id, run->started_at, run->who, run->software_version);
+  g_string_append_printf (w->out, _("Parameters: %s\n"), described);
+  g_string_append_printf (w->out, _("Uncertainties: %s\n"),
+                          row->values.monte_carlo
+                            ? _("Monte Carlo draws: median with the 15.87th and 84.13th percentiles")
+                            : _("first-order propagation (value -/+ 1 sigma), covariances carried through the chain"));
+  if (row->stale)
+    g_string_append (w->out, _("STALE: the inputs or hand-set values changed after this run; run 'derive'.\n"));
+  if (*flags)
+    {
+      g_string_append (w->out, _("Flags:\n"));
+      for (guint i = 0; i < SL_N_FLAGS; i++)
+        if (row->values.flags & sl_flag_info (i)->flag)
+          g_string_append_printf (w->out, "  %s: %s\n", sl_flag_info (i)->name, _(sl_flag_info (i)->explanation));
+    }
+  g_string_append (w->out, _("Steps, from the measurements up:\n"));
+}
+
+static gboolean
+explain_input (SlProject *project, const char *designation, SlField field, Writer *w, GError **error)
+{
+  gint64 star_id = sl_star_lookup (project, designation, error);
+  g_autoptr (SlInputCursor) cursor = star_id ? sl_input_cursor_new (project, star_id, error) : NULL;
+  SlStarInputs in;
+  RawInput r;
+
+  if (cursor == NULL || !sl_input_cursor_next (cursor, &in, error))
+    return FALSE;
+  if (in.measurement[field] == 0)
+    {
+      g_set_error (error, SL_ERROR, SL_ERROR_UNKNOWN_NAME, _("%s has no %s"), designation,
+                   sl_field_info (field)->name);
+      return FALSE;
+    }
+  if (!load_raw_input (project, in.measurement[field], field, &r, error))
+    return FALSE;
+  if (w->format == SL_EXPLAIN_JSON)
+    {
+      json_string (w, "star", designation);
+      json_string (w, "quantity", sl_field_info (field)->name);
+      json_open (w, "raw_inputs", '[');
+      write_raw_input (w, &r);
+      json_close (w, ']');
+    }
+  else
+    {
+      g_string_append_printf (w->out, _("%s: %s, a measured input (chosen among %u measurements of the "
+                                        "star: the smallest uncertainty wins)\n"),
+                              designation, sl_field_info (field)->name, in.n_measurements);
+      write_raw_input (w, &r);
+    }
+  raw_input_clear (&r);
+  return TRUE;
+}
+
+gboolean
+sl_explain (SlProject *project, const char *designation, const char *quantity,
+            SlExplainFormat format, GString *out, GError **error)
+{
+  Writer w = { format, out, TRUE };
+  g_autoptr (GHashTable) needed = g_hash_table_new (NULL, NULL);
+  g_autoptr (GPtrArray) order = NULL;
+  g_autoptr (GArray) overrides = NULL;
+  RunInfo run;
+  SlDerivedRow row;
+  SlQuantity q;
+  SlField field;
+  gint64 star_id;
+  gboolean ok = TRUE;
+  int number = 0;
+
+  if (format == SL_EXPLAIN_JSON)
+    g_string_append_c (out, '{');
+
+  if (!sl_quantity_from_name (quantity, &q))
+    {
+      if (sl_field_from_name (quantity, &field) && sl_field_info (field)->kind != SL_FIELD_KIND_ERROR
+          && field != SL_FIELD_ID)
+        {
+          ok = explain_input (project, designation, field, &w, error);
+          if (format == SL_EXPLAIN_JSON)
+            g_string_append (out, "}\n");
+          return ok;
+        }
+      g_set_error (error, SL_ERROR, SL_ERROR_UNKNOWN_NAME,
+                   _("'%s' is neither a derived quantity nor an input field"), quantity);
+      return FALSE;
+    }
+
+  star_id = sl_star_lookup (project, designation, error);
+  if (star_id == 0)
+    return FALSE;
+  if (!sl_derived_row_load (project, star_id, &row, error))
+    {
+      if (error && *error == NULL)
+        g_set_error (error, SL_ERROR, SL_ERROR_UNKNOWN_NAME,
+                     _("%s has no derived values yet; run 'starledger-cli derive' first"), designation);
+      return FALSE;
+    }
+  if (!load_run (project, row.run_id, &run, error))
+    return FALSE;
+  overrides = load_override_infos (project, star_id, error);
+
+  write_header (&w, designation, quantity, &row, &run, row.run_id);
+  if (format == SL_EXPLAIN_JSON)
+    {
+      json_key (&w, "value");
+      w.first_item = TRUE;
+      write_quantity_value (&w, q, &row.values, overrides);
+      json_open (&w, "steps", '[');
+    }
+
+  mark_needed (q, needed);
+  order = sl_modules_in_order ();
+  for (guint i = 0; ok && i < order->len; i++)
+    {
+      const SlModule *m = order->pdata[i];
+      g_autoptr (GArray) raw = NULL;
+
+      if (!g_hash_table_contains (needed, m))
+        continue;
+      raw = g_array_new (FALSE, TRUE, sizeof (RawInput));
+      g_array_set_clear_func (raw, (GDestroyNotify) raw_input_clear);
+      ok = collect_raw_inputs (project, m, &row, raw, error);
+      if (ok)
+        write_step (&w, m, &row, &run, overrides, raw, ++number);
+    }
+
+  if (format == SL_EXPLAIN_JSON)
+    {
+      json_close (&w, ']');
+      g_string_append (out, "}\n");
+    }
+  run_info_clear (&run);
+  return ok;
+}
