@@ -44,8 +44,11 @@ sl_cli_override (int argc, char **argv)
   double value, lo, hi;
   const char *problem;
 
-  if (!sl_cli_parse (context, "override", &argc, &argv, clear ? 3 : 4))
+  /* CLEAR is only known once the options are parsed: at least 3 here. */
+  if (!sl_cli_parse (context, "override", &argc, &argv, -3))
     return SL_EXIT_USAGE;
+  if (argc - 1 != (clear ? 3 : 4))
+    return sl_cli_usage_error ("override", argc - 1 < 4 ? _("missing arguments") : _("too many arguments"));
   if (!sl_quantity_from_name (argv[3], &quantity) || sl_quantity_info (quantity)->is_text)
     return sl_cli_usage_error ("override", _("%s is not a derived number (see 'export --help')"), argv[3]);
   if (!clear)

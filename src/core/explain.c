@@ -295,6 +295,7 @@ write_raw_input (Writer *w, const RawInput *r)
         {
           json_number (w, "value", r->present ? r->value : NAN);
           json_number (w, "error", r->error);
+          json_string (w, "error_unit", isfinite (r->error) ? sl_unit_name (sl_field_info (info->error)->canonical) : NULL);
         }
       json_string (w, "unit", sl_unit_name (info->canonical));
       json_string (w, "source", r->source_name);
@@ -317,11 +318,14 @@ write_raw_input (Writer *w, const RawInput *r)
       char v[G_ASCII_DTOSTR_BUF_SIZE], e[G_ASCII_DTOSTR_BUF_SIZE];
 
       g_string_append_printf (w->out, "%s", sl_format_double (v, r->value));
-      if (isfinite (r->error))
-        g_string_append_printf (w->out, " +/- %s", sl_format_double (e, r->error));
+      /* An error may have its own unit: ra and dec in deg, their errors in mas. */
+      if (isfinite (r->error) && sl_field_info (info->error)->canonical != info->canonical)
+        g_string_append_printf (w->out, " %s +/- %s %s", sl_unit_name (info->canonical),
+                                sl_format_double (e, r->error), sl_unit_name (sl_field_info (info->error)->canonical));
+      else if (isfinite (r->error))
+        g_string_append_printf (w->out, " +/- %s %s", sl_format_double (e, r->error), sl_unit_name (info->canonical));
       else
-        g_string_append (w->out, _(" (no error)"));
-      g_string_append_printf (w->out, " %s", sl_unit_name (info->canonical));
+        g_string_append_printf (w->out, "%s %s", _(" (no error)"), sl_unit_name (info->canonical));
     }
   g_string_append_printf (w->out, _("\n        from %s, line %" G_GINT64_FORMAT ", column '%s' (%s)\n"
                                     "        source '%s', SHA-256 %s…, imported by %s at %s\n"),

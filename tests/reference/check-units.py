@@ -171,7 +171,9 @@ def compare(tap, stars, rows, column, reference, tolerance, unit, description):
         except ValueError:
             got = math.nan
         diff = abs(got - want)
-        if worst is None or not diff <= worst[0]:
+        if not math.isfinite(diff):
+            diff = math.inf   # an empty cell is a failure, never hidden by a later star
+        if worst is None or diff > worst[0]:
             worst = (diff, star, want, cell)
     if worst is None:
         return tap.check(False, description, ["no star to compare"])

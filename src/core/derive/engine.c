@@ -8,7 +8,10 @@
  *
  * Conventions (REFERENCES.md 11): a linear value is the chain at the
  * measured inputs with value -/+ 1 sigma; a Monte Carlo value is the median
- * of the draws with the 15.87th and 84.13th percentiles.  A quantity that
+ * of the draws with the 15.87th and 84.13th percentiles, except where a
+ * module gives a quantity its own interval (the EDSD distance keeps its
+ * posterior mode and highest-density interval, the Bailer-Jones et al.
+ * 2018 convention; the parallax S/N stays the measured ratio).  A quantity that
  * fewer than 95% of the draws give has no value (it sits at a calibration's
  * edge, where percentiles would be biased).
  */
@@ -357,9 +360,12 @@ star_seed (guint64 seed, gint64 star_id)
   return (unsigned long) (z ^ (z >> 31));
 }
 
+/* KEEP marks quantities whose module gave them an interval of their own in
+ * the linear pass (the EDSD posterior's mode and HDI, the parallax S/N as
+ * measured): draws do not replace those. */
 static void
 run_draws (SlEngine *engine, gint64 star_id, const SlOverride *overrides, guint n_overrides,
-           guint32 linear_flags, SlDerivedValues *out)
+           guint32 linear_flags, const gboolean *keep, SlDerivedValues *out)
 {
   SlEval *ev = &engine->ev;
   guint draws = engine->params.draws;
@@ -384,7 +390,7 @@ run_draws (SlEngine *engine, gint64 star_id, const SlOverride *overrides, guint 
   ev->rng = NULL;
 
   for (SlQuantity q = 0; q < SL_N_QUANTITIES; q++)
-    if (!sl_quantity_info (q)->is_text)
+    if (!sl_quantity_info (q)->is_text && !keep[q])
       {
         gboolean linear_interval = isfinite (out->lo[q]);
 
@@ -481,16 +487,22 @@ sl_engine_derive (SlEngine *engine, const SlStarInputs *inputs, const SlOverride
   out->flags = ev->flags;
   linear_results (engine, sigma, out);
 
+  /* First order fails for a distance from a poor parallax: where one was
+   * derived (the EDSD method gives one at any S/N), draw. */
   monte_carlo = engine->params.errors == SL_ERRORS_MONTE_CARLO;
-  if (!monte_carlo && ev->has[SL_Q_PLX_SNR] && ev->q[SL_Q_PLX_SNR].v < engine->params.mc_below_snr)
+  if (!monte_carlo && ev->has[SL_Q_DIST] && ev->has[SL_Q_PLX_SNR]
+      && ev->q[SL_Q_PLX_SNR].v < engine->params.mc_below_snr)
     {
       monte_carlo = TRUE;
       out->flags |= SL_FLAG_MONTE_CARLO_AUTO;
     }
   if (monte_carlo && engine->params.draws > 0)
     {
+      gboolean keep[SL_N_QUANTITIES];
+
+      memcpy (keep, ev->has_interval, sizeof keep);
       out->monte_carlo = TRUE;
-      run_draws (engine, inputs->star_id, overrides, n_overrides, out->flags, out);
+      run_draws (engine, inputs->star_id, overrides, n_overrides, out->flags, keep, out);
     }
 
   apply_overrides (overrides, n_overrides, out);

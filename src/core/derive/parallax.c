@@ -35,6 +35,10 @@ compute_snr (SlEval *ev)
   if (plx / sigma < LOW_SNR)
     ev->flags |= SL_FLAG_LOW_PARALLAX_SNR;
   sl_eval_set (ev, SL_Q_PLX_SNR, sl_dual_scale (ev->in[SL_FIELD_PARALLAX], 1.0 / sigma));
+  /* The ratio as measured, +/- 1 exactly: Monte Carlo draws keep it. */
+  ev->has_interval[SL_Q_PLX_SNR] = TRUE;
+  ev->interval_lo[SL_Q_PLX_SNR] = ev->q[SL_Q_PLX_SNR].v - 1.0;
+  ev->interval_hi[SL_Q_PLX_SNR] = ev->q[SL_Q_PLX_SNR].v + 1.0;
 }
 
 const SlModule sl_module_parallax = {
