@@ -4,6 +4,7 @@
 #include <stdio.h>
 
 #include "cli.h"
+#include "derivation.h"
 #include "inputs.h"
 #include "summary.h"
 #include "units.h"
@@ -35,6 +36,31 @@ print_value (double value, gboolean present, int decimals, int width)
     printf (" %*s", width, "");
 }
 
+/* Distance, temperature, luminosity and class, if derived. */
+static void
+print_derived (SlProject *project, gint64 star_id)
+{
+  SlDerivedRow row;
+  const SlDerivedValues *v = &row.values;
+
+  if (!sl_derived_row_load (project, star_id, &row, NULL))
+    {
+      printf (" %8s %7s %9s %-7s", "", "", "", "");
+      return;
+    }
+  print_value (v->value[SL_Q_DIST], v->has[SL_Q_DIST], 1, 8);
+  print_value (v->value[SL_Q_TEFF], v->has[SL_Q_TEFF], 0, 7);
+  if (v->has[SL_Q_LUM])
+    {
+      char buf[G_ASCII_DTOSTR_BUF_SIZE];
+
+      printf (" %9s", g_ascii_formatd (buf, sizeof buf, "%.3g", v->value[SL_Q_LUM]));
+    }
+  else
+    printf (" %9s", "");
+  printf (" %-7s", v->has[SL_Q_SPCLASS] ? v->text[SL_Q_SPCLASS] : "");
+}
+
 static gboolean
 print_stars (SlProject *project, gint64 n_stars, int limit, GError **error)
 {
@@ -46,8 +72,9 @@ print_stars (SlProject *project, gint64 n_stars, int limit, GError **error)
     return FALSE;
   printf (_("Stars (the first %d of %" G_GINT64_FORMAT "; positions ICRS at the epoch shown):\n"),
           (int) MIN (limit, n_stars), n_stars);
-  printf ("  %-10s %-14s %-13s %7s %9s %7s %6s %6s  %s\n", _("id"), _("RA (h m s)"),
-          _("Dec (d m s)"), _("epoch"), _("parallax"), "±", "V", "B-V", _("spectral type"));
+  printf ("  %-10s %-14s %-13s %7s %9s %7s %6s %6s %8s %7s %9s %-7s %s\n", _("id"), _("RA (h m s)"),
+          _("Dec (d m s)"), _("epoch"), _("parallax"), "±", "V", "B-V", _("dist/pc"), _("Teff/K"),
+          _("L/Lsun"), _("class"), _("catalogued type"));
   while (shown < limit && sl_input_cursor_next (cursor, &in, error))
     {
       g_autofree char *ra = sl_format_sexagesimal (in.value[SL_FIELD_RA], TRUE, 3);
@@ -59,7 +86,8 @@ print_stars (SlProject *project, gint64 n_stars, int limit, GError **error)
       print_value (in.value[SL_FIELD_PARALLAX_ERR], in.present[SL_FIELD_PARALLAX_ERR], 3, 7);
       print_value (in.value[SL_FIELD_VMAG], in.present[SL_FIELD_VMAG], 2, 6);
       print_value (in.value[SL_FIELD_BV], in.present[SL_FIELD_BV], 2, 6);
-      printf ("  %s\n", in.sptype ? in.sptype : "");
+      print_derived (project, in.star_id);
+      printf (" %s\n", in.sptype ? in.sptype : "");
       shown++;
     }
   return error == NULL || *error == NULL;
@@ -91,10 +119,33 @@ sl_cli_summary (int argc, char **argv)
     return sl_cli_fail (error);
 
   printf (_("Project %s (schema version %d)\n"), argv[1], summary->schema_version);
-  printf (_("  %" G_GINT64_FORMAT " stars, %" G_GINT64_FORMAT " measurements from %u sources, %"
-            G_GINT64_FORMAT " rejected rows, %" G_GINT64_FORMAT " ledger entries\n"),
-          summary->n_stars, summary->n_measurements, summary->sources->len,
-          summary->n_rejected, summary->n_ledger);
+  printf ("  ");
+  printf (g_dngettext (GETTEXT_PACKAGE, "%" G_GINT64_FORMAT " star", "%" G_GINT64_FORMAT " stars",
+                       summary->n_stars), summary->n_stars);
+  printf (", ");
+  printf (g_dngettext (GETTEXT_PACKAGE, "%" G_GINT64_FORMAT " measurement", "%" G_GINT64_FORMAT " measurements",
+                       summary->n_measurements), summary->n_measurements);
+  printf (g_dngettext (GETTEXT_PACKAGE, " from %u source", " from %u sources", summary->sources->len),
+          summary->sources->len);
+  printf (", ");
+  printf (g_dngettext (GETTEXT_PACKAGE, "%" G_GINT64_FORMAT " rejected row", "%" G_GINT64_FORMAT " rejected rows",
+                       summary->n_rejected), summary->n_rejected);
+  printf (", ");
+  printf (g_dngettext (GETTEXT_PACKAGE, "%" G_GINT64_FORMAT " ledger entry", "%" G_GINT64_FORMAT " ledger entries",
+                       summary->n_ledger), summary->n_ledger);
+  printf ("\n");
+  if (summary->n_runs == 0)
+    printf (_("  not derived yet: run 'starledger-cli derive'\n"));
+  else
+    {
+      g_autofree char *runs = g_strdup_printf (g_dngettext (GETTEXT_PACKAGE, "%" G_GINT64_FORMAT " run",
+                                                            "%" G_GINT64_FORMAT " runs", summary->n_runs),
+                                               summary->n_runs);
+
+      printf (_("  %" G_GINT64_FORMAT " of %" G_GINT64_FORMAT " stars derived (%s), %" G_GINT64_FORMAT
+                " stale (run 'derive' to update them)\n"),
+              summary->n_derived, summary->n_stars, runs, summary->n_stale);
+    }
   print_sources (summary);
   if (limit > 0 && summary->n_stars > 0 && !print_stars (project, summary->n_stars, limit, &error))
     return sl_cli_fail (error);

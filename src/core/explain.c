@@ -545,7 +545,28 @@ write_header (Writer *w, const char *designation, const char *quantity, const Sl
         if (row->values.flags & sl_flag_info (i)->flag)
           g_string_append_printf (w->out, "  %s: %s\n", sl_flag_info (i)->name, _(sl_flag_info (i)->explanation));
     }
-  g_string_append (w->out, _("Steps, from the measurements up:\n"));
+}
+
+/* Teff, L and R share the colour: the 1-sigma ellipse the HR diagram draws. */
+static void
+write_hr_ellipse (Writer *w, const SlDerivedValues *v)
+{
+  char a[G_ASCII_DTOSTR_BUF_SIZE], b[G_ASCII_DTOSTR_BUF_SIZE], c[G_ASCII_DTOSTR_BUF_SIZE];
+
+  if (w->format == SL_EXPLAIN_JSON)
+    {
+      json_open (w, "hr_error_ellipse", '{');
+      json_number (w, "sigma_log_teff", v->logt_sigma);
+      json_number (w, "sigma_log_lum", v->logl_sigma);
+      json_number (w, "correlation", v->logt_logl_corr);
+      json_close (w, '}');
+      return;
+    }
+  g_string_append_printf (w->out, _("Error ellipse in the HR diagram: sigma(log Teff) = %s, sigma(log L) = %s, "
+                                    "correlation %s\n"),
+                          g_ascii_formatd (a, sizeof a, "%.3g", v->logt_sigma),
+                          g_ascii_formatd (b, sizeof b, "%.3g", v->logl_sigma),
+                          g_ascii_formatd (c, sizeof c, "%.3f", v->logt_logl_corr));
 }
 
 static gboolean
@@ -634,6 +655,10 @@ sl_explain (SlProject *project, const char *designation, const char *quantity,
   overrides = load_override_infos (project, star_id, error);
 
   write_header (&w, designation, quantity, &row, &run, row.run_id);
+  if ((q == SL_Q_TEFF || q == SL_Q_LUM || q == SL_Q_RADIUS) && isfinite (row.values.logt_logl_corr))
+    write_hr_ellipse (&w, &row.values);
+  if (format == SL_EXPLAIN_TEXT)
+    g_string_append (out, _("Steps, from the measurements up:\n"));
   if (format == SL_EXPLAIN_JSON)
     {
       json_key (&w, "value");

@@ -4,7 +4,7 @@
 static gboolean
 count_rows (SlProject *project, const char *table, gint64 *count, GError **error)
 {
-  g_autofree char *sql = g_strdup_printf ("SELECT count(*) FROM %s", table);
+  g_autofree char *sql = g_strdup_printf ("SELECT count(*) FROM %s", table);   /* TABLE may carry a WHERE */
   sqlite3_stmt *stmt = sl_project_prepare (project, sql, error);
   gboolean ok;
 
@@ -75,6 +75,9 @@ sl_project_summary (SlProject *project, GError **error)
       || !count_rows (project, "measurements", &summary->n_measurements, error)
       || !count_rows (project, "rejected_rows", &summary->n_rejected, error)
       || !count_rows (project, "ledger", &summary->n_ledger, error)
+      || !count_rows (project, "derived", &summary->n_derived, error)
+      || !count_rows (project, "derived WHERE stale", &summary->n_stale, error)
+      || !count_rows (project, "derivation_runs", &summary->n_runs, error)
       || !read_sources (project, summary->sources, error))
     return NULL;
   return g_steal_pointer (&summary);

@@ -24,6 +24,9 @@ typedef struct {
   gint64     n_measurements;
   gint64     n_rejected;
   gint64     n_ledger;
+  gint64     n_derived;      /* stars with derived values */
+  gint64     n_stale;        /* of which inputs changed since their run */
+  gint64     n_runs;         /* derivation runs */
   int        schema_version;
   GPtrArray *sources;     /* SlSourceInfo, oldest first */
 } SlProjectSummary;
