@@ -187,35 +187,176 @@ test_open_newer_schema (Fixture *f, gconstpointer data)
   g_assert_nonnull (strstr (error->message, "newer Starledger"));
 }
 
-/* tests/data/project-v1.sql is a frozen version-1 file with a source, two
- * stars, their measurements, a rejected row and two ledger entries. */
-static void
-test_migrate_from_v1 (Fixture *f, gconstpointer data)
+/* Loads the frozen project tests/data/NAME into F's file with a plain
+ * SQLite connection, opens it (which upgrades it) and checks the version. */
+static SlProject *
+open_fixture (Fixture *f, const char *name)
 {
   g_autoptr (GError) error = NULL;
-  g_autoptr (SlProject) project = NULL;
-  g_autofree char *fixture = g_build_filename (g_getenv ("STARLEDGER_SOURCE_DIR"), "tests", "data",
-                                               "project-v1.sql", NULL);
+  g_autofree char *fixture = g_build_filename (g_getenv ("STARLEDGER_SOURCE_DIR"), "tests", "data", name, NULL);
   g_autofree char *sql = NULL;
-  g_autofree char *action = NULL;
-  g_autofree char *details = NULL;
-  sqlite3 *db;
+  SlProject *project;
 
   g_assert_true (g_file_get_contents (fixture, &sql, NULL, NULL));
   run_raw_sql (f->path, sql);
 
   project = sl_project_open (f->path, &error);
   g_assert_no_error (error);
-  db = sl_project_db (project);
+  g_assert_nonnull (project);
   g_assert_cmpint (sl_project_schema_version (project), ==, sl_schema_current_version ());
-  g_assert_cmpint (query_int (db, "PRAGMA user_version"), ==, sl_schema_current_version ());
+  g_assert_cmpint (query_int (sl_project_db (project), "PRAGMA user_version"), ==, sl_schema_current_version ());
+  return project;
+}
 
-  /* Every row is kept. */
+/* Appends each row of SQL to TEXT, cells separated by '|'. */
+static void
+append_rows (sqlite3 *db, const char *sql, GString *text)
+{
+  sqlite3_stmt *stmt;
+
+  g_assert_cmpint (sqlite3_prepare_v2 (db, sql, -1, &stmt, NULL), ==, SQLITE_OK);
+  while (sqlite3_step (stmt) == SQLITE_ROW)
+    {
+      for (int c = 0; c < sqlite3_column_count (stmt); c++)
+        g_string_append_printf (text, "%s|", sqlite3_column_type (stmt, c) == SQLITE_NULL
+                                                ? "NULL" : (const char *) sqlite3_column_text (stmt, c));
+      g_string_append_c (text, '\n');
+    }
+  sqlite3_finalize (stmt);
+}
+
+/* Every table's columns (name, type, not null, default, key), indexes
+ * (unique, partial, origin) and their columns, as one text. */
+static char *
+schema_outline (sqlite3 *db)
+{
+  GString *text = g_string_new (NULL);
+
+  append_rows (db, "SELECT m.name, p.name, p.type, p.\"notnull\", p.dflt_value, p.pk "
+                   "FROM sqlite_schema m, pragma_table_info (m.name) p "
+                   "WHERE m.type = 'table' ORDER BY m.name, p.cid", text);
+  append_rows (db, "SELECT m.name, l.name, l.\"unique\", l.origin, l.partial, i.seqno, i.name "
+                   "FROM sqlite_schema m, pragma_index_list (m.name) l, pragma_index_info (l.name) i "
+                   "WHERE m.type = 'table' ORDER BY m.name, l.name, i.seqno", text);
+  append_rows (db, "SELECT m.name, k.\"table\", k.\"from\", k.\"to\", k.on_delete "
+                   "FROM sqlite_schema m, pragma_foreign_key_list (m.name) k "
+                   "WHERE m.type = 'table' ORDER BY m.name, k.id, k.seq", text);
+  return g_string_free (text, FALSE);
+}
+
+/* The upgraded file has the tables, columns and indexes of a new one. */
+static void
+assert_schema_as_new (Fixture *f, SlProject *upgraded)
+{
+  g_autoptr (GError) error = NULL;
+  g_autofree char *path = g_build_filename (f->dir, "new.starledger", NULL);
+  g_autoptr (SlProject) fresh = sl_project_create (path, &error);
+  g_autofree char *want = NULL;
+  g_autofree char *got = NULL;
+
+  g_assert_no_error (error);
+  want = schema_outline (sl_project_db (fresh));
+  got = schema_outline (sl_project_db (upgraded));
+  g_assert_cmpstr (got, ==, want);
+}
+
+/* The rows of tests/data/project-v1.sql, which project-v2.sql holds too:
+ * a source, two stars, their measurements, a rejected row. */
+static void
+assert_version_1_rows (sqlite3 *db)
+{
+  g_autofree char *notes = NULL;
+  g_autofree char *raw = NULL;
+  g_autofree char *mapping = NULL;
+
+  g_assert_cmpint (query_int (db, "SELECT count(*) FROM sources"), ==, 1);
   g_assert_cmpint (query_int (db, "SELECT count(*) FROM stars"), ==, 2);
   g_assert_cmpint (query_int (db, "SELECT count(*) FROM measurements"), ==, 2);
   g_assert_cmpint (query_int (db, "SELECT count(*) FROM rejected_rows"), ==, 1);
   sl_assert_close (query_int (db, "SELECT parallax * 1000 FROM measurements WHERE star_id = 2"),
                    -400, 0, "negative parallax kept through the upgrade");
+  g_assert_cmpint (query_int (db, "SELECT count(*) FROM measurements WHERE ra IS NULL AND vmag IS NULL"), ==, 2);
+  notes = query_text (db, "SELECT notes FROM stars WHERE designation = 'OLD 2'");
+  g_assert_cmpstr (notes, ==, "bright companion");
+  raw = query_text (db, "SELECT hex (raw) FROM rejected_rows WHERE line = 4");
+  g_assert_cmpstr (raw, ==, "4F4C4420332C78");
+  mapping = query_text (db, "SELECT mapping ->> '$[1].unit' FROM sources WHERE id = 1");
+  g_assert_cmpstr (mapping, ==, "mas");
+}
+
+/* Version 3's tables exist and work: a run, a derived row of it, a
+ * hand-set value, and the rule of one active hand-set value per star and
+ * quantity. */
+static void
+assert_version_3_tables_work (SlProject *project)
+{
+  g_autoptr (GError) error = NULL;
+  sqlite3 *db = sl_project_db (project);
+
+  g_assert_true (sl_project_exec (project,
+                                  "INSERT INTO derivation_runs (id, started_at, who, software_version, parameters, methods) "
+                                  "VALUES (1, '2026-02-01T10:00:00Z', 'test', '0', '', '{}');"
+                                  "INSERT INTO derived (star_id, run_id, m_parallax, dist, dist_lo, dist_hi) "
+                                  "VALUES (1, 1, 1, 80, 78.1, 82.0);"
+                                  "INSERT INTO overrides (star_id, quantity, value, reason, set_by, set_at) "
+                                  "VALUES (2, 'teff', 5800, 'from a spectrum', 'test', '2026-02-01T10:05:00Z');",
+                                  &error));
+  g_assert_no_error (error);
+  sl_assert_close (query_int (db, "SELECT dist * 10 FROM derived WHERE star_id = 1"), 800, 0, "a derived row");
+  g_assert_cmpint (query_int (db, "SELECT stale + flags + monte_carlo FROM derived WHERE star_id = 1"), ==, 0);
+  g_assert_cmpint (query_int (db, "SELECT count(*) FROM overrides WHERE cleared_at IS NULL"), ==, 1);
+
+  /* A derived row needs a recorded run and a star that exists. */
+  g_assert_false (sl_project_exec (project, "INSERT INTO derived (star_id, run_id) VALUES (2, 99)", &error));
+  g_assert_error (error, SL_ERROR, SL_ERROR_DATABASE);
+  g_clear_error (&error);
+  g_assert_false (sl_project_exec (project, "INSERT INTO derived (star_id, run_id) VALUES (99, 1)", &error));
+  g_assert_error (error, SL_ERROR, SL_ERROR_DATABASE);
+  g_clear_error (&error);
+
+  /* One active override per star and quantity; a cleared one stays. */
+  g_assert_false (sl_project_exec (project,
+                                   "INSERT INTO overrides (star_id, quantity, value, reason, set_by, set_at) "
+                                   "VALUES (2, 'teff', 5900, 'again', 'test', '2026-02-01T10:06:00Z')", &error));
+  g_assert_error (error, SL_ERROR, SL_ERROR_DATABASE);
+  g_clear_error (&error);
+  g_assert_true (sl_project_exec (project,
+                                  "UPDATE overrides SET cleared_by = 'test', cleared_at = '2026-02-01T10:07:00Z';"
+                                  "INSERT INTO overrides (star_id, quantity, value, reason, set_by, set_at) "
+                                  "VALUES (2, 'teff', 5900, 'again', 'test', '2026-02-01T10:08:00Z');",
+                                  &error));
+  g_assert_no_error (error);
+  g_assert_cmpint (query_int (db, "SELECT count(*) FROM overrides WHERE star_id = 2"), ==, 2);
+}
+
+/* The last ledger entry records the upgrade from version FROM; the file
+ * had ENTRIES entries before it. */
+static void
+assert_upgrade_logged (sqlite3 *db, int from, gint64 entries)
+{
+  g_autofree char *action = query_text (db, "SELECT action FROM ledger ORDER BY id DESC LIMIT 1");
+  g_autofree char *details = query_text (db, "SELECT details FROM ledger ORDER BY id DESC LIMIT 1");
+  g_autofree char *want_from = g_strdup_printf ("\"from\":%d,", from);
+  g_autofree char *want_to = g_strdup_printf ("\"to\":%d}", sl_schema_current_version ());
+
+  g_assert_cmpint (query_int (db, "SELECT count(*) FROM ledger"), ==, entries + 1);
+  g_assert_cmpint (query_int (db, "SELECT count(*) FROM ledger WHERE action = 'upgrade'"), ==, 1);
+  g_assert_cmpstr (action, ==, "upgrade");
+  g_assert_nonnull (strstr (details, want_from));
+  g_assert_nonnull (strstr (details, want_to));
+}
+
+/* tests/data/project-v1.sql is a frozen version-1 file with a source, two
+ * stars, their measurements, a rejected row and two ledger entries. */
+static void
+test_migrate_from_v1 (Fixture *f, gconstpointer data)
+{
+  g_autoptr (GError) error = NULL;
+  g_autoptr (SlProject) project = open_fixture (f, "project-v1.sql");
+  sqlite3 *db = sl_project_db (project);
+
+  assert_schema_as_new (f, project);
+  assert_version_1_rows (db);
 
   /* Version 2's tables exist and work. */
   g_assert_true (sl_project_exec (project,
@@ -225,12 +366,51 @@ test_migrate_from_v1 (Fixture *f, gconstpointer data)
                                   &error));
   g_assert_no_error (error);
 
-  /* The upgrade is in the ledger. */
-  g_assert_cmpint (query_int (db, "SELECT count(*) FROM ledger"), ==, 3);
-  action = query_text (db, "SELECT action FROM ledger ORDER BY id DESC LIMIT 1");
-  details = query_text (db, "SELECT details FROM ledger ORDER BY id DESC LIMIT 1");
-  g_assert_cmpstr (action, ==, "upgrade");
-  g_assert_nonnull (strstr (details, "\"from\":1"));
+  assert_upgrade_logged (db, 1, 2);
+  assert_version_3_tables_work (project);
+}
+
+/* tests/data/project-v2.sql is a frozen version-2 file: version 1's rows
+ * and ledger, and a setting, a target list and its two members. */
+static void
+test_migrate_from_v2 (Fixture *f, gconstpointer data)
+{
+  g_autoptr (GError) error = NULL;
+  g_autoptr (SlProject) project = open_fixture (f, "project-v2.sql");
+  sqlite3 *db = sl_project_db (project);
+  g_autofree char *setting = NULL;
+  g_autofree char *condition = NULL;
+  g_autofree char *tags = NULL;
+  g_autofree char *notes = NULL;
+
+  assert_schema_as_new (f, project);
+  assert_version_1_rows (db);
+
+  /* Version 2's rows are kept. */
+  g_assert_cmpint (query_int (db, "SELECT count(*) FROM settings"), ==, 1);
+  setting = query_text (db, "SELECT value FROM settings WHERE key = 'distance.length_scale_pc'");
+  g_assert_cmpstr (setting, ==, "1350");
+  g_assert_cmpint (query_int (db, "SELECT count(*) FROM lists"), ==, 1);
+  condition = query_text (db, "SELECT condition FROM lists WHERE name = 'Run 2026A'");
+  g_assert_cmpstr (condition, ==, "parallax > 10");
+  g_assert_cmpint (query_int (db, "SELECT count(*) FROM list_members"), ==, 2);
+  g_assert_cmpint (query_int (db, "SELECT priority FROM list_members WHERE star_id = 1"), ==, 2);
+  tags = query_text (db, "SELECT tags FROM list_members WHERE star_id = 1");
+  notes = query_text (db, "SELECT notes FROM list_members WHERE star_id = 1");
+  g_assert_cmpstr (tags, ==, "bright;priority");
+  g_assert_cmpstr (notes, ==, "observe twice");
+
+  assert_upgrade_logged (db, 2, 2);
+  assert_version_3_tables_work (project);
+
+  /* Version 2's constraints still hold: a member must be a star, and a
+   * list's members go with it. */
+  g_assert_false (sl_project_exec (project, "INSERT INTO list_members (list_id, star_id) VALUES (1, 99)", &error));
+  g_assert_error (error, SL_ERROR, SL_ERROR_DATABASE);
+  g_clear_error (&error);
+  g_assert_true (sl_project_exec (project, "DELETE FROM lists WHERE id = 1", &error));
+  g_assert_no_error (error);
+  g_assert_cmpint (query_int (db, "SELECT count(*) FROM list_members"), ==, 0);
 }
 
 static void
@@ -281,6 +461,7 @@ main (int argc, char **argv)
   ADD ("/project/open/refuses-text-file", test_open_text_file);
   ADD ("/project/open/refuses-newer-schema", test_open_newer_schema);
   ADD ("/project/migrate/from-version-1", test_migrate_from_v1);
+  ADD ("/project/migrate/from-version-2", test_migrate_from_v2);
   ADD ("/project/hardening", test_hardening);
 #undef ADD
 

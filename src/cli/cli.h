@@ -54,5 +54,6 @@ int sl_cli_derive  (int argc, char **argv);
 int sl_cli_override (int argc, char **argv);
 int sl_cli_verify  (int argc, char **argv);
 int sl_cli_explain (int argc, char **argv);
+int sl_cli_figure  (int argc, char **argv);
 
 G_END_DECLS

@@ -109,6 +109,7 @@ sl_cli_derive (int argc, char **argv)
   g_autofree char *described = NULL;
   SlDeriveParams params;
   SlDeriveReport report;
+  char seconds[G_ASCII_DTOSTR_BUF_SIZE];
 
   if (!sl_cli_parse (context, "derive", &argc, &argv, 1))
     return SL_EXIT_USAGE;
@@ -136,9 +137,11 @@ sl_cli_derive (int argc, char **argv)
   if (!sl_derivation_run (project, &params, all, NULL, NULL, NULL, &report, &error))
     return sl_cli_fail (error);
   described = sl_derive_params_describe (&params);
+  /* g_ascii_formatd: a '.' decimal point whatever the locale (README). */
   printf (_("derived %" G_GUINT64_FORMAT " stars, %" G_GUINT64_FORMAT " already up to date (run %"
-            G_GINT64_FORMAT ", %.2f s)\n"),
-          report.computed, report.up_to_date, report.run_id, report.seconds);
+            G_GINT64_FORMAT ", %s s)\n"),
+          report.computed, report.up_to_date, report.run_id,
+          g_ascii_formatd (seconds, sizeof seconds, "%.2f", report.seconds));
   printf (_("parameters: %s\n"), described);
   return SL_EXIT_OK;
 }

@@ -17,6 +17,7 @@ static const SlCliCommand commands[] = {
   { "explain", sl_cli_explain, N_("Show how a value was obtained, down to the raw rows") },
   { "override", sl_cli_override, N_("Set a derived value by hand, or clear it") },
   { "verify",  sl_cli_verify,  N_("Recompute every derived value and compare") },
+  { "figure",  sl_cli_figure,  N_("Draw an HR diagram, a sky map or parallax paths for a paper") },
   { "export",  sl_cli_export,  N_("Write the stars' values as a CSV or LaTeX table") },
   { "summary", sl_cli_summary, N_("Show what a project holds") },
   { "ledger",  sl_cli_ledger,  N_("Show the project's audit log") },

@@ -7,12 +7,9 @@
  */
 #include "export.h"
 
-#include <errno.h>
 #include <glib/gi18n.h>
-#include <glib/gstdio.h>
 #include <math.h>
 #include <stdio.h>
-#include <unistd.h>
 #include <string.h>
 
 #include "derivation.h"
@@ -368,66 +365,6 @@ write_tex_row (FILE *out, GArray *columns, const StarRow *row)
   fputs (" \\\\\n", out);
 }
 
-/* Opens a temporary file beside PATH; the rename in close_output makes it
- * appear whole or not at all. */
-static FILE *
-open_output (const char *path, char **temp_path, GError **error)
-{
-  g_autofree char *dir = NULL;
-  g_autofree char *base = NULL;
-  int fd;
-  FILE *out;
-
-  *temp_path = NULL;
-  if (strcmp (path, "-") == 0)
-    return stdout;
-
-  dir = g_path_get_dirname (path);
-  base = g_path_get_basename (path);
-  *temp_path = g_strdup_printf ("%s/.%s.XXXXXX", dir, base);
-  fd = g_mkstemp (*temp_path);
-  if (fd < 0 || (out = fdopen (fd, "w")) == NULL)
-    {
-      int saved = errno;
-
-      g_set_error (error, SL_ERROR, SL_ERROR_IO, _("%s: cannot write: %s"), path,
-                   g_strerror (saved));
-      if (fd >= 0)
-        close (fd), g_unlink (*temp_path);
-      g_clear_pointer (temp_path, g_free);
-      return NULL;
-    }
-  return out;
-}
-
-static gboolean
-close_output (FILE *out, const char *path, char *temp_path, gboolean ok, GError **error)
-{
-  gboolean write_failed;
-
-  if (temp_path == NULL)
-    {
-      write_failed = fflush (out) != 0 || ferror (out);
-      if (ok && write_failed)
-        g_set_error (error, SL_ERROR, SL_ERROR_IO, _("cannot write to standard output: %s"),
-                     g_strerror (errno));
-      return ok && !write_failed;
-    }
-
-  write_failed = ferror (out) | (fclose (out) != 0);
-  if (ok && !write_failed && g_rename (temp_path, path) == 0)
-    {
-      g_free (temp_path);
-      return TRUE;
-    }
-  if (ok)
-    g_set_error (error, SL_ERROR, SL_ERROR_IO, _("%s: cannot write: %s"), path,
-                 g_strerror (errno));
-  g_unlink (temp_path);
-  g_free (temp_path);
-  return FALSE;
-}
-
 /* Reads derived rows in star order alongside the inputs. */
 static gboolean
 next_derived_row (sqlite3_stmt *stmt, gint64 star_id, SlDerivedRow *row, gboolean *pending,
@@ -470,7 +407,7 @@ sl_export (SlProject *project, const char *path, const SlExportOptions *options,
     return -1;
   derived = sl_project_prepare (project, derived_sql, error);
   cursor = derived ? sl_input_cursor_new (project, 0, error) : NULL;
-  if (cursor == NULL || (out = open_output (path, &temp_path, error)) == NULL)
+  if (cursor == NULL || (out = sl_output_open (path, &temp_path, error)) == NULL)
     {
       sqlite3_finalize (derived);
       sl_project_rollback (project);
@@ -500,7 +437,7 @@ sl_export (SlProject *project, const char *path, const SlExportOptions *options,
   ok = local_error == NULL
        && !g_cancellable_set_error_if_cancelled (options->cancellable, &local_error);
   sl_project_rollback (project);
-  if (!close_output (out, path, temp_path, ok, error))
+  if (!sl_output_close (out, path, temp_path, ok, error))
     {
       if (local_error)
         g_propagate_error (error, g_steal_pointer (&local_error));

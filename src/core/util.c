@@ -1,8 +1,16 @@
 /* util.c: who, when, numbers and JSON text for the rest of the core. */
 #include "util.h"
 
+#include <errno.h>
+#include <fcntl.h>
+#include <glib/gi18n.h>
+#include <glib/gstdio.h>
 #include <math.h>
 #include <stdio.h>
+#include <string.h>
+#include <unistd.h>
+
+#include "sl-error.h"
 
 const char *
 sl_current_user (void)
@@ -64,3 +72,65 @@ sl_json_append_number (GString *str, double value)
   else
     g_string_append (str, sl_format_double (buf, value));
 }
+
+/* Opens a temporary file beside PATH; the rename in close_output makes it
+ * appear whole or not at all. */
+FILE *
+sl_output_open (const char *path, char **temp_path, GError **error)
+{
+  g_autofree char *dir = NULL;
+  g_autofree char *base = NULL;
+  int fd;
+  FILE *out;
+
+  *temp_path = NULL;
+  if (strcmp (path, "-") == 0)
+    return stdout;
+
+  dir = g_path_get_dirname (path);
+  base = g_path_get_basename (path);
+  *temp_path = g_strdup_printf ("%s/.%s.XXXXXX", dir, base);
+  /* 0666 less the umask, as any new file: mkstemp alone gives 0600. */
+  fd = g_mkstemp_full (*temp_path, O_WRONLY | O_CLOEXEC, 0666);
+  if (fd < 0 || (out = fdopen (fd, "w")) == NULL)
+    {
+      int saved = errno;
+
+      g_set_error (error, SL_ERROR, SL_ERROR_IO, _("%s: cannot write: %s"), path,
+                   g_strerror (saved));
+      if (fd >= 0)
+        close (fd), g_unlink (*temp_path);
+      g_clear_pointer (temp_path, g_free);
+      return NULL;
+    }
+  return out;
+}
+
+gboolean
+sl_output_close (FILE *out, const char *path, char *temp_path, gboolean ok, GError **error)
+{
+  gboolean write_failed;
+
+  if (temp_path == NULL)
+    {
+      write_failed = fflush (out) != 0 || ferror (out);
+      if (ok && write_failed)
+        g_set_error (error, SL_ERROR, SL_ERROR_IO, _("cannot write to standard output: %s"),
+                     g_strerror (errno));
+      return ok && !write_failed;
+    }
+
+  write_failed = ferror (out) | (fclose (out) != 0);
+  if (ok && !write_failed && g_rename (temp_path, path) == 0)
+    {
+      g_free (temp_path);
+      return TRUE;
+    }
+  if (ok)
+    g_set_error (error, SL_ERROR, SL_ERROR_IO, _("%s: cannot write: %s"), path,
+                 g_strerror (errno));
+  g_unlink (temp_path);
+  g_free (temp_path);
+  return FALSE;
+}
+

@@ -4,6 +4,7 @@
 #pragma once
 
 #include <glib.h>
+#include <stdio.h>
 
 G_BEGIN_DECLS
 
@@ -23,5 +24,11 @@ void sl_json_append_string (GString *str, const char *value);
 
 /* Appends a JSON number, or null for a non-finite value. */
 void sl_json_append_number (GString *str, double value);
+
+/* Output files that appear whole or not at all: sl_output_open writes to
+ * a temporary file beside PATH (or to stdout for "-"), sl_output_close
+ * renames it into place if OK and nothing failed, else removes it. */
+FILE    *sl_output_open  (const char *path, char **temp_path, GError **error);
+gboolean sl_output_close (FILE *out, const char *path, char *temp_path, gboolean ok, GError **error);
 
 G_END_DECLS

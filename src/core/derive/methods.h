@@ -42,4 +42,11 @@ void     sl_ecliptic_from_icrs (double ra_deg, double dec_deg, double *lon_deg, 
 /* The IAU 2006 obliquity of the ecliptic at J2000 (ERFA eraObl06), rad. */
 double   sl_obliquity_j2000 (void);
 
+/* zams.c: the zero-age main sequence of Tout, Pols, Eggleton & Han (1996,
+ * MNRAS 281, 257): L [L_sun], R [R_sun] and Teff [K] of mass [M_sun] at
+ * metal fraction Z; NAN outside 0.1-100 M_sun, 1e-4 <= Z <= 0.03. */
+double   sl_zams_luminosity (double mass, double z);
+double   sl_zams_radius (double mass, double z);
+double   sl_zams_teff (double mass, double z);
+
 G_END_DECLS

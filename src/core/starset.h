@@ -1,0 +1,48 @@
+/* starset.h: the stars of a project with the values figures and views
+ * draw, loaded once.  Missing values are NAN.  Positions are ICRS at each
+ * star's own epoch.
+ */
+#pragma once
+
+#include "project.h"
+
+G_BEGIN_DECLS
+
+typedef struct {
+  gint64      star_id;
+  const char *designation;         /* owned by the set */
+  double      ra, dec;             /* deg */
+  double      epoch;               /* Julian year */
+  double      parallax, parallax_err;  /* mas, as measured */
+  double      pmra, pmdec;         /* mas/yr, pmra times cos Dec */
+  double      vmag;                /* mag */
+  double      bv0, bv0_lo, bv0_hi; /* mag, derived */
+  double      absmag, absmag_lo, absmag_hi;
+  double      teff, teff_lo, teff_hi;
+  double      lum, lum_lo, lum_hi;
+  double      logt_sigma, logl_sigma, logt_logl_corr;
+  double      elat;                /* deg */
+  double      ellipse_a, ellipse_b, ellipse_pa;
+} SlPlotStar;
+
+typedef struct {
+  GArray       *stars;       /* SlPlotStar */
+  gint64        run_id;      /* the newest derivation run among the stars, 0 if none */
+  guint         n_derived;   /* stars with a derived row */
+  GStringChunk *strings;
+} SlStarSet;
+
+/* Loads every star, or only those named in DESIGNATIONS (NULL-terminated,
+ * in that order; an unknown name is an error). */
+SlStarSet *sl_star_set_load (SlProject *project, const char *const *designations, GError **error);
+void       sl_star_set_free (SlStarSet *set);
+
+static inline SlPlotStar *
+sl_star_set_get (const SlStarSet *set, guint i)
+{
+  return &g_array_index (set->stars, SlPlotStar, i);
+}
+
+G_DEFINE_AUTOPTR_CLEANUP_FUNC (SlStarSet, sl_star_set_free)
+
+G_END_DECLS
