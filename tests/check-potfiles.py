@@ -9,11 +9,17 @@ import os
 import re
 import sys
 
+# The TAP printer is shared with the reference checks; no bytecode cache
+# is written into the source tree.
+sys.dont_write_bytecode = True
+sys.path.insert(0, os.path.join(os.path.dirname(__file__), "reference"))
+import starledger_tap as tap_lib  # noqa: E402
+
 MARKED = re.compile(r'(?<![A-Za-z0-9_])(?:_|N_|C_|NC_|ngettext|g_dngettext)\s*\(\s*"')
 
 
 def main():
-    top = os.environ["STARLEDGER_SOURCE_DIR"]
+    top = tap_lib.required_env("STARLEDGER_SOURCE_DIR")
     with open(os.path.join(top, "po", "POTFILES"), encoding="utf-8") as f:
         listed = {line.strip() for line in f if line.strip() and not line.startswith("#")}
     marked = set()
@@ -24,18 +30,13 @@ def main():
                 with open(path, encoding="utf-8") as f:
                     if MARKED.search(f.read()):
                         marked.add(os.path.relpath(path, top))
-    checks = []
+    tap = tap_lib.Tap()
     for path in sorted(marked):
-        checks.append((path in listed, f"{path} has marked strings and is in po/POTFILES"))
+        tap.check(path in listed, f"{path} has marked strings and is in po/POTFILES")
     for path in sorted(listed):
-        checks.append((os.path.exists(os.path.join(top, path)), f"{path} in po/POTFILES exists"))
-    print(f"1..{len(checks)}")
-    failed = 0
-    for number, (ok, text) in enumerate(checks, 1):
-        print(f"{'ok' if ok else 'not ok'} {number} - {text}")
-        failed += not ok
-    return 1 if failed else 0
+        tap.check(os.path.exists(os.path.join(top, path)), f"{path} in po/POTFILES exists")
+    tap.finish()
 
 
 if __name__ == "__main__":
-    sys.exit(main())
+    main()

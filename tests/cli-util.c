@@ -67,3 +67,73 @@ assert_one_line (const char *text)
   if (newline == NULL || newline[1] != '\0')
     g_error ("want one line of message, got \"%s\"", text);
 }
+
+void
+cli_test_init (int *argc, char ***argv)
+{
+  g_test_init (argc, argv, NULL);
+
+  if (g_getenv ("STARLEDGER_CLI") == NULL)
+    g_error ("STARLEDGER_CLI must name the starledger-cli binary (meson test sets it)");
+}
+
+void
+assert_contains (const char *text, const char *needle)
+{
+  if (text == NULL || strstr (text, needle) == NULL)
+    g_error ("want \"%s\" in:\n%s", needle, text ? text : "(null)");
+}
+
+void
+assert_lacks (const char *text, const char *needle)
+{
+  if (text != NULL && strstr (text, needle) != NULL)
+    g_error ("want no \"%s\" in:\n%s", needle, text);
+}
+
+void
+assert_prefix (const char *text, const char *prefix)
+{
+  if (text == NULL || !g_str_has_prefix (text, prefix))
+    g_error ("want a text starting \"%s\", got:\n%s", prefix, text ? text : "(null)");
+}
+
+void
+assert_user_error (const CliResult *r, const char *needle)
+{
+  if (r->status != 1)
+    g_error ("want exit status 1 (a user error), got %d; stderr:\n%s", r->status, r->err);
+  assert_one_line (r->err);
+  if (needle != NULL)
+    assert_contains (r->err, needle);
+}
+
+static void
+assert_command_usage (const char *command)
+{
+  g_auto (CliResult) help = { 0 };
+  g_auto (CliResult) missing = { 0 };
+  g_auto (CliResult) bad_option = { 0 };
+
+  run_cli (&help, command, "--help", NULL);
+  g_assert_cmpint (help.status, ==, 0);
+  assert_contains (help.out, "Usage:");
+  run_cli (&missing, command, NULL);
+  g_assert_cmpint (missing.status, ==, 2);
+  run_cli (&bad_option, command, "x", "--no-such-option", NULL);
+  g_assert_cmpint (bad_option.status, ==, 2);
+}
+
+void
+assert_commands_usage (const char *const *commands)
+{
+  g_auto (CliResult) help = { 0 };
+
+  run_cli (&help, "--help", NULL);
+  g_assert_cmpint (help.status, ==, 0);
+  for (gsize i = 0; commands[i]; i++)
+    {
+      assert_contains (help.out, commands[i]);
+      assert_command_usage (commands[i]);
+    }
+}

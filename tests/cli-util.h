@@ -1,6 +1,6 @@
 /* cli-util.h: running starledger-cli from a test program: its exit status
  * and output, the demo project as README makes it, and message checks.
- * Shared by test-cli.c and test-cli-derive.c. */
+ * Shared by test-cli.c, test-cli-derive.c and test-cli-figure.c. */
 #pragma once
 
 #include <glib.h>
@@ -29,5 +29,25 @@ char *demo_file (const char *name);
  * PHOTOMETRY. */
 void import_demo (const char *project, const char *locale, CliResult *astrometry, CliResult *photometry);
 
+/* g_test_init, then a clear error if meson did not say which
+ * starledger-cli to run (run as a plain program, say). */
+void cli_test_init (int *argc, char ***argv);
+
 /* DESIGN.md: a user error is one line on stderr. */
 void assert_one_line (const char *text);
+
+/* Fail with the whole TEXT when it does not contain NEEDLE, contains it,
+ * or does not start with PREFIX; a NULL TEXT fails the first and last. */
+void assert_contains (const char *text, const char *needle);
+void assert_lacks    (const char *text, const char *needle);
+void assert_prefix   (const char *text, const char *prefix);
+
+/* A user error as DESIGN.md has it: exit status 1 and one line on stderr,
+ * which names NEEDLE (unless NEEDLE is NULL). */
+void assert_user_error (const CliResult *r, const char *needle);
+
+/* "starledger-cli --help" exits 0 and lists each of COMMANDS (NULL-
+ * terminated); "COMMAND --help" prints its usage and exits 0; COMMAND
+ * without its arguments, and with an option it does not know, exits 2
+ * (a usage error). */
+void assert_commands_usage (const char *const *commands);

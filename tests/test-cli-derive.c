@@ -18,27 +18,6 @@
 /* ------------------------------------------------------------------ */
 /* Helpers                                                            */
 
-static void
-assert_contains (const char *text, const char *needle)
-{
-  if (text == NULL || strstr (text, needle) == NULL)
-    g_error ("want \"%s\" in:\n%s", needle, text ? text : "(null)");
-}
-
-static void
-assert_lacks (const char *text, const char *needle)
-{
-  if (text != NULL && strstr (text, needle) != NULL)
-    g_error ("want no \"%s\" in:\n%s", needle, text);
-}
-
-static void
-assert_prefix (const char *text, const char *prefix)
-{
-  if (text == NULL || !g_str_has_prefix (text, prefix))
-    g_error ("want a text starting \"%s\", got:\n%s", prefix, text ? text : "(null)");
-}
-
 /* Runs SQL on the project file through a plain SQLite connection, as
  * another program (or someone with the sqlite3 shell) would. */
 static void
@@ -53,18 +32,23 @@ sql_exec (const char *path, const char *sql)
   sqlite3_close (db);
 }
 
+/* Opens the project file read-only, with a connection of the test's own
+ * as another program would. */
+static sqlite3 *
+open_read_only (const char *path)
+{
+  sqlite3 *db;
+
+  g_assert_cmpint (sqlite3_open_v2 (path, &db, SQLITE_OPEN_READONLY, NULL), ==, SQLITE_OK);
+  return db;
+}
+
 static gint64
 sql_int (const char *path, const char *sql)
 {
-  sqlite3 *db;
-  sqlite3_stmt *stmt;
-  gint64 value;
+  sqlite3 *db = open_read_only (path);
+  gint64 value = sl_test_query_int (db, sql);
 
-  g_assert_cmpint (sqlite3_open_v2 (path, &db, SQLITE_OPEN_READONLY, NULL), ==, SQLITE_OK);
-  g_assert_cmpint (sqlite3_prepare_v2 (db, sql, -1, &stmt, NULL), ==, SQLITE_OK);
-  g_assert_cmpint (sqlite3_step (stmt), ==, SQLITE_ROW);
-  value = sqlite3_column_int64 (stmt, 0);
-  sqlite3_finalize (stmt);
   sqlite3_close (db);
   return value;
 }
@@ -72,15 +56,9 @@ sql_int (const char *path, const char *sql)
 static char *
 sql_text (const char *path, const char *sql)
 {
-  sqlite3 *db;
-  sqlite3_stmt *stmt;
-  char *value;
+  sqlite3 *db = open_read_only (path);
+  char *value = sl_test_query_text (db, sql);
 
-  g_assert_cmpint (sqlite3_open_v2 (path, &db, SQLITE_OPEN_READONLY, NULL), ==, SQLITE_OK);
-  g_assert_cmpint (sqlite3_prepare_v2 (db, sql, -1, &stmt, NULL), ==, SQLITE_OK);
-  g_assert_cmpint (sqlite3_step (stmt), ==, SQLITE_ROW);
-  value = g_strdup ((const char *) sqlite3_column_text (stmt, 0));
-  sqlite3_finalize (stmt);
   sqlite3_close (db);
   return value;
 }
@@ -183,26 +161,9 @@ file_line (const char *path, gint64 number)
 static void
 test_usage (void)
 {
-  const char *commands[] = { "derive", "verify", "explain", "override" };
-  g_auto (CliResult) help = { 0 };
+  const char *const commands[] = { "derive", "verify", "explain", "override", NULL };
 
-  run_cli (&help, "--help", NULL);
-  g_assert_cmpint (help.status, ==, 0);
-  for (gsize i = 0; i < G_N_ELEMENTS (commands); i++)
-    {
-      g_auto (CliResult) command_help = { 0 };
-      g_auto (CliResult) missing = { 0 };
-      g_auto (CliResult) bad_option = { 0 };
-
-      assert_contains (help.out, commands[i]);
-      run_cli (&command_help, commands[i], "--help", NULL);
-      g_assert_cmpint (command_help.status, ==, 0);
-      assert_contains (command_help.out, "Usage:");
-      run_cli (&missing, commands[i], NULL);
-      g_assert_cmpint (missing.status, ==, 2);
-      run_cli (&bad_option, commands[i], "x", "--no-such-option", NULL);
-      g_assert_cmpint (bad_option.status, ==, 2);
-    }
+  assert_commands_usage (commands);
 }
 
 /* Only what needs it is derived: nothing the second time, everything with
@@ -282,8 +243,7 @@ test_derive_bad_options (void)
   g_assert_cmpint (sql_int (project, "SELECT count(*) FROM derived"), ==, 0);
 
   run_cli (&no_project, "derive", missing, NULL);
-  g_assert_cmpint (no_project.status, ==, 1);
-  assert_one_line (no_project.err);
+  assert_user_error (&no_project, NULL);
   sl_test_scratch_free (g_steal_pointer (&dir));
 }
 
@@ -609,23 +569,17 @@ test_override_refusals (void)
   g_assert_cmpint (comma.status, ==, 2);
 
   run_cli (&unknown_star, "override", project, "LHO 9999", "teff", "6530", "--reason", "x", NULL);
-  g_assert_cmpint (unknown_star.status, ==, 1);
-  assert_one_line (unknown_star.err);
-  assert_contains (unknown_star.err, "LHO 9999");
+  assert_user_error (&unknown_star, "LHO 9999");
 
   /* The interval must hold the value and come whole. */
   run_cli (&outside, "override", project, "LHO 0001", "teff", "6530", "--lo", "6600", "--hi", "6700",
            "--reason", "x", NULL);
-  g_assert_cmpint (outside.status, ==, 1);
-  assert_one_line (outside.err);
+  assert_user_error (&outside, NULL);
   run_cli (&one_bound, "override", project, "LHO 0001", "teff", "6530", "--lo", "6480", "--reason", "x", NULL);
-  g_assert_cmpint (one_bound.status, ==, 1);
-  assert_one_line (one_bound.err);
+  assert_user_error (&one_bound, NULL);
 
   run_cli (&nothing_to_clear, "override", project, "LHO 0001", "teff", "--clear", NULL);
-  g_assert_cmpint (nothing_to_clear.status, ==, 1);
-  assert_one_line (nothing_to_clear.err);
-  assert_contains (nothing_to_clear.err, "not set by hand");
+  assert_user_error (&nothing_to_clear, "not set by hand");
   run_cli (&clear_extra, "override", project, "LHO 0001", "teff", "6530", "--clear", NULL);
   g_assert_cmpint (clear_extra.status, ==, 2);
 
@@ -815,22 +769,16 @@ test_explain_inputs_and_errors (void)
   assert_contains (dec.out, " mas\n");
 
   run_cli (&unknown, "explain", project, "LHO 0001", "colour", NULL);
-  g_assert_cmpint (unknown.status, ==, 1);
-  assert_one_line (unknown.err);
-  assert_contains (unknown.err, "colour");
+  assert_user_error (&unknown, "colour");
 
   run_cli (&unknown_star, "explain", project, "LHO 9999", "radius", NULL);
-  g_assert_cmpint (unknown_star.status, ==, 1);
-  assert_one_line (unknown_star.err);
-  assert_contains (unknown_star.err, "LHO 9999");
+  assert_user_error (&unknown_star, "LHO 9999");
 
   /* A project imported but never derived. */
   g_assert_cmpint (g_mkdir (fresh_dir, 0700), ==, 0);
   fresh = demo_project (fresh_dir, NULL, FALSE);
   run_cli (&not_derived, "explain", fresh, "LHO 0001", "radius", NULL);
-  g_assert_cmpint (not_derived.status, ==, 1);
-  assert_one_line (not_derived.err);
-  assert_contains (not_derived.err, "run 'starledger-cli derive'");
+  assert_user_error (&not_derived, "run 'starledger-cli derive'");
   /* Its inputs can be explained all the same. */
   run_cli (&fresh_input, "explain", fresh, "LHO 0001", "vmag", NULL);
   g_assert_cmpint (fresh_input.status, ==, 0);
@@ -1107,10 +1055,7 @@ test_locale_independent (void)
 int
 main (int argc, char **argv)
 {
-  g_test_init (&argc, &argv, NULL);
-
-  if (g_getenv ("STARLEDGER_CLI") == NULL)
-    g_error ("STARLEDGER_CLI must name the starledger-cli binary (meson test sets it)");
+  cli_test_init (&argc, &argv);
 
   g_test_add_func ("/cli-derive/usage", test_usage);
   g_test_add_func ("/cli-derive/derive/what-is-derived", test_derive_counts);

@@ -9,25 +9,18 @@
 #include "sl-error.h"
 #include "test-util.h"
 
-typedef struct {
-  char      *dir;
-  SlProject *project;
-} Fixture;
-
+/* The scratch project with two stars imported: A with every value, B
+ * with a quoted name, no errors, parallax or V, and a spectral type
+ * padded with blanks. */
 static void
-fixture_set_up (Fixture *f, gconstpointer data)
+fixture_set_up (SlTestProject *f, gconstpointer data)
 {
   g_autoptr (GError) error = NULL;
-  g_autofree char *path = NULL;
   g_autofree char *input = NULL;
   g_autoptr (SlImportReport) report = NULL;
   SlImportOptions options;
 
-  f->dir = sl_test_scratch_new ();
-  path = g_build_filename (f->dir, "test.starledger", NULL);
-  f->project = sl_project_create (path, &error);
-  g_assert_no_error (error);
-
+  sl_test_project_set_up (f, data);
   input = sl_test_write_file (f->dir, "in.csv",
                               "id,ra,ra_err,dec,dec_err,parallax,parallax_err,vmag,sptype\n"
                               "A,10,1000,60,500,12.5,0.25,7.5,G2 V\n"
@@ -37,15 +30,8 @@ fixture_set_up (Fixture *f, gconstpointer data)
   g_assert_no_error (error);
 }
 
-static void
-fixture_tear_down (Fixture *f, gconstpointer data)
-{
-  sl_project_close (f->project);
-  sl_test_scratch_free (f->dir);
-}
-
 static char *
-export_to_string (Fixture *f, const char *const *columns)
+export_to_string (SlTestProject *f, const char *const *columns)
 {
   g_autofree char *path = g_build_filename (f->dir, "out.csv", NULL);
   g_autoptr (GError) error = NULL;
@@ -59,7 +45,7 @@ export_to_string (Fixture *f, const char *const *columns)
 }
 
 static void
-test_header (Fixture *f, gconstpointer data)
+test_header (SlTestProject *f, gconstpointer data)
 {
   g_autofree char *text = export_to_string (f, NULL);
   g_auto (GStrv) lines = g_strsplit (text, "\n", -1);
@@ -79,7 +65,7 @@ test_header (Fixture *f, gconstpointer data)
 /* The bounds are value -/+ 1 sigma; the RA error is on the sky, so at
  * Dec +60 an error of 1 arcsec (1000 mas) spans 2 arcsec of RA. */
 static void
-test_intervals (Fixture *f, gconstpointer data)
+test_intervals (SlTestProject *f, gconstpointer data)
 {
   const char *columns[] = { "ra", "dec", "parallax", "vmag", NULL };
   g_autofree char *text = export_to_string (f, columns);
@@ -103,7 +89,7 @@ test_intervals (Fixture *f, gconstpointer data)
 
 /* Text cells survive a round trip through an RFC 4180 reader. */
 static void
-test_quoting_round_trip (Fixture *f, gconstpointer data)
+test_quoting_round_trip (SlTestProject *f, gconstpointer data)
 {
   const char *columns[] = { "sptype", "dec", NULL };
   g_autofree char *text = export_to_string (f, columns);
@@ -124,7 +110,7 @@ test_quoting_round_trip (Fixture *f, gconstpointer data)
 }
 
 static void
-test_unknown_column (Fixture *f, gconstpointer data)
+test_unknown_column (SlTestProject *f, gconstpointer data)
 {
   const char *columns[] = { "parallax", "distance", NULL };
   g_autofree char *path = g_build_filename (f->dir, "out.csv", NULL);
@@ -141,7 +127,7 @@ test_unknown_column (Fixture *f, gconstpointer data)
 /* A failed export leaves no file and no temporary behind; a good one
  * replaces the old file whole. */
 static void
-test_atomic_write (Fixture *f, gconstpointer data)
+test_atomic_write (SlTestProject *f, gconstpointer data)
 {
   g_autofree char *bad = g_build_filename (f->dir, "no-such-dir", "out.csv", NULL);
   g_autofree char *good = sl_test_write_file (f->dir, "out.csv", "old contents\n", -1);
@@ -165,7 +151,7 @@ test_atomic_write (Fixture *f, gconstpointer data)
 }
 
 static void
-test_locale_independent (Fixture *f, gconstpointer data)
+test_locale_independent (SlTestProject *f, gconstpointer data)
 {
   g_autofree char *in_c = export_to_string (f, NULL);
   g_autofree char *in_german = NULL;
@@ -187,7 +173,8 @@ main (int argc, char **argv)
   setlocale (LC_ALL, "C.UTF-8");
   g_test_init (&argc, &argv, NULL);
 
-#define ADD(path, func) g_test_add (path, Fixture, NULL, fixture_set_up, func, fixture_tear_down)
+#define ADD(path, func) g_test_add (path, SlTestProject, NULL, fixture_set_up, func, \
+                                        sl_test_project_tear_down)
   ADD ("/export/csv/header", test_header);
   ADD ("/export/csv/intervals", test_intervals);
   ADD ("/export/csv/quoting-round-trip", test_quoting_round_trip);

@@ -9,53 +9,16 @@
 #include "sl-error.h"
 #include "test-util.h"
 
-typedef struct {
-  char      *dir;
-  SlProject *project;
-} Fixture;
-
-static void
-fixture_set_up (Fixture *f, gconstpointer data)
-{
-  g_autoptr (GError) error = NULL;
-  g_autofree char *path = NULL;
-
-  f->dir = sl_test_scratch_new ();
-  path = g_build_filename (f->dir, "test.starledger", NULL);
-  f->project = sl_project_create (path, &error);
-  g_assert_no_error (error);
-}
-
-static void
-fixture_tear_down (Fixture *f, gconstpointer data)
-{
-  sl_project_close (f->project);
-  sl_test_scratch_free (f->dir);
-}
-
-static gint64
-count (Fixture *f, const char *sql)
-{
-  sqlite3_stmt *stmt;
-  gint64 value;
-
-  g_assert_cmpint (sqlite3_prepare_v2 (sl_project_db (f->project), sql, -1, &stmt, NULL), ==, SQLITE_OK);
-  g_assert_cmpint (sqlite3_step (stmt), ==, SQLITE_ROW);
-  value = sqlite3_column_int64 (stmt, 0);
-  sqlite3_finalize (stmt);
-  return value;
-}
-
 /* The value of one measurement column of a star, or NAN for NULL. */
 static double
-stored (Fixture *f, const char *designation, const char *column)
+stored (SlTestProject *f, const char *designation, const char *column)
 {
   g_autofree char *sql = g_strdup_printf ("SELECT m.%s FROM measurements m JOIN stars s "
                                           "ON s.id = m.star_id WHERE s.designation = ?", column);
   sqlite3_stmt *stmt;
   double value = NAN;
 
-  g_assert_cmpint (sqlite3_prepare_v2 (sl_project_db (f->project), sql, -1, &stmt, NULL), ==, SQLITE_OK);
+  g_assert_cmpint (sqlite3_prepare_v2 (f->db, sql, -1, &stmt, NULL), ==, SQLITE_OK);
   sqlite3_bind_text (stmt, 1, designation, -1, SQLITE_STATIC);
   g_assert_cmpint (sqlite3_step (stmt), ==, SQLITE_ROW);
   if (sqlite3_column_type (stmt, 0) != SQLITE_NULL)
@@ -67,7 +30,7 @@ stored (Fixture *f, const char *designation, const char *column)
 /* Imports CONTENTS as NAME with MAPS ("field=column:unit" strings, NULL-
  * terminated, may be NULL) and default options otherwise. */
 static SlImportReport *
-import_with (Fixture *f, const char *name, const char *contents, gssize length,
+import_with (SlTestProject *f, const char *name, const char *contents, gssize length,
              const char *const *map_specs, const SlImportOptions *base, GError **error)
 {
   g_autofree char *path = sl_test_write_file (f->dir, name, contents, length);
@@ -96,7 +59,7 @@ import_with (Fixture *f, const char *name, const char *contents, gssize length,
 }
 
 static SlImportReport *
-import_ok (Fixture *f, const char *contents, const char *const *maps)
+import_ok (SlTestProject *f, const char *contents, const char *const *maps)
 {
   g_autoptr (GError) error = NULL;
   SlImportReport *report = import_with (f, "input.csv", contents, -1, maps, NULL, &error);
@@ -109,7 +72,7 @@ import_ok (Fixture *f, const char *contents, const char *const *maps)
 /* ---------------------------------------------------------------- units */
 
 static void
-test_units_converted (Fixture *f, gconstpointer data)
+test_units_converted (SlTestProject *f, gconstpointer data)
 {
   const char *maps[] = { "ra=RA:hms", "dec=DE:dms", "parallax=plx:arcsec", "parallax_err=e_plx:arcsec",
                          "pmra=pmx:arcsec/yr", "pmdec=pmy:arcsec/yr", NULL };
@@ -130,7 +93,7 @@ test_units_converted (Fixture *f, gconstpointer data)
 }
 
 static void
-test_units_radians (Fixture *f, gconstpointer data)
+test_units_radians (SlTestProject *f, gconstpointer data)
 {
   const char *maps[] = { "ra=a:rad", "dec=d:rad", NULL };
   g_autoptr (SlImportReport) report = import_ok (f, "id,a,d\nR,3.14159265358979,-0.5\n", maps);
@@ -142,7 +105,7 @@ test_units_radians (Fixture *f, gconstpointer data)
 /* -------------------------------------------------------------- dialects */
 
 static void
-test_dialect_semicolon_crlf_bom (Fixture *f, gconstpointer data)
+test_dialect_semicolon_crlf_bom (SlTestProject *f, gconstpointer data)
 {
   g_autoptr (SlImportReport) report =
     import_ok (f, "\xEF\xBB\xBFid;parallax;sptype\r\nA;10.5;\"G2 V; peculiar\"\r\nB;-0.3;K0\r\n", NULL);
@@ -150,12 +113,12 @@ test_dialect_semicolon_crlf_bom (Fixture *f, gconstpointer data)
   g_assert_cmpint (report->delimiter, ==, ';');
   g_assert_cmpuint (report->rows_accepted, ==, 2);
   sl_assert_close (stored (f, "A", "parallax"), 10.5, 0, "semicolon file");
-  g_assert_cmpint (count (f, "SELECT count(*) FROM measurements WHERE sptype = 'G2 V; peculiar'"), ==, 1);
-  g_assert_cmpint (count (f, "SELECT count(*) FROM stars WHERE designation = 'A'"), ==, 1);  /* BOM not in the id header */
+  g_assert_cmpint (sl_test_query_int (f->db, "SELECT count(*) FROM measurements WHERE sptype = 'G2 V; peculiar'"), ==, 1);
+  g_assert_cmpint (sl_test_query_int (f->db, "SELECT count(*) FROM stars WHERE designation = 'A'"), ==, 1);  /* BOM not in the id header */
 }
 
 static void
-test_dialect_tab_comments (Fixture *f, gconstpointer data)
+test_dialect_tab_comments (SlTestProject *f, gconstpointer data)
 {
   g_autoptr (SlImportReport) report =
     import_ok (f, "# our reduction\n# units: mas\n\nid\tparallax\tparallax_err\n"
@@ -163,25 +126,25 @@ test_dialect_tab_comments (Fixture *f, gconstpointer data)
 
   g_assert_cmpint (report->delimiter, ==, '\t');
   g_assert_cmpuint (report->rows_accepted, ==, 2);
-  g_assert_cmpint (count (f, "SELECT line FROM measurements WHERE parallax = 12.0"), ==, 6);
-  g_assert_cmpint (count (f, "SELECT line FROM measurements WHERE parallax = 3"), ==, 8);
+  g_assert_cmpint (sl_test_query_int (f->db, "SELECT line FROM measurements WHERE parallax = 12.0"), ==, 6);
+  g_assert_cmpint (sl_test_query_int (f->db, "SELECT line FROM measurements WHERE parallax = 3"), ==, 8);
 }
 
 static void
-test_dialect_quoted_multiline (Fixture *f, gconstpointer data)
+test_dialect_quoted_multiline (SlTestProject *f, gconstpointer data)
 {
   g_autoptr (SlImportReport) report =
     import_ok (f, "id,sptype,parallax\n\"A, the first\",\"K0 III\nwith \"\"notes\"\"\",1\nB,M2 V,2\n", NULL);
 
   g_assert_cmpuint (report->rows_accepted, ==, 2);
-  g_assert_cmpint (count (f, "SELECT count(*) FROM stars WHERE designation = 'A, the first'"), ==, 1);
-  g_assert_cmpint (count (f, "SELECT count(*) FROM measurements WHERE sptype = 'K0 III\nwith \"notes\"'"), ==, 1);
+  g_assert_cmpint (sl_test_query_int (f->db, "SELECT count(*) FROM stars WHERE designation = 'A, the first'"), ==, 1);
+  g_assert_cmpint (sl_test_query_int (f->db, "SELECT count(*) FROM measurements WHERE sptype = 'K0 III\nwith \"notes\"'"), ==, 1);
   /* B starts on line 4: the quoted field spans lines 2 and 3. */
-  g_assert_cmpint (count (f, "SELECT line FROM measurements WHERE parallax = 2"), ==, 4);
+  g_assert_cmpint (sl_test_query_int (f->db, "SELECT line FROM measurements WHERE parallax = 2"), ==, 4);
 }
 
 static void
-test_header_case_insensitive (Fixture *f, gconstpointer data)
+test_header_case_insensitive (SlTestProject *f, gconstpointer data)
 {
   g_autoptr (SlImportReport) report = import_ok (f, "ID,Parallax,VMAG,comment\nA,5,7.25,nice\n", NULL);
 
@@ -193,7 +156,7 @@ test_header_case_insensitive (Fixture *f, gconstpointer data)
 /* -------------------------------------------------------- missing values */
 
 static void
-test_missing_values (Fixture *f, gconstpointer data)
+test_missing_values (SlTestProject *f, gconstpointer data)
 {
   const char *tokens[] = { "--", "99.99", NULL };
   SlImportOptions options;
@@ -213,11 +176,11 @@ test_missing_values (Fixture *f, gconstpointer data)
   g_assert_true (isnan (stored (f, "C", "parallax")));
   sl_assert_close (stored (f, "C", "vmag"), 9.99, 0, "9.99 is not the token 99.99");
   /* Missing is NULL, never zero. */
-  g_assert_cmpint (count (f, "SELECT count(*) FROM measurements WHERE vmag = 0 OR parallax = 0"), ==, 0);
+  g_assert_cmpint (sl_test_query_int (f->db, "SELECT count(*) FROM measurements WHERE vmag = 0 OR parallax = 0"), ==, 0);
 }
 
 static void
-test_negative_parallax_kept (Fixture *f, gconstpointer data)
+test_negative_parallax_kept (SlTestProject *f, gconstpointer data)
 {
   g_autoptr (SlImportReport) report = import_ok (f, "id,parallax,parallax_err\nFar,-0.42,0.61\n", NULL);
 
@@ -254,7 +217,7 @@ static const RejectionCase rejection_cases[] = {
 };
 
 static void
-test_rejection (Fixture *f, gconstpointer data)
+test_rejection (SlTestProject *f, gconstpointer data)
 {
   const RejectionCase *c = data;
   g_autofree char *contents = g_strdup_printf ("id,ra,dec,parallax,parallax_err,vmag,sptype\n"
@@ -273,18 +236,18 @@ test_rejection (Fixture *f, gconstpointer data)
     g_error ("reason: want a message containing \"%s\", got \"%s\"", c->reason, r->reason);
 
   /* Kept in the project with its raw bytes, nothing silently dropped. */
-  g_assert_cmpint (sqlite3_prepare_v2 (sl_project_db (f->project),
+  g_assert_cmpint (sqlite3_prepare_v2 (f->db,
                                        "SELECT line, reason, raw FROM rejected_rows", -1, &stmt, NULL), ==, SQLITE_OK);
   g_assert_cmpint (sqlite3_step (stmt), ==, SQLITE_ROW);
   g_assert_cmpint (sqlite3_column_int (stmt, 0), ==, 3);
   g_assert_cmpstr ((const char *) sqlite3_column_text (stmt, 1), ==, r->reason);
   g_assert_cmpmem (sqlite3_column_blob (stmt, 2), sqlite3_column_bytes (stmt, 2), c->row, strlen (c->row));
   sqlite3_finalize (stmt);
-  g_assert_cmpint (count (f, "SELECT rows_rejected FROM sources"), ==, 1);
+  g_assert_cmpint (sl_test_query_int (f->db, "SELECT rows_rejected FROM sources"), ==, 1);
 }
 
 static void
-test_reject_duplicate_id (Fixture *f, gconstpointer data)
+test_reject_duplicate_id (SlTestProject *f, gconstpointer data)
 {
   g_autoptr (SlImportReport) report = import_ok (f, "id,parallax\nA,1\nB,2\nA,3\n", NULL);
   const SlRejection *r = &g_array_index (report->rejections, SlRejection, 0);
@@ -297,7 +260,7 @@ test_reject_duplicate_id (Fixture *f, gconstpointer data)
 }
 
 static void
-test_reject_sexagesimal_minutes (Fixture *f, gconstpointer data)
+test_reject_sexagesimal_minutes (SlTestProject *f, gconstpointer data)
 {
   const char *maps[] = { "dec=d:dms", NULL };
   g_autoptr (SlImportReport) report = import_ok (f, "id,d\nA,+12 59 10\nB,+12 61 10.0\n", maps);
@@ -333,7 +296,7 @@ static const FailureCase failure_cases[] = {
 };
 
 static void
-test_whole_file_failure (Fixture *f, gconstpointer data)
+test_whole_file_failure (SlTestProject *f, gconstpointer data)
 {
   const FailureCase *c = data;
   g_autoptr (GError) error = NULL;
@@ -345,14 +308,14 @@ test_whole_file_failure (Fixture *f, gconstpointer data)
     g_error ("message: want one containing \"%s\", got \"%s\"", c->message, error->message);
   g_assert_true (g_str_has_prefix (error->message, "bad.csv"));
   /* Nothing written: no source, no star, no ledger entry beyond creation. */
-  g_assert_cmpint (count (f, "SELECT count(*) FROM sources"), ==, 0);
-  g_assert_cmpint (count (f, "SELECT count(*) FROM stars"), ==, 0);
-  g_assert_cmpint (count (f, "SELECT count(*) FROM rejected_rows"), ==, 0);
-  g_assert_cmpint (count (f, "SELECT count(*) FROM ledger"), ==, 1);
+  g_assert_cmpint (sl_test_query_int (f->db, "SELECT count(*) FROM sources"), ==, 0);
+  g_assert_cmpint (sl_test_query_int (f->db, "SELECT count(*) FROM stars"), ==, 0);
+  g_assert_cmpint (sl_test_query_int (f->db, "SELECT count(*) FROM rejected_rows"), ==, 0);
+  g_assert_cmpint (sl_test_query_int (f->db, "SELECT count(*) FROM ledger"), ==, 1);
 }
 
 static void
-test_mapping_errors (Fixture *f, gconstpointer data)
+test_mapping_errors (SlTestProject *f, gconstpointer data)
 {
   const char *unknown_column[] = { "parallax=plx", NULL };
   const char *twice[] = { "parallax=a", "parallax=b", NULL };
@@ -394,7 +357,7 @@ test_mapping_errors (Fixture *f, gconstpointer data)
   g_assert_cmpint (map.unit, ==, SL_UNIT_HMS);
   sl_column_map_clear (&map);
 
-  g_assert_cmpint (count (f, "SELECT count(*) FROM sources"), ==, 0);
+  g_assert_cmpint (sl_test_query_int (f->db, "SELECT count(*) FROM sources"), ==, 0);
 }
 
 /* ------------------------------------------------------ the transaction */
@@ -407,7 +370,7 @@ cancel_on_progress (double fraction, gpointer user_data)
 
 /* A cancel after thousands of rows have been written leaves nothing. */
 static void
-test_cancel_midway (Fixture *f, gconstpointer data)
+test_cancel_midway (SlTestProject *f, gconstpointer data)
 {
   g_autoptr (GString) contents = g_string_new ("id,parallax,parallax_err\n");
   g_autoptr (GCancellable) cancellable = g_cancellable_new ();
@@ -425,14 +388,14 @@ test_cancel_midway (Fixture *f, gconstpointer data)
   report = import_with (f, "big.csv", contents->str, -1, NULL, &options, &error);
   g_assert_null (report);
   g_assert_error (error, G_IO_ERROR, G_IO_ERROR_CANCELLED);
-  g_assert_cmpint (count (f, "SELECT count(*) FROM sources"), ==, 0);
-  g_assert_cmpint (count (f, "SELECT count(*) FROM stars"), ==, 0);
-  g_assert_cmpint (count (f, "SELECT count(*) FROM measurements"), ==, 0);
-  g_assert_cmpint (count (f, "SELECT count(*) FROM ledger"), ==, 1);
+  g_assert_cmpint (sl_test_query_int (f->db, "SELECT count(*) FROM sources"), ==, 0);
+  g_assert_cmpint (sl_test_query_int (f->db, "SELECT count(*) FROM stars"), ==, 0);
+  g_assert_cmpint (sl_test_query_int (f->db, "SELECT count(*) FROM measurements"), ==, 0);
+  g_assert_cmpint (sl_test_query_int (f->db, "SELECT count(*) FROM ledger"), ==, 1);
 }
 
 static void
-test_reimport_guard (Fixture *f, gconstpointer data)
+test_reimport_guard (SlTestProject *f, gconstpointer data)
 {
   const char *contents = "id,parallax\nA,1\n";
   g_autoptr (GError) error = NULL;
@@ -445,22 +408,22 @@ test_reimport_guard (Fixture *f, gconstpointer data)
   g_assert_nonnull (strstr (error->message, "already imported as source 1 (input.csv"));
   g_assert_nonnull (strstr (error->message, "--again"));
   g_clear_error (&error);
-  g_assert_cmpint (count (f, "SELECT count(*) FROM sources"), ==, 1);
+  g_assert_cmpint (sl_test_query_int (f->db, "SELECT count(*) FROM sources"), ==, 1);
 
   sl_import_options_init (&options);
   options.again = TRUE;
   again = import_with (f, "renamed.csv", contents, -1, NULL, &options, &error);
   g_assert_no_error (error);
   g_assert_cmpuint (again->notes->len, ==, 1);
-  g_assert_cmpint (count (f, "SELECT count(*) FROM sources"), ==, 2);
-  g_assert_cmpint (count (f, "SELECT count(*) FROM stars"), ==, 1);
-  g_assert_cmpint (count (f, "SELECT count(*) FROM measurements"), ==, 2);
+  g_assert_cmpint (sl_test_query_int (f->db, "SELECT count(*) FROM sources"), ==, 2);
+  g_assert_cmpint (sl_test_query_int (f->db, "SELECT count(*) FROM stars"), ==, 1);
+  g_assert_cmpint (sl_test_query_int (f->db, "SELECT count(*) FROM measurements"), ==, 2);
 }
 
 /* ------------------------------------------------------------ provenance */
 
 static void
-test_provenance (Fixture *f, gconstpointer data)
+test_provenance (SlTestProject *f, gconstpointer data)
 {
   const char *contents = "id,ra,dec,parallax\nA,10,20,1\nB,11,21,x\n";
   g_autofree char *sha = g_compute_checksum_for_string (G_CHECKSUM_SHA256, contents, -1);
@@ -476,7 +439,7 @@ test_provenance (Fixture *f, gconstpointer data)
   g_assert_no_error (error);
   g_assert_cmpstr (report->sha256, ==, sha);
 
-  g_assert_cmpint (sqlite3_prepare_v2 (sl_project_db (f->project),
+  g_assert_cmpint (sqlite3_prepare_v2 (f->db,
                                        "SELECT name, file_name, sha256, size_bytes, imported_by, delimiter, "
                                        "json_array_length (mapping), epoch, rows_read, rows_accepted, rows_rejected "
                                        "FROM sources", -1, &stmt, NULL), ==, SQLITE_OK);
@@ -495,13 +458,13 @@ test_provenance (Fixture *f, gconstpointer data)
   sqlite3_finalize (stmt);
 
   sl_assert_close (stored (f, "A", "epoch"), 2016.0, 0, "--epoch fills rows without one");
-  g_assert_cmpint (count (f, "SELECT line FROM measurements"), ==, 2);
-  g_assert_cmpint (count (f, "SELECT count(*) FROM ledger WHERE action = 'import' "
+  g_assert_cmpint (sl_test_query_int (f->db, "SELECT line FROM measurements"), ==, 2);
+  g_assert_cmpint (sl_test_query_int (f->db, "SELECT count(*) FROM ledger WHERE action = 'import' "
                              "AND json_extract (details, '$.rejected') = 1 AND who = 'test-user'"), ==, 1);
 }
 
 static void
-test_note_missing_epoch (Fixture *f, gconstpointer data)
+test_note_missing_epoch (SlTestProject *f, gconstpointer data)
 {
   g_autoptr (SlImportReport) report = import_ok (f, "id,ra,dec\nA,10,20\n", NULL);
 
@@ -514,7 +477,7 @@ test_note_missing_epoch (Fixture *f, gconstpointer data)
 /* A German locale writes 12,5; the file says 12.5 and must still be read
  * as twelve and a half. */
 static void
-test_locale_independent (Fixture *f, gconstpointer data)
+test_locale_independent (SlTestProject *f, gconstpointer data)
 {
   g_autoptr (SlImportReport) report = NULL;
 
@@ -537,7 +500,8 @@ main (int argc, char **argv)
   setlocale (LC_ALL, "C.UTF-8");
   g_test_init (&argc, &argv, NULL);
 
-#define ADD(path, func) g_test_add (path, Fixture, NULL, fixture_set_up, func, fixture_tear_down)
+#define ADD(path, func) g_test_add (path, SlTestProject, NULL, sl_test_project_set_up, func, \
+                                        sl_test_project_tear_down)
   ADD ("/import/units/converted-to-canonical", test_units_converted);
   ADD ("/import/units/radians", test_units_radians);
   ADD ("/import/dialect/semicolon-crlf-bom", test_dialect_semicolon_crlf_bom);
@@ -553,14 +517,15 @@ main (int argc, char **argv)
     {
       g_autofree char *path = g_strdup_printf ("/import/reject/%s", rejection_cases[i].name);
 
-      g_test_add (path, Fixture, &rejection_cases[i], fixture_set_up, test_rejection, fixture_tear_down);
+      g_test_add (path, SlTestProject, &rejection_cases[i], sl_test_project_set_up, test_rejection,
+                  sl_test_project_tear_down);
     }
   for (gsize i = 0; i < G_N_ELEMENTS (failure_cases); i++)
     {
       g_autofree char *path = g_strdup_printf ("/import/refuse/%s", failure_cases[i].name);
 
-      g_test_add (path, Fixture, &failure_cases[i], fixture_set_up, test_whole_file_failure,
-                  fixture_tear_down);
+      g_test_add (path, SlTestProject, &failure_cases[i], sl_test_project_set_up,
+                  test_whole_file_failure, sl_test_project_tear_down);
     }
   ADD ("/import/transaction/cancel-midway-leaves-nothing", test_cancel_midway);
   ADD ("/import/reimport-guard", test_reimport_guard);

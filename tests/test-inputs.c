@@ -7,32 +7,8 @@
 #include "inputs.h"
 #include "test-util.h"
 
-typedef struct {
-  char      *dir;
-  SlProject *project;
-} Fixture;
-
 static void
-fixture_set_up (Fixture *f, gconstpointer data)
-{
-  g_autoptr (GError) error = NULL;
-  g_autofree char *path = NULL;
-
-  f->dir = sl_test_scratch_new ();
-  path = g_build_filename (f->dir, "test.starledger", NULL);
-  f->project = sl_project_create (path, &error);
-  g_assert_no_error (error);
-}
-
-static void
-fixture_tear_down (Fixture *f, gconstpointer data)
-{
-  sl_project_close (f->project);
-  sl_test_scratch_free (f->dir);
-}
-
-static void
-import_text (Fixture *f, const char *name, const char *contents)
+import_text (SlTestProject *f, const char *name, const char *contents)
 {
   g_autofree char *path = sl_test_write_file (f->dir, name, contents, -1);
   g_autoptr (GError) error = NULL;
@@ -48,7 +24,7 @@ import_text (Fixture *f, const char *name, const char *contents)
 /* Reads the one star of the project; its texts stay valid while the
  * returned cursor lives. */
 static SlInputCursor *
-read_only_star (Fixture *f, SlStarInputs *inputs)
+read_only_star (SlTestProject *f, SlStarInputs *inputs)
 {
   g_autoptr (GError) error = NULL;
   SlInputCursor *cursor = sl_input_cursor_new (f->project, 0, &error);
@@ -64,7 +40,7 @@ read_only_star (Fixture *f, SlStarInputs *inputs)
 }
 
 static void
-test_smallest_error_wins (Fixture *f, gconstpointer data)
+test_smallest_error_wins (SlTestProject *f, gconstpointer data)
 {
   g_autoptr (SlInputCursor) cursor = NULL;
   SlStarInputs in;
@@ -95,7 +71,7 @@ test_smallest_error_wins (Fixture *f, gconstpointer data)
 }
 
 static void
-test_tie_goes_to_later_source (Fixture *f, gconstpointer data)
+test_tie_goes_to_later_source (SlTestProject *f, gconstpointer data)
 {
   g_autoptr (SlInputCursor) cursor = NULL;
   SlStarInputs in;
@@ -108,7 +84,7 @@ test_tie_goes_to_later_source (Fixture *f, gconstpointer data)
 
 /* A randomised check against the rule written the obvious way. */
 static void
-test_random_against_reference (Fixture *f, gconstpointer data)
+test_random_against_reference (SlTestProject *f, gconstpointer data)
 {
   g_autoptr (GString) a = g_string_new ("id,parallax,parallax_err\n");
   g_autoptr (GString) b = g_string_new ("id,parallax,parallax_err\n");
@@ -147,7 +123,7 @@ test_random_against_reference (Fixture *f, gconstpointer data)
 }
 
 static void
-test_single_star_cursor (Fixture *f, gconstpointer data)
+test_single_star_cursor (SlTestProject *f, gconstpointer data)
 {
   g_autoptr (GError) error = NULL;
   g_autoptr (SlInputCursor) cursor = NULL;
@@ -169,7 +145,8 @@ main (int argc, char **argv)
   setlocale (LC_ALL, "C.UTF-8");
   g_test_init (&argc, &argv, NULL);
 
-#define ADD(path, func) g_test_add (path, Fixture, NULL, fixture_set_up, func, fixture_tear_down)
+#define ADD(path, func) g_test_add (path, SlTestProject, NULL, sl_test_project_set_up, func, \
+                                        sl_test_project_tear_down)
   ADD ("/inputs/smallest-error-wins", test_smallest_error_wins);
   ADD ("/inputs/tie-goes-to-later-source", test_tie_goes_to_later_source);
   ADD ("/inputs/random-against-reference", test_random_against_reference);

@@ -27,32 +27,6 @@ fixture_tear_down (Fixture *f, gconstpointer data)
   sl_test_scratch_free (f->dir);
 }
 
-static gint64
-query_int (sqlite3 *db, const char *sql)
-{
-  sqlite3_stmt *stmt;
-  gint64 value;
-
-  g_assert_cmpint (sqlite3_prepare_v2 (db, sql, -1, &stmt, NULL), ==, SQLITE_OK);
-  g_assert_cmpint (sqlite3_step (stmt), ==, SQLITE_ROW);
-  value = sqlite3_column_int64 (stmt, 0);
-  sqlite3_finalize (stmt);
-  return value;
-}
-
-static char *
-query_text (sqlite3 *db, const char *sql)
-{
-  sqlite3_stmt *stmt;
-  char *value;
-
-  g_assert_cmpint (sqlite3_prepare_v2 (db, sql, -1, &stmt, NULL), ==, SQLITE_OK);
-  g_assert_cmpint (sqlite3_step (stmt), ==, SQLITE_ROW);
-  value = g_strdup ((const char *) sqlite3_column_text (stmt, 0));
-  sqlite3_finalize (stmt);
-  return value;
-}
-
 /* Runs SQL in a plain SQLite connection, as another program would. */
 static void
 run_raw_sql (const char *path, const char *sql)
@@ -74,8 +48,8 @@ test_create (Fixture *f, gconstpointer data)
 
   g_assert_no_error (error);
   g_assert_cmpint (sl_project_schema_version (project), ==, sl_schema_current_version ());
-  g_assert_cmpint (query_int (sl_project_db (project), "PRAGMA application_id"), ==, SL_APPLICATION_ID);
-  g_assert_cmpint (query_int (sl_project_db (project), "PRAGMA user_version"), ==,
+  g_assert_cmpint (sl_test_query_int (sl_project_db (project), "PRAGMA application_id"), ==, SL_APPLICATION_ID);
+  g_assert_cmpint (sl_test_query_int (sl_project_db (project), "PRAGMA user_version"), ==,
                    sl_schema_current_version ());
 
   entries = sl_ledger_read (project, &error);
@@ -204,7 +178,7 @@ open_fixture (Fixture *f, const char *name)
   g_assert_no_error (error);
   g_assert_nonnull (project);
   g_assert_cmpint (sl_project_schema_version (project), ==, sl_schema_current_version ());
-  g_assert_cmpint (query_int (sl_project_db (project), "PRAGMA user_version"), ==, sl_schema_current_version ());
+  g_assert_cmpint (sl_test_query_int (sl_project_db (project), "PRAGMA user_version"), ==, sl_schema_current_version ());
   return project;
 }
 
@@ -269,18 +243,18 @@ assert_version_1_rows (sqlite3 *db)
   g_autofree char *raw = NULL;
   g_autofree char *mapping = NULL;
 
-  g_assert_cmpint (query_int (db, "SELECT count(*) FROM sources"), ==, 1);
-  g_assert_cmpint (query_int (db, "SELECT count(*) FROM stars"), ==, 2);
-  g_assert_cmpint (query_int (db, "SELECT count(*) FROM measurements"), ==, 2);
-  g_assert_cmpint (query_int (db, "SELECT count(*) FROM rejected_rows"), ==, 1);
-  sl_assert_close (query_int (db, "SELECT parallax * 1000 FROM measurements WHERE star_id = 2"),
+  g_assert_cmpint (sl_test_query_int (db, "SELECT count(*) FROM sources"), ==, 1);
+  g_assert_cmpint (sl_test_query_int (db, "SELECT count(*) FROM stars"), ==, 2);
+  g_assert_cmpint (sl_test_query_int (db, "SELECT count(*) FROM measurements"), ==, 2);
+  g_assert_cmpint (sl_test_query_int (db, "SELECT count(*) FROM rejected_rows"), ==, 1);
+  sl_assert_close (sl_test_query_int (db, "SELECT parallax * 1000 FROM measurements WHERE star_id = 2"),
                    -400, 0, "negative parallax kept through the upgrade");
-  g_assert_cmpint (query_int (db, "SELECT count(*) FROM measurements WHERE ra IS NULL AND vmag IS NULL"), ==, 2);
-  notes = query_text (db, "SELECT notes FROM stars WHERE designation = 'OLD 2'");
+  g_assert_cmpint (sl_test_query_int (db, "SELECT count(*) FROM measurements WHERE ra IS NULL AND vmag IS NULL"), ==, 2);
+  notes = sl_test_query_text (db, "SELECT notes FROM stars WHERE designation = 'OLD 2'");
   g_assert_cmpstr (notes, ==, "bright companion");
-  raw = query_text (db, "SELECT hex (raw) FROM rejected_rows WHERE line = 4");
+  raw = sl_test_query_text (db, "SELECT hex (raw) FROM rejected_rows WHERE line = 4");
   g_assert_cmpstr (raw, ==, "4F4C4420332C78");
-  mapping = query_text (db, "SELECT mapping ->> '$[1].unit' FROM sources WHERE id = 1");
+  mapping = sl_test_query_text (db, "SELECT mapping ->> '$[1].unit' FROM sources WHERE id = 1");
   g_assert_cmpstr (mapping, ==, "mas");
 }
 
@@ -302,9 +276,9 @@ assert_version_3_tables_work (SlProject *project)
                                   "VALUES (2, 'teff', 5800, 'from a spectrum', 'test', '2026-02-01T10:05:00Z');",
                                   &error));
   g_assert_no_error (error);
-  sl_assert_close (query_int (db, "SELECT dist * 10 FROM derived WHERE star_id = 1"), 800, 0, "a derived row");
-  g_assert_cmpint (query_int (db, "SELECT stale + flags + monte_carlo FROM derived WHERE star_id = 1"), ==, 0);
-  g_assert_cmpint (query_int (db, "SELECT count(*) FROM overrides WHERE cleared_at IS NULL"), ==, 1);
+  sl_assert_close (sl_test_query_int (db, "SELECT dist * 10 FROM derived WHERE star_id = 1"), 800, 0, "a derived row");
+  g_assert_cmpint (sl_test_query_int (db, "SELECT stale + flags + monte_carlo FROM derived WHERE star_id = 1"), ==, 0);
+  g_assert_cmpint (sl_test_query_int (db, "SELECT count(*) FROM overrides WHERE cleared_at IS NULL"), ==, 1);
 
   /* A derived row needs a recorded run and a star that exists. */
   g_assert_false (sl_project_exec (project, "INSERT INTO derived (star_id, run_id) VALUES (2, 99)", &error));
@@ -326,7 +300,7 @@ assert_version_3_tables_work (SlProject *project)
                                   "VALUES (2, 'teff', 5900, 'again', 'test', '2026-02-01T10:08:00Z');",
                                   &error));
   g_assert_no_error (error);
-  g_assert_cmpint (query_int (db, "SELECT count(*) FROM overrides WHERE star_id = 2"), ==, 2);
+  g_assert_cmpint (sl_test_query_int (db, "SELECT count(*) FROM overrides WHERE star_id = 2"), ==, 2);
 }
 
 /* The last ledger entry records the upgrade from version FROM; the file
@@ -334,13 +308,13 @@ assert_version_3_tables_work (SlProject *project)
 static void
 assert_upgrade_logged (sqlite3 *db, int from, gint64 entries)
 {
-  g_autofree char *action = query_text (db, "SELECT action FROM ledger ORDER BY id DESC LIMIT 1");
-  g_autofree char *details = query_text (db, "SELECT details FROM ledger ORDER BY id DESC LIMIT 1");
+  g_autofree char *action = sl_test_query_text (db, "SELECT action FROM ledger ORDER BY id DESC LIMIT 1");
+  g_autofree char *details = sl_test_query_text (db, "SELECT details FROM ledger ORDER BY id DESC LIMIT 1");
   g_autofree char *want_from = g_strdup_printf ("\"from\":%d,", from);
   g_autofree char *want_to = g_strdup_printf ("\"to\":%d}", sl_schema_current_version ());
 
-  g_assert_cmpint (query_int (db, "SELECT count(*) FROM ledger"), ==, entries + 1);
-  g_assert_cmpint (query_int (db, "SELECT count(*) FROM ledger WHERE action = 'upgrade'"), ==, 1);
+  g_assert_cmpint (sl_test_query_int (db, "SELECT count(*) FROM ledger"), ==, entries + 1);
+  g_assert_cmpint (sl_test_query_int (db, "SELECT count(*) FROM ledger WHERE action = 'upgrade'"), ==, 1);
   g_assert_cmpstr (action, ==, "upgrade");
   g_assert_nonnull (strstr (details, want_from));
   g_assert_nonnull (strstr (details, want_to));
@@ -387,16 +361,16 @@ test_migrate_from_v2 (Fixture *f, gconstpointer data)
   assert_version_1_rows (db);
 
   /* Version 2's rows are kept. */
-  g_assert_cmpint (query_int (db, "SELECT count(*) FROM settings"), ==, 1);
-  setting = query_text (db, "SELECT value FROM settings WHERE key = 'distance.length_scale_pc'");
+  g_assert_cmpint (sl_test_query_int (db, "SELECT count(*) FROM settings"), ==, 1);
+  setting = sl_test_query_text (db, "SELECT value FROM settings WHERE key = 'distance.length_scale_pc'");
   g_assert_cmpstr (setting, ==, "1350");
-  g_assert_cmpint (query_int (db, "SELECT count(*) FROM lists"), ==, 1);
-  condition = query_text (db, "SELECT condition FROM lists WHERE name = 'Run 2026A'");
+  g_assert_cmpint (sl_test_query_int (db, "SELECT count(*) FROM lists"), ==, 1);
+  condition = sl_test_query_text (db, "SELECT condition FROM lists WHERE name = 'Run 2026A'");
   g_assert_cmpstr (condition, ==, "parallax > 10");
-  g_assert_cmpint (query_int (db, "SELECT count(*) FROM list_members"), ==, 2);
-  g_assert_cmpint (query_int (db, "SELECT priority FROM list_members WHERE star_id = 1"), ==, 2);
-  tags = query_text (db, "SELECT tags FROM list_members WHERE star_id = 1");
-  notes = query_text (db, "SELECT notes FROM list_members WHERE star_id = 1");
+  g_assert_cmpint (sl_test_query_int (db, "SELECT count(*) FROM list_members"), ==, 2);
+  g_assert_cmpint (sl_test_query_int (db, "SELECT priority FROM list_members WHERE star_id = 1"), ==, 2);
+  tags = sl_test_query_text (db, "SELECT tags FROM list_members WHERE star_id = 1");
+  notes = sl_test_query_text (db, "SELECT notes FROM list_members WHERE star_id = 1");
   g_assert_cmpstr (tags, ==, "bright;priority");
   g_assert_cmpstr (notes, ==, "observe twice");
 
@@ -410,7 +384,7 @@ test_migrate_from_v2 (Fixture *f, gconstpointer data)
   g_clear_error (&error);
   g_assert_true (sl_project_exec (project, "DELETE FROM lists WHERE id = 1", &error));
   g_assert_no_error (error);
-  g_assert_cmpint (query_int (db, "SELECT count(*) FROM list_members"), ==, 0);
+  g_assert_cmpint (sl_test_query_int (db, "SELECT count(*) FROM list_members"), ==, 0);
 }
 
 static void
@@ -427,9 +401,9 @@ test_hardening (Fixture *f, gconstpointer data)
   g_assert_no_error (error);
   db = sl_project_db (project);
 
-  g_assert_cmpint (query_int (db, "PRAGMA foreign_keys"), ==, 1);
-  g_assert_cmpint (query_int (db, "PRAGMA trusted_schema"), ==, 0);
-  journal = query_text (db, "PRAGMA journal_mode");
+  g_assert_cmpint (sl_test_query_int (db, "PRAGMA foreign_keys"), ==, 1);
+  g_assert_cmpint (sl_test_query_int (db, "PRAGMA trusted_schema"), ==, 0);
+  journal = sl_test_query_text (db, "PRAGMA journal_mode");
   g_assert_cmpstr (journal, ==, "wal");
   sqlite3_db_config (db, SQLITE_DBCONFIG_DEFENSIVE, -1, &defensive);
   g_assert_cmpint (defensive, ==, 1);

@@ -1,4 +1,4 @@
-/* test-util.c: scratch directories and files for the tests. */
+/* test-util.c: scratch directories, files and projects for the tests. */
 #include "test-util.h"
 
 #include <gio/gio.h>
@@ -56,4 +56,56 @@ sl_test_write_file (const char *dir, const char *name, const char *contents, gss
   g_file_set_contents (path, contents, length, &error);
   g_assert_no_error (error);
   return path;
+}
+
+void
+sl_test_project_set_up (SlTestProject *f, gconstpointer data)
+{
+  g_autoptr (GError) error = NULL;
+  g_autofree char *path = NULL;
+
+  f->dir = sl_test_scratch_new ();
+  path = g_build_filename (f->dir, "test.starledger", NULL);
+  f->project = sl_project_create (path, &error);
+  g_assert_no_error (error);
+  f->db = sl_project_db (f->project);
+}
+
+void
+sl_test_project_tear_down (SlTestProject *f, gconstpointer data)
+{
+  sl_project_close (f->project);
+  sl_test_scratch_free (f->dir);
+}
+
+/* Prepares SQL and steps to its first row; the caller finalizes. */
+static sqlite3_stmt *
+query_first_row (sqlite3 *db, const char *sql)
+{
+  sqlite3_stmt *stmt;
+
+  if (sqlite3_prepare_v2 (db, sql, -1, &stmt, NULL) != SQLITE_OK)
+    g_error ("%s: %s", sql, sqlite3_errmsg (db));
+  g_assert_cmpint (sqlite3_step (stmt), ==, SQLITE_ROW);
+  return stmt;
+}
+
+gint64
+sl_test_query_int (sqlite3 *db, const char *sql)
+{
+  sqlite3_stmt *stmt = query_first_row (db, sql);
+  gint64 value = sqlite3_column_int64 (stmt, 0);
+
+  sqlite3_finalize (stmt);
+  return value;
+}
+
+char *
+sl_test_query_text (sqlite3 *db, const char *sql)
+{
+  sqlite3_stmt *stmt = query_first_row (db, sql);
+  char *value = g_strdup ((const char *) sqlite3_column_text (stmt, 0));
+
+  sqlite3_finalize (stmt);
+  return value;
 }

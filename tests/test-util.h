@@ -1,11 +1,15 @@
 /* test-util.h: helpers the test programs share: scratch directories,
- * files from strings, and floating-point checks that print what was wanted
- * and what came out. */
+ * files from strings, a scratch project as a g_test_add fixture, one-value
+ * SQL queries, and floating-point checks that print what was wanted and
+ * what came out. */
 #pragma once
 
 #include <glib.h>
 #include <glib/gstdio.h>
 #include <math.h>
+#include <sqlite3.h>
+
+#include "project.h"
 
 /* A fresh directory under the system's temporary directory; removed with
  * its files by sl_test_scratch_free. */
@@ -16,6 +20,27 @@ void  sl_test_scratch_free (char *dir);
  * the path. */
 char *sl_test_write_file (const char *dir, const char *name, const char *contents,
                           gssize length);
+
+/* A new, empty project in a scratch directory: the fixture of the tests
+ * that work on one project.  Use as
+ *   g_test_add (path, SlTestProject, data, sl_test_project_set_up, func,
+ *               sl_test_project_tear_down);
+ * DB is the project's own connection (sl_project_db), for the queries
+ * below: they see what the code under test wrote through it. */
+typedef struct {
+  char      *dir;
+  SlProject *project;
+  sqlite3   *db;
+} SlTestProject;
+
+void sl_test_project_set_up    (SlTestProject *f, gconstpointer data);
+void sl_test_project_tear_down (SlTestProject *f, gconstpointer data);
+
+/* The first column of the one row SQL returns, as an integer or as a new
+ * string (NULL for SQL NULL); fails if SQL does not prepare or returns no
+ * row. */
+gint64 sl_test_query_int  (sqlite3 *db, const char *sql);
+char  *sl_test_query_text (sqlite3 *db, const char *sql);
 
 /* Fails with what was wanted and what came out when |GOT - WANT| exceeds
  * TOLERANCE. */

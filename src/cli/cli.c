@@ -4,6 +4,8 @@
 #include <glib/gi18n.h>
 #include <stdio.h>
 
+#include "units.h"
+
 GOptionContext *
 sl_cli_context_new (const char *command, const char *parameters, const char *summary,
                     const char *description, const GOptionEntry *entries)
@@ -17,6 +19,20 @@ sl_cli_context_new (const char *command, const char *parameters, const char *sum
     g_option_context_add_main_entries (context, entries, GETTEXT_PACKAGE);
   g_option_context_set_translation_domain (context, GETTEXT_PACKAGE);
   return context;
+}
+
+gboolean
+sl_cli_parse_number_option (const char *text, double *value, double min, double max)
+{
+  const char *problem;
+  double parsed;
+
+  if (text == NULL)
+    return TRUE;
+  if (!sl_parse_number (text, &parsed, &problem))
+    return FALSE;
+  *value = parsed;
+  return parsed >= min && parsed <= max;
 }
 
 int

@@ -36,6 +36,13 @@ GOptionContext *sl_cli_context_new (const char *command, const char *parameters,
 gboolean sl_cli_parse (GOptionContext *context, const char *command,
                        int *argc, char ***argv, int n_args);
 
+/* Reads TEXT, an option's number, into *VALUE (as sl_parse_number does:
+ * never by the locale) and checks MIN <= *VALUE <= MAX.  A NULL TEXT (the
+ * option not given) passes and leaves *VALUE as it was, so a default set
+ * beforehand stands.  FALSE: the caller reports a usage error.  MIN
+ * DBL_TRUE_MIN asks for a number above 0. */
+gboolean sl_cli_parse_number_option (const char *text, double *value, double min, double max);
+
 /* Prints a usage error for COMMAND and returns SL_EXIT_USAGE. */
 int sl_cli_usage_error (const char *command, const char *format, ...) G_GNUC_PRINTF (2, 3);
 

@@ -1,4 +1,5 @@
 /* cmd-derive.c: starledger-cli derive PROJECT [options] */
+#include <float.h>
 #include <glib/gi18n.h>
 #include <math.h>
 #include <stdio.h>
@@ -6,14 +7,11 @@
 
 #include "cli.h"
 #include "derivation.h"
-#include "units.h"
 
 /* --distance inverse | edsd[:L=PC] */
 static gboolean
 parse_distance (const char *text, SlDeriveParams *params)
 {
-  const char *problem;
-
   if (strcmp (text, "inverse") == 0)
     {
       params->distance = SL_DISTANCE_INVERSE;
@@ -27,8 +25,8 @@ parse_distance (const char *text, SlDeriveParams *params)
   if (g_str_has_prefix (text, "edsd:L="))
     {
       params->distance = SL_DISTANCE_EDSD;
-      return sl_parse_number (text + strlen ("edsd:L="), &params->length_scale_pc, &problem)
-             && params->length_scale_pc > 0.0;
+      return sl_cli_parse_number_option (text + strlen ("edsd:L="), &params->length_scale_pc, DBL_TRUE_MIN,
+                                         DBL_MAX);
     }
   return FALSE;
 }
@@ -58,14 +56,6 @@ parse_errors (const char *text, SlDeriveParams *params)
       return TRUE;
     }
   return FALSE;
-}
-
-static gboolean
-parse_positive_number (const char *text, double *value, gboolean allow_zero_or_negative)
-{
-  const char *problem;
-
-  return sl_parse_number (text, value, &problem) && (allow_zero_or_negative || *value > 0.0);
 }
 
 int
@@ -120,11 +110,11 @@ sl_cli_derive (int argc, char **argv)
     return sl_cli_usage_error ("derive", _("--errors %s: expected linear, mc or mc:N"), errors);
   if (seed && !g_ascii_string_to_unsigned (seed, 10, 0, G_MAXUINT64, &params.seed, NULL))
     return sl_cli_usage_error ("derive", _("--seed %s: expected a whole number"), seed);
-  if (rv && !parse_positive_number (rv, &params.rv, FALSE))
+  if (!sl_cli_parse_number_option (rv, &params.rv, DBL_TRUE_MIN, DBL_MAX))
     return sl_cli_usage_error ("derive", _("--extinction-ratio %s: expected a positive number"), rv);
-  if (rv_err && (!parse_positive_number (rv_err, &params.rv_err, TRUE) || params.rv_err < 0))
+  if (!sl_cli_parse_number_option (rv_err, &params.rv_err, 0.0, DBL_MAX))
     return sl_cli_usage_error ("derive", _("--extinction-ratio-error %s: expected a number >= 0"), rv_err);
-  if (zero_point && !parse_positive_number (zero_point, &params.parallax_zero_point, TRUE))
+  if (!sl_cli_parse_number_option (zero_point, &params.parallax_zero_point, -DBL_MAX, DBL_MAX))
     return sl_cli_usage_error ("derive", _("--parallax-zero-point %s: expected a number"), zero_point);
   if (teff && strcmp (teff, "flower") != 0 && strcmp (teff, "ballesteros") != 0)
     return sl_cli_usage_error ("derive", _("--teff %s: expected flower or ballesteros"), teff);

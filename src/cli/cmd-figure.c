@@ -43,14 +43,6 @@ draw_figure (SlFigure *fig, gpointer data, GError **error)
     }
 }
 
-static gboolean
-parse_number_option (const char *text, double *value, double min, double max)
-{
-  const char *problem;
-
-  return text == NULL || (sl_parse_number (text, value, &problem) && *value >= min && *value <= max);
-}
-
 /* --field RA,DEC,WIDTH with RA and DEC in degrees or sexagesimal. */
 static gboolean
 parse_field (const char *text, SlSkyOptions *sky)
@@ -168,10 +160,10 @@ sl_cli_figure (int argc, char **argv)
   sl_figure_style_init (&style);
   if (size && !sl_figure_style_preset (&style, size))
     return sl_cli_usage_error ("figure", _("--size %s: expected single or double"), size);
-  if (!parse_number_option (width, &style.width_mm, 10, 1000)
-      || !parse_number_option (height, &style.height_mm, 10, 1000)
-      || !parse_number_option (dpi, &style.dpi, 10, 2400)
-      || !parse_number_option (font, &style.font_pt, 3, 30))
+  if (!sl_cli_parse_number_option (width, &style.width_mm, 10, 1000)
+      || !sl_cli_parse_number_option (height, &style.height_mm, 10, 1000)
+      || !sl_cli_parse_number_option (dpi, &style.dpi, 10, 2400)
+      || !sl_cli_parse_number_option (font, &style.font_pt, 3, 30))
     return sl_cli_usage_error ("figure", _("sizes: width and height 10-1000 mm, dpi 10-2400, font 3-30 pt"));
   style.grayscale = grayscale;
 
@@ -189,10 +181,10 @@ sl_cli_figure (int argc, char **argv)
     job.sky.coordinates = SL_SKY_GALACTIC;
   if (field && !parse_field (field, &job.sky))
     return sl_cli_usage_error ("figure", _("--field %s: expected RA,DEC,WIDTH (degrees or sexagesimal)"), field);
-  if (!parse_number_option (pm_years, &job.sky.pm_years, 0, 100000)
-      || !parse_number_option (ellipses, &job.sky.ellipse_scale, 0, 1e12)
-      || !parse_number_option (start, &job.parallax.start_jyear, 1000, 3000)
-      || !parse_number_option (years, &job.parallax.years, 0.01, 1000))
+  if (!sl_cli_parse_number_option (pm_years, &job.sky.pm_years, 0, 100000)
+      || !sl_cli_parse_number_option (ellipses, &job.sky.ellipse_scale, 0, 1e12)
+      || !sl_cli_parse_number_option (start, &job.parallax.start_jyear, 1000, 3000)
+      || !sl_cli_parse_number_option (years, &job.parallax.years, 0.01, 1000))
     return sl_cli_usage_error ("figure", _("a number option is out of range"));
   job.parallax.proper_motion = proper_motion;
   job.parallax.common_scale = common_scale;

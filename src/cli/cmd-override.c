@@ -1,5 +1,6 @@
 /* cmd-override.c: starledger-cli override PROJECT ID QUANTITY VALUE [--lo X --hi Y] --reason TEXT
  *                 starledger-cli override PROJECT ID QUANTITY --clear [--reason TEXT] */
+#include <float.h>
 #include <glib/gi18n.h>
 #include <math.h>
 #include <stdio.h>
@@ -7,15 +8,6 @@
 #include "cli.h"
 #include "derivation.h"
 #include "units.h"
-
-static gboolean
-parse_optional_number (const char *text, double *value)
-{
-  const char *problem;
-
-  *value = NAN;
-  return text == NULL || sl_parse_number (text, value, &problem);
-}
 
 int
 sl_cli_override (int argc, char **argv)
@@ -55,7 +47,9 @@ sl_cli_override (int argc, char **argv)
     {
       if (!sl_parse_number (argv[4], &value, &problem))
         return sl_cli_usage_error ("override", "%s: %s", argv[4], _(problem));
-      if (!parse_optional_number (lo_text, &lo) || !parse_optional_number (hi_text, &hi))
+      lo = hi = NAN;   /* not given */
+      if (!sl_cli_parse_number_option (lo_text, &lo, -DBL_MAX, DBL_MAX)
+          || !sl_cli_parse_number_option (hi_text, &hi, -DBL_MAX, DBL_MAX))
         return sl_cli_usage_error ("override", _("--lo and --hi take numbers"));
       if (reason == NULL || *reason == '\0')
         return sl_cli_usage_error ("override", _("--reason is required: say why the value is set by hand"));

@@ -127,12 +127,6 @@ sl_derived_select_sql (const char *where_and_order)
                           where_and_order ? where_and_order : "");
 }
 
-static double
-column_double_or_nan (sqlite3_stmt *stmt, int column)
-{
-  return sqlite3_column_type (stmt, column) == SQLITE_NULL ? NAN : sqlite3_column_double (stmt, column);
-}
-
 void
 sl_derived_row_read (sqlite3_stmt *stmt, SlDerivedRow *row)
 {
@@ -158,13 +152,13 @@ sl_derived_row_read (sqlite3_stmt *stmt, SlDerivedRow *row)
           continue;
         }
       v->has[q] = sqlite3_column_type (stmt, c) != SQLITE_NULL;
-      v->value[q] = column_double_or_nan (stmt, c++);
-      v->lo[q] = column_double_or_nan (stmt, c++);
-      v->hi[q] = column_double_or_nan (stmt, c++);
+      v->value[q] = sl_column_double_or_nan (stmt, c++);
+      v->lo[q] = sl_column_double_or_nan (stmt, c++);
+      v->hi[q] = sl_column_double_or_nan (stmt, c++);
     }
-  v->logt_sigma = column_double_or_nan (stmt, c++);
-  v->logl_sigma = column_double_or_nan (stmt, c++);
-  v->logt_logl_corr = column_double_or_nan (stmt, c++);
+  v->logt_sigma = sl_column_double_or_nan (stmt, c++);
+  v->logl_sigma = sl_column_double_or_nan (stmt, c++);
+  v->logt_logl_corr = sl_column_double_or_nan (stmt, c++);
 }
 
 gboolean
@@ -210,8 +204,8 @@ read_overrides (sqlite3_stmt *stmt, GHashTable *by_star, GError **error)
       if (!sl_quantity_from_name ((const char *) sqlite3_column_text (stmt, 1), &o.quantity))
         continue;   /* written by a newer Starledger: ignored, not guessed */
       o.value = sqlite3_column_double (stmt, 2);
-      o.lo = sqlite3_column_type (stmt, 3) == SQLITE_NULL ? NAN : sqlite3_column_double (stmt, 3);
-      o.hi = sqlite3_column_type (stmt, 4) == SQLITE_NULL ? NAN : sqlite3_column_double (stmt, 4);
+      o.lo = sl_column_double_or_nan (stmt, 3);
+      o.hi = sl_column_double_or_nan (stmt, 4);
       if (by_star)
         {
           list = g_hash_table_lookup (by_star, &star_id);

@@ -40,12 +40,6 @@ raw_input_clear (RawInput *r)
   g_free (r->unit_declared);
 }
 
-static char *
-dup_column (sqlite3_stmt *stmt, int column)
-{
-  return g_strdup ((const char *) sqlite3_column_text (stmt, column));
-}
-
 /* Loads FIELD (and its error) from measurement MEASUREMENT_ID with the
  * source's provenance and the column the field was mapped from. */
 static gboolean
@@ -71,17 +65,12 @@ load_raw_input (SlProject *project, gint64 measurement_id, SlField field, RawInp
     {
       r->present = sqlite3_column_type (stmt, 0) != SQLITE_NULL;
       if (info->kind == SL_FIELD_KIND_TEXT)
-        r->text = dup_column (stmt, 0);
+        r->text = sl_column_text_dup (stmt, 0);
       r->value = sqlite3_column_double (stmt, 0);
-      r->error = sqlite3_column_type (stmt, 1) == SQLITE_NULL ? NAN : sqlite3_column_double (stmt, 1);
+      r->error = sl_column_double_or_nan (stmt, 1);
       r->line = sqlite3_column_int64 (stmt, 2);
-      r->source_name = dup_column (stmt, 3);
-      r->file_name = dup_column (stmt, 4);
-      r->sha256 = dup_column (stmt, 5);
-      r->imported_by = dup_column (stmt, 6);
-      r->imported_at = dup_column (stmt, 7);
-      r->column = dup_column (stmt, 8);
-      r->unit_declared = dup_column (stmt, 9);
+      sl_column_texts_dup (stmt, 3, &r->source_name, &r->file_name, &r->sha256, &r->imported_by,
+                           &r->imported_at, &r->column, &r->unit_declared, NULL);
     }
   sqlite3_finalize (stmt);
   return TRUE;
@@ -117,11 +106,8 @@ load_run (SlProject *project, gint64 run_id, RunInfo *run, GError **error)
   sqlite3_bind_int64 (stmt, 1, run_id);
   if (sqlite3_step (stmt) == SQLITE_ROW)
     {
-      run->started_at = dup_column (stmt, 0);
-      run->who = dup_column (stmt, 1);
-      run->software_version = dup_column (stmt, 2);
-      run->parameters = dup_column (stmt, 3);
-      run->methods = dup_column (stmt, 4);
+      sl_column_texts_dup (stmt, 0, &run->started_at, &run->who, &run->software_version,
+                           &run->parameters, &run->methods, NULL);
       ok = sl_derive_params_from_keyfile (&run->params, run->parameters, error);
     }
   else
@@ -162,10 +148,9 @@ load_override_infos (SlProject *project, gint64 star_id, GError **error)
   while (sqlite3_step (stmt) == SQLITE_ROW)
     {
       OverrideInfo o = {
-        dup_column (stmt, 0), sqlite3_column_double (stmt, 1),
-        sqlite3_column_type (stmt, 2) == SQLITE_NULL ? NAN : sqlite3_column_double (stmt, 2),
-        sqlite3_column_type (stmt, 3) == SQLITE_NULL ? NAN : sqlite3_column_double (stmt, 3),
-        dup_column (stmt, 4), dup_column (stmt, 5), dup_column (stmt, 6),
+        sl_column_text_dup (stmt, 0), sqlite3_column_double (stmt, 1),
+        sl_column_double_or_nan (stmt, 2), sl_column_double_or_nan (stmt, 3),
+        sl_column_text_dup (stmt, 4), sl_column_text_dup (stmt, 5), sl_column_text_dup (stmt, 6),
       };
 
       g_array_append_val (list, o);

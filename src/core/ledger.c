@@ -28,12 +28,6 @@ sl_ledger_append (SlProject *project, const char *action, const char *summary,
   return ok;
 }
 
-static char *
-column_text (sqlite3_stmt *stmt, int column)
-{
-  return g_strdup ((const char *) sqlite3_column_text (stmt, column));
-}
-
 GPtrArray *
 sl_ledger_read (SlProject *project, GError **error)
 {
@@ -51,11 +45,8 @@ sl_ledger_read (SlProject *project, GError **error)
       SlLedgerEntry *entry = g_new0 (SlLedgerEntry, 1);
 
       entry->id = sqlite3_column_int64 (stmt, 0);
-      entry->at = column_text (stmt, 1);
-      entry->who = column_text (stmt, 2);
-      entry->action = column_text (stmt, 3);
-      entry->summary = column_text (stmt, 4);
-      entry->details = column_text (stmt, 5);
+      sl_column_texts_dup (stmt, 1, &entry->at, &entry->who, &entry->action, &entry->summary,
+                           &entry->details, NULL);
       g_ptr_array_add (entries, entry);
     }
   sqlite3_finalize (stmt);

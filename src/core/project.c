@@ -1,8 +1,11 @@
-/* project.c: opening, creating and hardening project files. */
+/* project.c: opening, creating and hardening project files; reading the
+ * columns of a query's row. */
 #include "project.h"
 
 #include <glib/gi18n.h>
 #include <glib/gstdio.h>
+#include <math.h>
+#include <stdarg.h>
 
 #include "ledger.h"
 #include "schema.h"
@@ -77,6 +80,30 @@ sl_project_prepare (SlProject *project, const char *sql, GError **error)
       return NULL;
     }
   return stmt;
+}
+
+char *
+sl_column_text_dup (sqlite3_stmt *stmt, int column)
+{
+  return g_strdup ((const char *) sqlite3_column_text (stmt, column));
+}
+
+double
+sl_column_double_or_nan (sqlite3_stmt *stmt, int column)
+{
+  return sqlite3_column_type (stmt, column) == SQLITE_NULL ? NAN : sqlite3_column_double (stmt, column);
+}
+
+void
+sl_column_texts_dup (sqlite3_stmt *stmt, int first, ...)
+{
+  va_list args;
+  char **out;
+
+  va_start (args, first);
+  for (int column = first; (out = va_arg (args, char **)) != NULL; column++)
+    *out = sl_column_text_dup (stmt, column);
+  va_end (args);
 }
 
 gboolean

@@ -42,6 +42,17 @@ sqlite3_stmt *sl_project_prepare (SlProject *project, const char *sql, GError **
 /* Sets ERROR from the connection's last SQLite error, prefixed by WHAT. */
 void        sl_project_set_db_error (SlProject *project, GError **error, const char *what);
 
+/* Column COLUMN of STMT's current row as a new string (NULL for SQL NULL)
+ * or as a double (NAN for SQL NULL, so that a missing value is never
+ * read as 0). */
+char       *sl_column_text_dup      (sqlite3_stmt *stmt, int column);
+double      sl_column_double_or_nan (sqlite3_stmt *stmt, int column);
+
+/* Columns FIRST, FIRST + 1, ... of STMT's current row as new strings,
+ * into the char ** that follow, up to a NULL: one call that keeps a
+ * struct's fields in the order of the SELECT. */
+void        sl_column_texts_dup     (sqlite3_stmt *stmt, int first, ...) G_GNUC_NULL_TERMINATED;
+
 G_DEFINE_AUTOPTR_CLEANUP_FUNC (SlProject, sl_project_close)
 
 G_END_DECLS

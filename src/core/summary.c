@@ -47,13 +47,8 @@ read_sources (SlProject *project, GPtrArray *sources, GError **error)
       SlSourceInfo *info = g_new0 (SlSourceInfo, 1);
 
       info->id = sqlite3_column_int64 (stmt, 0);
-      info->name = g_strdup ((const char *) sqlite3_column_text (stmt, 1));
-      info->file_name = g_strdup ((const char *) sqlite3_column_text (stmt, 2));
-      info->sha256 = g_strdup ((const char *) sqlite3_column_text (stmt, 3));
-      info->imported_by = g_strdup ((const char *) sqlite3_column_text (stmt, 4));
-      info->imported_at = g_strdup ((const char *) sqlite3_column_text (stmt, 5));
-      info->delimiter = g_strdup ((const char *) sqlite3_column_text (stmt, 6));
-      info->mapping = g_strdup ((const char *) sqlite3_column_text (stmt, 7));
+      sl_column_texts_dup (stmt, 1, &info->name, &info->file_name, &info->sha256, &info->imported_by,
+                           &info->imported_at, &info->delimiter, &info->mapping, NULL);
       info->rows_accepted = sqlite3_column_int64 (stmt, 8);
       info->rows_rejected = sqlite3_column_int64 (stmt, 9);
       g_ptr_array_add (sources, info);

@@ -3,8 +3,10 @@
  * Contents:
  *   styles and formats ..... sl_figure_style_init, sl_figure_format_from_path
  *   writing files .......... sl_figure_write (PDF, SVG with metadata, PNG)
- *   text ................... sl_figure_text, sl_figure_message
- *   axes ................... sl_nice_step, sl_figure_place_frame, sl_figure_axes
+ *   text ................... sl_figure_text, sl_figure_halo_text, sl_figure_message,
+ *                            sl_figure_add_note, numbers with a minus sign
+ *   axes ................... sl_nice_step, sl_figure_place_frame, sl_figure_tick,
+ *                            sl_figure_axes
  *   colour ................. sl_temperature_colour (a CIELAB path)
  *   scatter ................ sl_figure_scatter, sl_figure_scatter_sized (markers or a
  *                            density image)
@@ -73,6 +75,7 @@ sl_figure_init (SlFigure *fig, cairo_t *cr, double width, double height, const S
   fig->height = height;
   fig->style = *style;
   fig->layout = pango_cairo_create_layout (cr);
+  fig->positions = NULL;
 }
 
 void
@@ -287,12 +290,63 @@ sl_figure_text (SlFigure *fig, double x, double y, double ax, double ay, double 
 }
 
 void
+sl_figure_halo_text (SlFigure *fig, double x, double y, double ax, double ay, double scale, double angle,
+                     const char *markup, double grey, double halo_alpha)
+{
+  cairo_t *cr = fig->cr;
+  double w, h;
+
+  sl_figure_text_size (fig, scale, markup, &w, &h);
+  cairo_save (cr);
+  cairo_translate (cr, x, y);
+  cairo_rotate (cr, -angle);
+  pango_cairo_update_layout (cr, fig->layout);
+  cairo_move_to (cr, -ax * w, -ay * h);
+  pango_cairo_layout_path (cr, fig->layout);
+  cairo_set_source_rgba (cr, 1, 1, 1, halo_alpha);
+  cairo_set_line_width (cr, 0.3 * fig->style.font_pt * scale);
+  cairo_set_line_join (cr, CAIRO_LINE_JOIN_ROUND);
+  cairo_stroke (cr);
+  cairo_set_source_rgb (cr, grey, grey, grey);
+  cairo_move_to (cr, -ax * w, -ay * h);
+  pango_cairo_show_layout (cr, fig->layout);
+  cairo_restore (cr);
+}
+
+void
 sl_figure_message (SlFigure *fig, const char *message)
 {
   g_autofree char *escaped = g_markup_escape_text (message, -1);
 
   cairo_set_source_rgb (fig->cr, 0.25, 0.25, 0.25);
   sl_figure_text (fig, fig->width / 2, fig->height / 2, 0.5, 0.5, 1.3, 0, escaped);
+}
+
+void
+sl_figure_add_note (GPtrArray *notes, char *note)
+{
+  if (notes)
+    g_ptr_array_add (notes, note);
+  else
+    g_free (note);
+}
+
+char *
+sl_figure_with_minus (const char *text)
+{
+  return text[0] == '-' ? g_strconcat ("\u2212", text + 1, NULL) : g_strdup (text);
+}
+
+char *
+sl_figure_format_fixed (double value, int decimals)
+{
+  char buf[G_ASCII_DTOSTR_BUF_SIZE], format[16];
+
+  if (fabs (value) < 0.5 * pow (10.0, -decimals))
+    value = 0.0;   /* no "-0" */
+  g_snprintf (format, sizeof format, "%%.%df", MAX (decimals, 0));
+  g_ascii_formatd (buf, sizeof buf, format, value);
+  return sl_figure_with_minus (buf);
 }
 
 /* ------------------------------------------------------------------ */
@@ -326,27 +380,37 @@ sl_figure_place_frame (SlFigure *fig, SlFrame *frame, gboolean top_axis)
   frame->h = fig->height - top - bottom;
 }
 
-/* The number of decimals a tick label needs at STEP. */
-static int
-tick_decimals (double step)
+int
+sl_figure_step_decimals (double step)
 {
   return MAX (0, (int) -floor (log10 (step) + 1e-9));
 }
 
-static void
-tick_label (char *buf, gsize size, double value, int decimals)
+void
+sl_figure_tick (SlFigure *fig, const SlFrame *f, gboolean x_axis, double v, double tick, double gap,
+                double scale, const char *label)
 {
-  char format[16];
+  cairo_t *cr = fig->cr;
 
-  if (fabs (value) < 1e-12)
-    value = 0.0;   /* no "-0" */
-  g_snprintf (format, sizeof format, "%%.%df", decimals);
-  g_ascii_formatd (buf, size, format, value);
-  if (buf[0] == '-')
+  if (x_axis)
     {
-      /* Print a minus sign (U+2212), not a hyphen, as journals set it. */
-      memmove (buf + 3, buf + 1, strlen (buf));
-      memcpy (buf, "\xe2\x88\x92", 3);
+      double x = sl_frame_px (f, v);
+
+      cairo_move_to (cr, x, f->y + f->h);
+      cairo_rel_line_to (cr, 0, -tick);
+      cairo_move_to (cr, x, f->y);
+      cairo_rel_line_to (cr, 0, tick);
+      sl_figure_text (fig, x, f->y + f->h + gap, 0.5, 0, scale, 0, label);
+    }
+  else
+    {
+      double y = sl_frame_py (f, v);
+
+      cairo_move_to (cr, f->x, y);
+      cairo_rel_line_to (cr, tick, 0);
+      cairo_move_to (cr, f->x + f->w, y);
+      cairo_rel_line_to (cr, -tick, 0);
+      sl_figure_text (fig, f->x - gap, y, 1, 0.5, scale, 0, label);
     }
 }
 
@@ -356,37 +420,16 @@ draw_ticks (SlFigure *fig, const SlFrame *f, gboolean x_axis)
   double lo = x_axis ? MIN (f->x0, f->x1) : MIN (f->y0, f->y1);
   double hi = x_axis ? MAX (f->x0, f->x1) : MAX (f->y0, f->y1);
   double step = sl_nice_step (hi - lo, x_axis ? (f->w > 200 ? 8 : 5) : 5);
-  double tick = 0.35 * fig->style.font_pt;
-  int decimals = tick_decimals (step);
-  cairo_t *cr = fig->cr;
+  double em = fig->style.font_pt;
+  int decimals = sl_figure_step_decimals (step);
 
   for (double v = ceil (lo / step - 1e-9) * step; v <= hi + step * 1e-9; v += step)
     {
-      char label[G_ASCII_DTOSTR_BUF_SIZE];
+      g_autofree char *label = sl_figure_format_fixed (v, decimals);
 
-      tick_label (label, sizeof label, v, decimals);
-      if (x_axis)
-        {
-          double x = sl_frame_px (f, v);
-
-          cairo_move_to (cr, x, f->y + f->h);
-          cairo_rel_line_to (cr, 0, -tick);
-          cairo_move_to (cr, x, f->y);
-          cairo_rel_line_to (cr, 0, tick);
-          sl_figure_text (fig, x, f->y + f->h + 0.3 * fig->style.font_pt, 0.5, 0, 1.0, 0, label);
-        }
-      else
-        {
-          double y = sl_frame_py (f, v);
-
-          cairo_move_to (cr, f->x, y);
-          cairo_rel_line_to (cr, tick, 0);
-          cairo_move_to (cr, f->x + f->w, y);
-          cairo_rel_line_to (cr, -tick, 0);
-          sl_figure_text (fig, f->x - 0.4 * fig->style.font_pt, y, 1, 0.5, 1.0, 0, label);
-        }
+      sl_figure_tick (fig, f, x_axis, v, 0.35 * em, x_axis ? 0.3 * em : 0.4 * em, 1.0, label);
     }
-  cairo_stroke (cr);
+  cairo_stroke (fig->cr);
 }
 
 void

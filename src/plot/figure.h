@@ -47,7 +47,26 @@ typedef struct {
   double        width, height;   /* pt */
   SlFigureStyle style;
   PangoLayout  *layout;
+  GArray       *positions;       /* SlPlotPosition: where each star was drawn, for a
+                                  * window's mouse; NULL (the default): not recorded */
 } SlFigure;
+
+/* A star of the drawn set (its index in the SlStarSet) and where it went. */
+typedef struct {
+  guint  index;
+  double x, y;   /* pt, page coordinates */
+} SlPlotPosition;
+
+static inline void
+sl_figure_record_position (SlFigure *fig, guint index, double x, double y)
+{
+  if (fig->positions != NULL)
+    {
+      SlPlotPosition p = { index, x, y };
+
+      g_array_append_val (fig->positions, p);
+    }
+}
 
 /* Sets up drawing onto CR, an area WIDTH x HEIGHT points. */
 void sl_figure_init (SlFigure *fig, cairo_t *cr, double width, double height, const SlFigureStyle *style);
@@ -68,8 +87,26 @@ void sl_figure_text (SlFigure *fig, double x, double y, double ax, double ay, do
                      double angle, const char *markup);
 void sl_figure_text_size (SlFigure *fig, double scale, const char *markup, double *w, double *h);
 
+/* As sl_figure_text, in grey level GREY (0 black, 1 white), over a white
+ * halo of opacity HALO_ALPHA that keeps it legible across lines and
+ * markers.  The glyphs stay text (searchable in a PDF); only the halo is
+ * a path. */
+void sl_figure_halo_text (SlFigure *fig, double x, double y, double ax, double ay, double scale,
+                          double angle, const char *markup, double grey, double halo_alpha);
+
 /* A message in the middle of the page, for "nothing to draw". */
 void sl_figure_message (SlFigure *fig, const char *message);
+
+/* Adds NOTE (taken) to NOTES, the drawing functions' list of what the
+ * figure leaves out or changes; a caller that wants no notes passes NULL
+ * and the note is freed. */
+void sl_figure_add_note (GPtrArray *notes, char *note);
+
+/* Numbers as journals set them: TEXT with a minus sign (U+2212) for a
+ * leading hyphen; VALUE with DECIMALS decimals that way, and never "-0"
+ * for a value that rounds to zero. */
+char *sl_figure_with_minus (const char *text);
+char *sl_figure_format_fixed (double value, int decimals);
 
 /* A plot area and the data values at its edges (x1 < x0 reverses an
  * axis, as the HR diagram's temperature axis is). */
@@ -91,6 +128,16 @@ void sl_figure_axes (SlFigure *fig, const SlFrame *frame, const char *x_title, c
 
 /* A round step of about RANGE / TARGET (1, 2 or 5 times a power of ten). */
 double sl_nice_step (double range, int target);
+
+/* The number of decimals a tick label needs at STEP. */
+int sl_figure_step_decimals (double step);
+
+/* One tick at data value V, drawn inward TICK long on both sides of the
+ * frame (the x axis: bottom and top; the y axis: left and right), with
+ * LABEL at SCALE outside the bottom or left edge, GAP away.  The ticks
+ * are added to the current path for the caller to stroke. */
+void sl_figure_tick (SlFigure *fig, const SlFrame *frame, gboolean x_axis, double v, double tick,
+                     double gap, double scale, const char *label);
 
 /* The temperature colour scale: hot stars dark blue, cool stars light
  * orange, along a path in CIELAB of steadily rising lightness through no

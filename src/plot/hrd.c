@@ -4,7 +4,7 @@
  *   error ellipses ......... sl_error_ellipse_axes
  *   the stars' points ...... star_xy, fit_axis, choose_view
  *   occupancy .............. where markers lie, so labels can avoid them
- *   labels ................. text with a white halo, rotated boxes
+ *   labels ................. rotated boxes (the text on a halo: sl_figure_halo_text)
  *   reference lines ........ constant radius, the ZAMS of Tout et al. (1996)
  *   errors ................. 1-sigma ellipses or bars
  *   highlights ............. rings, labels placed without overlaps
@@ -27,6 +27,10 @@
  * scales by font_scale, which comes out several times too big with the
  * figures' absolute font sizes. */
 #define SUB(text) "<span size=\"70%\" baseline_shift=\"subscript\">" text "</span>"
+
+/* The opacity of the labels' white halo: most of what lies under a label
+ * is hidden, a trace of it still shows. */
+#define LABEL_HALO_ALPHA 0.85
 
 /* ------------------------------------------------------------------ */
 /* Error ellipses                                                     */
@@ -247,33 +251,6 @@ text_box (double x, double y, double ax, double ay, double w, double h, double a
   return r;
 }
 
-/* Text as sl_figure_text draws it, over a white halo that keeps it
- * readable across lines and markers.  The glyphs stay text (searchable in
- * a PDF); only the halo is a path. */
-static void
-halo_text (SlFigure *fig, double x, double y, double ax, double ay, double scale, double angle,
-           const char *markup, double grey)
-{
-  cairo_t *cr = fig->cr;
-  double w, h;
-
-  sl_figure_text_size (fig, scale, markup, &w, &h);
-  cairo_save (cr);
-  cairo_translate (cr, x, y);
-  cairo_rotate (cr, -angle);
-  cairo_move_to (cr, -ax * w, -ay * h);
-  pango_cairo_update_layout (cr, fig->layout);
-  pango_cairo_layout_path (cr, fig->layout);
-  cairo_set_source_rgba (cr, 1, 1, 1, 0.85);
-  cairo_set_line_width (cr, 0.3 * fig->style.font_pt * scale);
-  cairo_set_line_join (cr, CAIRO_LINE_JOIN_ROUND);
-  cairo_stroke (cr);
-  cairo_move_to (cr, -ax * w, -ay * h);
-  cairo_set_source_rgb (cr, grey, grey, grey);
-  pango_cairo_show_layout (cr, fig->layout);
-  cairo_restore (cr);
-}
-
 /* ------------------------------------------------------------------ */
 /* Reference lines                                                    */
 
@@ -342,7 +319,8 @@ label_segment (Hrd *h, double ax, double ay, double bx, double by, const char *m
   if (!isfinite (best_score))
     return;
   g_array_append_val (h->labels, best_rect);
-  halo_text (fig, best_x, best_y, best_ax, 1.0, scale, angle, markup, 0.35);
+  sl_figure_halo_text (fig, best_x, best_y, best_ax, 1.0, scale, angle, markup, 0.35,
+                       LABEL_HALO_ALPHA);
 }
 
 /* log L = 2 log R + 4 log (Teff / 5772 K): the Stefan-Boltzmann law in
@@ -507,7 +485,8 @@ draw_zams (Hrd *h)
   if (!isfinite (best_score))
     return;
   g_array_append_val (h->labels, best_rect);
-  halo_text (fig, best_x, best_y, 0.5, 0.0, 0.85, best_angle, text, 0.2);
+  sl_figure_halo_text (fig, best_x, best_y, 0.5, 0.0, 0.85, best_angle, text, 0.2,
+                       LABEL_HALO_ALPHA);
 }
 
 /* ------------------------------------------------------------------ */
@@ -710,7 +689,7 @@ place_label (Hrd *h, const Mark *marks, guint n, guint self, const char *markup)
       cairo_stroke (fig->cr);
       cairo_restore (fig->cr);
     }
-  halo_text (fig, x, y, ax, ay, 0.9, 0.0, markup, 0.0);
+  sl_figure_halo_text (fig, x, y, ax, ay, 0.9, 0.0, markup, 0.0, LABEL_HALO_ALPHA);
 }
 
 static void
@@ -733,19 +712,17 @@ draw_highlights (Hrd *h, const SlStarSet *stars, const guint *index, const doubl
 
       if (i == 0)
         {
-          if (notes)
-            g_ptr_array_add (notes, g_strdup_printf (h->options->plane == SL_HRD_THEORETICAL
-                                                     ? _("HR diagram: %s has no derived temperature and luminosity and is not marked.")
-                                                     : _("HR diagram: %s has no derived colour and absolute magnitude and is not marked."),
-                                                   names[k]));
+          sl_figure_add_note (notes, g_strdup_printf (h->options->plane == SL_HRD_THEORETICAL
+                                                      ? _("HR diagram: %s has no derived temperature and luminosity and is not marked.")
+                                                      : _("HR diagram: %s has no derived colour and absolute magnitude and is not marked."),
+                                                      names[k]));
           continue;
         }
       i--;
       if (!in_frame (&h->f, px[i], py[i]))
         {
-          if (notes)
-            g_ptr_array_add (notes, g_strdup_printf (_("HR diagram: %s lies outside the plotted range and is not marked."),
-                                                   names[k]));
+          sl_figure_add_note (notes, g_strdup_printf (_("HR diagram: %s lies outside the plotted range and is not marked."),
+                                                      names[k]));
           continue;
         }
       m.px = px[i], m.py = py[i], m.name = names[k];
@@ -904,8 +881,7 @@ sl_hrd_draw (SlFigure *fig, const SlStarSet *stars, const SlHrdOptions *options,
                               : _("No star has a derived colour and absolute magnitude yet: run 'starledger-cli derive'.");
 
       sl_figure_message (fig, message);
-      if (notes)
-        g_ptr_array_add (notes, g_strdup (message));
+      sl_figure_add_note (notes, g_strdup (message));
       return TRUE;
     }
 
@@ -918,6 +894,7 @@ sl_hrd_draw (SlFigure *fig, const SlStarSet *stars, const SlHrdOptions *options,
 
       px[i] = sl_frame_px (&h.f, xs[i]);
       py[i] = sl_frame_py (&h.f, ys[i]);
+      sl_figure_record_position (fig, index[i], px[i], py[i]);
       sl_temperature_colour (sl_star_set_get (stars, index[i])->teff, fig->style.grayscale, colour);
       rgb[3 * i] = colour[0], rgb[3 * i + 1] = colour[1], rgb[3 * i + 2] = colour[2];
     }
@@ -931,26 +908,26 @@ sl_hrd_draw (SlFigure *fig, const SlStarSet *stars, const SlHrdOptions *options,
     draw_zams (&h);
   if (options->errors && n <= SL_HRD_MAX_ERRORS)
     draw_errors (&h, stars, index, xs, ys, px, py, rgb, n);
-  else if (options->errors && notes)
-    g_ptr_array_add (notes, g_strdup_printf (_("HR diagram: error ellipses and bars left out above %d stars (%u drawn)."),
-                                             SL_HRD_MAX_ERRORS, n));
-  if (sl_figure_scatter (fig, &h.f, px, py, rgb, n, h.r) && notes)
-    g_ptr_array_add (notes, g_strdup_printf (ngettext ("HR diagram: %u star drawn as a density image.",
-                                                       "HR diagram: %u stars drawn as a density image.", n),
-                                             n));
+  else if (options->errors)
+    sl_figure_add_note (notes, g_strdup_printf (_("HR diagram: error ellipses and bars left out above %d stars (%u drawn)."),
+                                                SL_HRD_MAX_ERRORS, n));
+  if (sl_figure_scatter (fig, &h.f, px, py, rgb, n, h.r))
+    sl_figure_add_note (notes, g_strdup_printf (ngettext ("HR diagram: %u star drawn as a density image.",
+                                                          "HR diagram: %u stars drawn as a density image.", n),
+                                                n));
   if (options->highlight)
     draw_highlights (&h, stars, index, px, py, rgb, n, notes);
   if (options->class_ticks && theoretical)
     draw_class_ticks (&h);
-  if (n < n_all && notes)
-    g_ptr_array_add (notes, g_strdup_printf (theoretical
-                                               ? ngettext ("HR diagram: %u star has no derived temperature and luminosity and is left out.",
-                                                           "HR diagram: %u stars have no derived temperature and luminosity and are left out.",
-                                                           n_all - n)
-                                               : ngettext ("HR diagram: %u star has no derived colour and absolute magnitude and is left out.",
-                                                           "HR diagram: %u stars have no derived colour and absolute magnitude and are left out.",
-                                                           n_all - n),
-                                             n_all - n));
+  if (n < n_all)
+    sl_figure_add_note (notes, g_strdup_printf (theoretical
+                                                  ? ngettext ("HR diagram: %u star has no derived temperature and luminosity and is left out.",
+                                                              "HR diagram: %u stars have no derived temperature and luminosity and are left out.",
+                                                              n_all - n)
+                                                  : ngettext ("HR diagram: %u star has no derived colour and absolute magnitude and is left out.",
+                                                              "HR diagram: %u stars have no derived colour and absolute magnitude and are left out.",
+                                                              n_all - n),
+                                                n_all - n));
   sl_figure_axes (fig, &h.f,
                   theoretical ? "log <i>T</i>" SUB ("eff") " (K)" : "(<i>B</i>−<i>V</i>)" SUB ("0"),
                   theoretical ? "log <i>L</i>/<i>L</i>" SUB ("⊙") : "<i>M</i>" SUB ("<i>V</i>"));

@@ -52,6 +52,7 @@ sl_parallax_options_init (SlParallaxOptions *options)
   options->proper_motion = FALSE;
   options->common_scale = FALSE;
   options->band = TRUE;
+  options->empty_message = NULL;
 }
 
 /* ------------------------------------------------------------------ */
@@ -270,25 +271,6 @@ set_colour (cairo_t *cr, const double rgb[3])
   cairo_set_source_rgb (cr, rgb[0], rgb[1], rgb[2]);
 }
 
-/* TEXT with a true minus sign for a leading hyphen. */
-static char *
-with_minus (const char *text)
-{
-  return text[0] == '-' ? g_strconcat (MINUS, text + 1, NULL) : g_strdup (text);
-}
-
-static char *
-format_fixed (double value, int decimals)
-{
-  char buf[G_ASCII_DTOSTR_BUF_SIZE], format[16];
-
-  if (fabs (value) < 0.5 * pow (10.0, -decimals))
-    value = 0.0;   /* no "-0" */
-  g_snprintf (format, sizeof format, "%%.%df", MAX (decimals, 0));
-  g_ascii_formatd (buf, sizeof buf, format, value);
-  return with_minus (buf);
-}
-
 /* The smallest step of 1, 2 or 5 times a power of ten that is at least MIN. */
 static double
 step_at_least (double min)
@@ -320,12 +302,6 @@ tick_count (double lo, double hi, double step)
   return (int) (floor (hi / step + 1e-9) - ceil (lo / step - 1e-9)) + 1;
 }
 
-static int
-step_decimals (double step)
-{
-  return MAX (0, (int) -floor (log10 (step) + 1e-9));
-}
-
 /* The widest tick label at STEP over [LO, HI], pt. */
 static double
 widest_label (SlFigure *fig, double lo, double hi, double step)
@@ -334,7 +310,7 @@ widest_label (SlFigure *fig, double lo, double hi, double step)
 
   for (double v = ceil (lo / step - 1e-9) * step; v <= hi + step * 1e-9; v += step)
     {
-      g_autofree char *label = format_fixed (v, step_decimals (step));
+      g_autofree char *label = sl_figure_format_fixed (v, sl_figure_step_decimals (step));
       double w, h;
 
       sl_figure_text_size (fig, TICK_LABEL_SCALE, label, &w, &h);
@@ -382,32 +358,14 @@ panel_axes (SlFigure *fig, const SlFrame *f, double mas_per_pt)
             break;
           step = finer;
         }
-      decimals = step_decimals (step);
+      decimals = sl_figure_step_decimals (step);
 
       for (double v = ceil (lo / step - 1e-9) * step; v <= hi + step * 1e-9; v += step)
         {
-          g_autofree char *label = format_fixed (v, decimals);
+          g_autofree char *label = sl_figure_format_fixed (v, decimals);
 
-          if (axis == 0)
-            {
-              double x = sl_frame_px (f, v);
-
-              cairo_move_to (cr, x, f->y + f->h);
-              cairo_rel_line_to (cr, 0, -tick);
-              cairo_move_to (cr, x, f->y);
-              cairo_rel_line_to (cr, 0, tick);
-              sl_figure_text (fig, x, f->y + f->h + 0.25 * em, 0.5, 0, TICK_LABEL_SCALE, 0, label);
-            }
-          else
-            {
-              double y = sl_frame_py (f, v);
-
-              cairo_move_to (cr, f->x, y);
-              cairo_rel_line_to (cr, tick, 0);
-              cairo_move_to (cr, f->x + f->w, y);
-              cairo_rel_line_to (cr, -tick, 0);
-              sl_figure_text (fig, f->x - 0.3 * em, y, 1, 0.5, TICK_LABEL_SCALE, 0, label);
-            }
+          sl_figure_tick (fig, f, axis == 0, v, tick, axis == 0 ? 0.25 * em : 0.3 * em, TICK_LABEL_SCALE,
+                          label);
         }
       cairo_stroke (cr);
     }
@@ -667,20 +625,20 @@ title_init (Title *t, const Panel *p)
           && sl_round_with_interval (star->parallax, star->parallax - star->parallax_err,
                                      star->parallax + star->parallax_err, &r))
         {
-          g_autofree char *value = with_minus (r.value);
+          g_autofree char *value = sl_figure_with_minus (r.value);
 
           t->parallax = g_strdup_printf (_("<i>ϖ</i> = %s ± %s mas"), value, r.plus);
         }
       else
         {
-          g_autofree char *value = format_fixed (star->parallax, 2);
+          g_autofree char *value = sl_figure_format_fixed (star->parallax, 2);
 
           t->parallax = g_strdup_printf (_("<i>ϖ</i> = %s mas"), value);
         }
     }
   if (isfinite (star->elat))
     {
-      g_autofree char *value = format_fixed (star->elat, 1);
+      g_autofree char *value = sl_figure_format_fixed (star->elat, 1);
 
       g_free (t->latitude);
       t->latitude = g_strdup_printf (_("<i>β</i> = %s°"), value);
@@ -829,8 +787,8 @@ caption_lines (SlFigure *fig, const SlParallaxOptions *options, gboolean any_ban
 {
   g_autoptr (GPtrArray) phrases = g_ptr_array_new_with_free_func (g_free);
   GPtrArray *lines = g_ptr_array_new_with_free_func (g_free);
-  g_autofree char *from = format_fixed (options->start_jyear, 2);
-  g_autofree char *to = format_fixed (options->start_jyear + options->years, 2);
+  g_autofree char *from = sl_figure_format_fixed (options->start_jyear, 2);
+  g_autofree char *to = sl_figure_format_fixed (options->start_jyear + options->years, 2);
   GString *current = NULL;
 
   g_ptr_array_add (phrases, g_strdup (_("offsets in the tangent plane, east to the left")));
@@ -935,15 +893,6 @@ choose_columns (SlFigure *fig, double grid_w, double grid_h, const Panel *panels
   return best_cols;
 }
 
-static void
-add_note (GPtrArray *notes, char *note)
-{
-  if (notes)
-    g_ptr_array_add (notes, note);
-  else
-    g_free (note);
-}
-
 gboolean
 sl_parallax_draw (SlFigure *fig, const SlStarSet *stars, const SlParallaxOptions *options,
                   GPtrArray *notes, GError **error)
@@ -967,17 +916,18 @@ sl_parallax_draw (SlFigure *fig, const SlStarSet *stars, const SlParallaxOptions
   n_all = stars->stars->len;
   if (n_all == 0)
     {
-      sl_figure_message (fig, _("Choose stars with --star to draw their parallax paths."));
-      add_note (notes, g_strdup (_("no stars chosen: give them with --star")));
+      sl_figure_message (fig, options->empty_message ? options->empty_message
+                                                     : _("Choose stars with --star to draw their parallax paths."));
+      sl_figure_add_note (notes, g_strdup (_("no stars chosen: give them with --star")));
       return TRUE;
     }
   n = MIN (n_all, MAX_PANELS);
   if (n < n_all)
-    add_note (notes, g_strdup_printf (_("showing the first %u of %u stars"), n, n_all));
+    sl_figure_add_note (notes, g_strdup_printf (_("showing the first %u of %u stars"), n, n_all));
 
   earth_track_init (&track, options->start_jyear, options->years);
   if (!track.accurate)
-    add_note (notes, g_strdup (_("the span reaches outside 1900-2100, where the Earth's position "
+    sl_figure_add_note (notes, g_strdup (_("the span reaches outside 1900-2100, where the Earth's position "
                                  "(eraEpv00) is less accurate")));
   panels = g_new0 (Panel, n);
   for (guint i = 0; i < n; i++)
@@ -985,7 +935,7 @@ sl_parallax_draw (SlFigure *fig, const SlStarSet *stars, const SlParallaxOptions
       panel_init (&panels[i], sl_star_set_get (stars, i), &track, options);
       any_band |= panels[i].band;
       if (!panels[i].drawable)
-        add_note (notes, g_strdup_printf (_("%s: no positive parallax, no path drawn"),
+        sl_figure_add_note (notes, g_strdup_printf (_("%s: no positive parallax, no path drawn"),
                                           panels[i].star->designation));
     }
 
@@ -1002,7 +952,7 @@ sl_parallax_draw (SlFigure *fig, const SlStarSet *stars, const SlParallaxOptions
   cols = choose_columns (fig, grid_w, grid_h, panels, n, options->common_scale, title_joined, title_apart);
   layout_for (fig, &lay, grid_w, grid_h, n, cols, title_joined, title_apart);
   if (MIN (lay.pw, lay.ph) < 4.0 * em)
-    add_note (notes, g_strdup (_("the panels are very small: choose fewer stars or a larger page "
+    sl_figure_add_note (notes, g_strdup (_("the panels are very small: choose fewer stars or a larger page "
                                  "(--size double)")));
   if (lay.pw <= 0 || lay.ph <= 0)
     {
@@ -1021,6 +971,9 @@ sl_parallax_draw (SlFigure *fig, const SlStarSet *stars, const SlParallaxOptions
         scale = 1.0;
       draw_panel (fig, &lay, grid_x + (i % cols) * lay.cell_w, grid_y + (i / cols) * lay.cell_h,
                   &panels[i], &track, options, scale);
+      /* A click anywhere near the middle of a panel picks its star. */
+      sl_figure_record_position (fig, i, grid_x + (i % cols) * lay.cell_w + lay.left + lay.pw / 2,
+                                 grid_y + (i / cols) * lay.cell_h + lay.top + lay.ph / 2);
     }
 
   /* Axis titles once for the page. */

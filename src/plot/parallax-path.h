@@ -20,6 +20,7 @@ typedef struct {
   gboolean proper_motion;   /* add the proper motion (from the star's epoch) */
   gboolean common_scale;    /* one scale for all panels */
   gboolean band;            /* the band of parallax -/+ its error */
+  const char *empty_message;  /* shown when no star is chosen; NULL: how to choose them on the command line */
 } SlParallaxOptions;
 
 void sl_parallax_options_init (SlParallaxOptions *options);

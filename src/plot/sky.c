@@ -4,7 +4,7 @@
  * Contents:
  *   options, projections ..... sl_sky_options_init, sl_hammer_aitoff, sl_gnomonic
  *   the map .................. SkyMap: ICRS to page points, broken polylines
- *   text and notes ........... labels with a white halo, notes, captions
+ *   text ..................... captions
  *   stars .................... marker size by magnitude, colour, ellipses, highlights
  *   keys ..................... marker sizes and the temperature colour bar
  *   all-sky .................. outline, graticule and its labels, reference lines
@@ -38,6 +38,10 @@
 #define GRID_GREY  0.78   /* graticule */
 #define LABEL_GREY 0.35   /* graticule labels */
 #define LINE_GREY  0.25   /* ecliptic, galactic plane, arrows */
+
+/* The labels' white halo (sl_figure_halo_text) is opaque: nothing under
+ * a label shows. */
+#define HALO_ALPHA 1.0
 
 /* Samples along a reference great circle: every half degree. */
 #define CIRCLE_SAMPLES 721
@@ -249,42 +253,7 @@ line_points (SkyLine which, double *ra, double *dec, guint n)
 }
 
 /* ------------------------------------------------------------------ */
-/* Text and notes                                                     */
-
-/* Like sl_figure_text, on a white halo so it stays legible over lines
- * and markers. */
-static void
-halo_text (SlFigure *fig, double x, double y, double ax, double ay, double scale, double angle,
-           const char *markup, double grey)
-{
-  cairo_t *cr = fig->cr;
-  double w, h;
-
-  sl_figure_text_size (fig, scale, markup, &w, &h);
-  cairo_save (cr);
-  cairo_translate (cr, x, y);
-  cairo_rotate (cr, -angle);
-  pango_cairo_update_layout (cr, fig->layout);
-  cairo_move_to (cr, -ax * w, -ay * h);
-  pango_cairo_layout_path (cr, fig->layout);
-  cairo_set_source_rgb (cr, 1, 1, 1);
-  cairo_set_line_width (cr, 0.3 * fig->style.font_pt * scale);
-  cairo_set_line_join (cr, CAIRO_LINE_JOIN_ROUND);
-  cairo_stroke (cr);
-  cairo_set_source_rgb (cr, grey, grey, grey);
-  cairo_move_to (cr, -ax * w, -ay * h);
-  pango_cairo_show_layout (cr, fig->layout);
-  cairo_restore (cr);
-}
-
-static void
-add_note (GPtrArray *notes, char *note)
-{
-  if (notes)
-    g_ptr_array_add (notes, note);
-  else
-    g_free (note);
-}
+/* Text                                                               */
 
 /* "J2026.25" or "J2015.5 to J2026.25": the epochs of the stars drawn. */
 static char *
@@ -464,6 +433,7 @@ draw_stars (SlFigure *fig, const SkyMap *m, const SlStarSet *stars, GArray *plac
       px[i] = p->px;
       py[i] = p->py;
       r[i] = p->r;
+      sl_figure_record_position (fig, p->index, p->px, p->py);
       for (int k = 0; k < 3; k++)
         rgb[3 * i + k] = (float) c[k];
     }
@@ -547,13 +517,13 @@ draw_highlights (SlFigure *fig, const SlFrame *bounds, const SlStarSet *stars, c
             dx = -dx, ax = 1;
           if (p->py + dy - th < bounds->y)
             dy = -dy, ay = 0;
-          halo_text (fig, p->px + dx, p->py + dy, ax, ay, 0.85, 0, label, 0.0);
+          sl_figure_halo_text (fig, p->px + dx, p->py + dy, ax, ay, 0.85, 0, label, 0.0, HALO_ALPHA);
         }
       if (!in_set)
-        add_note (notes, g_strdup_printf (_("%s is not among the stars loaded, so it is not marked."),
+        sl_figure_add_note (notes, g_strdup_printf (_("%s is not among the stars loaded, so it is not marked."),
                                           highlight[h]));
       else if (!drawn)
-        add_note (notes, g_strdup_printf (_("%s is not on the map (no position, or outside the field)."),
+        sl_figure_add_note (notes, g_strdup_printf (_("%s is not on the map (no position, or outside the field)."),
                                           highlight[h]));
     }
 }
@@ -742,7 +712,7 @@ draw_reference_line (SlFigure *fig, const SkyMap *m, SkyLine which, const double
         angle -= G_PI;
       else if (angle < -G_PI / 2)
         angle += G_PI;
-      halo_text (fig, px[at], py[at], 0.5, 1.05, 0.8, angle, label, LINE_GREY);
+      sl_figure_halo_text (fig, px[at], py[at], 0.5, 1.05, 0.8, angle, label, LINE_GREY, HALO_ALPHA);
     }
 }
 
@@ -824,7 +794,7 @@ draw_graticule_labels (SlFigure *fig, const SkyMap *m)
       g_autofree char *label = longitude_label (m, lon);
 
       map_native (m, lon * ERFA_DD2R, 0.0, &px, &py);
-      halo_text (fig, px, py + 0.2 * em, 0.5, 0, 0.8, 0, label, LABEL_GREY);
+      sl_figure_halo_text (fig, px, py + 0.2 * em, 0.5, 0, 0.8, 0, label, LABEL_GREY, HALO_ALPHA);
     }
   /* The meridian at 180 deg is both ends of the map. */
   cairo_set_source_rgb (fig->cr, LABEL_GREY, LABEL_GREY, LABEL_GREY);
@@ -874,7 +844,7 @@ draw_all_sky (SlFigure *fig, const SlStarSet *stars, const SlSkyOptions *options
       const char *message = _("No star has a position (right ascension and declination) to draw.");
 
       sl_figure_message (fig, message);
-      add_note (notes, g_strdup (message));
+      sl_figure_add_note (notes, g_strdup (message));
       return TRUE;
     }
   mag_scale_init (&ms, fig, stars, placed);
@@ -951,11 +921,11 @@ draw_all_sky (SlFigure *fig, const SlStarSet *stars, const SlSkyOptions *options
   draw_captions (fig, captions, fig->width / 2, m.frame.y + m.frame.h + 0.9 * em + key_h + 0.6 * em, FALSE);
 
   if (density)
-    add_note (notes, g_strdup_printf (_("More than %d stars: the map shows how many fall in each small cell "
+    sl_figure_add_note (notes, g_strdup_printf (_("More than %d stars: the map shows how many fall in each small cell "
                                         "(more opaque where there are more), not single markers."),
                                       SL_DENSITY_THRESHOLD));
   if (options->ellipse_scale > 0 && placed->len > SL_DENSITY_THRESHOLD)
-    add_note (notes, g_strdup (_("Too many stars to draw parallax ellipses; they are left out.")));
+    sl_figure_add_note (notes, g_strdup (_("Too many stars to draw parallax ellipses; they are left out.")));
   return TRUE;
 }
 
@@ -1157,7 +1127,7 @@ draw_field (SlFigure *fig, const SlStarSet *stars, const SlSkyOptions *options, 
         message = g_strdup_printf (_("No star lies in the %s° field around %s %s."), width_text, ra_text,
                                    dec_text);
       sl_figure_message (fig, message);
-      add_note (notes, g_steal_pointer (&message));
+      sl_figure_add_note (notes, g_steal_pointer (&message));
       return TRUE;
     }
   mag_scale_init (&ms, fig, stars, placed);
@@ -1208,11 +1178,11 @@ draw_field (SlFigure *fig, const SlStarSet *stars, const SlSkyOptions *options, 
   }
 
   if (density)
-    add_note (notes, g_strdup_printf (_("More than %d stars: the map shows how many fall in each small cell "
+    sl_figure_add_note (notes, g_strdup_printf (_("More than %d stars: the map shows how many fall in each small cell "
                                         "(more opaque where there are more), not single markers."),
                                       SL_DENSITY_THRESHOLD));
   if ((arrows || options->ellipse_scale > 0) && placed->len > SL_DENSITY_THRESHOLD)
-    add_note (notes, g_strdup (_("Too many stars in the field for proper-motion arrows or parallax "
+    sl_figure_add_note (notes, g_strdup (_("Too many stars in the field for proper-motion arrows or parallax "
                                  "ellipses; they are left out.")));
   return TRUE;
 }

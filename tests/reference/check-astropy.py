@@ -22,14 +22,18 @@
 #
 # Environment: STARLEDGER_CLI, the path of starledger-cli.
 
-import csv
-import io
 import math
 import os
 import random
-import subprocess
 import sys
 import tempfile
+
+# The shared module sits beside this script; no bytecode cache is written
+# into the source tree.
+sys.dont_write_bytecode = True
+sys.path.insert(0, os.path.dirname(__file__))
+import starledger_tap as tap_lib  # noqa: E402
+from starledger_tap import compare, number  # noqa: E402
 
 try:
     import numpy as np
@@ -37,8 +41,7 @@ try:
     from astropy.constants import codata2018, iau2015
     from astropy.coordinates import BarycentricMeanEcliptic, Distance, SkyCoord
 except ImportError:
-    print("1..0 # SKIP astropy or numpy is not installed (Debian: python3-astropy, python3-numpy)")
-    sys.exit(0)
+    tap_lib.skip_all("astropy or numpy is not installed (Debian: python3-astropy, python3-numpy)")
 
 SEED = 20260402
 N_PARALLAXES = 50
@@ -58,49 +61,7 @@ V_SUN = -26.76                  # Torres (2010, AJ 140, 1158)
 T_SUN = 5772.0                  # K, IAU 2015 Resolution B3
 
 
-class Tap:
-    """Collects results and prints them as TAP at the end."""
-
-    def __init__(self):
-        self.lines = []
-        self.failed = 0
-
-    def check(self, passed, description, details=()):
-        number = len(self.lines) + 1
-        text = ("ok %d - %s" if passed else "not ok %d - %s") % (number, description)
-        if not passed:
-            self.failed += 1
-            text += "".join("\n# " + line for line in details)
-        self.lines.append(text)
-        return passed
-
-    def finish(self):
-        print("1..%d" % len(self.lines))
-        for line in self.lines:
-            print(line)
-        sys.exit(1 if self.failed else 0)
-
-
 # ---- the command line --------------------------------------------------------
-
-def run_cli(*args):
-    return subprocess.run([os.environ["STARLEDGER_CLI"], *args],
-                          capture_output=True, text=True, timeout=60)
-
-
-def check_run(tap, result, description):
-    return tap.check(result.returncode == 0, description,
-                     ["exit status %d" % result.returncode]
-                     + result.stderr.strip().splitlines()[:10])
-
-
-def write_catalogue(path, columns, rows):
-    with open(path, "w", encoding="utf-8", newline="") as f:
-        writer = csv.writer(f, lineterminator="\n")
-        writer.writerow(columns)
-        for row in rows:
-            writer.writerow([row.get(c, "") for c in columns])
-
 
 def derive_and_export(tap, directory, name, columns, rows, export_columns,
                       overrides=(), derive_args=()):
@@ -109,58 +70,20 @@ def derive_and_export(tap, directory, name, columns, rows, export_columns,
     exported rows by id (empty if a step failed)."""
     csv_path = os.path.join(directory, name + ".csv")
     project = os.path.join(directory, name + ".starledger")
-    write_catalogue(csv_path, columns, rows)
-    if not check_run(tap, run_cli("new", project), "starledger-cli new (%s)" % name):
+    tap_lib.write_csv(csv_path, columns, rows)
+    if not tap_lib.new_project(tap, project, name):
         return {}
-    result = run_cli("import", project, csv_path)
-    ok = check_run(tap, result, "starledger-cli import (%s) exits 0" % name)
-    rejected = [line for line in result.stderr.splitlines() if not line.startswith("note:")]
-    tap.check(ok and not rejected, "import (%s) rejects no row" % name, rejected[:10])
+    tap_lib.import_csv(tap, project, csv_path, name)
     for star, quantity, value in overrides:
-        result = run_cli("override", project, star, quantity, value,
-                         "--reason", "check-astropy: a given %s" % quantity)
+        result = tap_lib.run_cli("override", project, star, quantity, value,
+                                 "--reason", "check-astropy: a given %s" % quantity)
         if result.returncode != 0:
-            check_run(tap, result, "starledger-cli override %s %s" % (star, quantity))
+            tap_lib.check_run(tap, result, "starledger-cli override %s %s" % (star, quantity))
             return {}
-    if not check_run(tap, run_cli("derive", project, *derive_args),
-                     "starledger-cli derive (%s)" % name):
+    if not tap_lib.check_run(tap, tap_lib.run_cli("derive", project, *derive_args),
+                             "starledger-cli derive (%s)" % name):
         return {}
-    exported = run_cli("export", project, "--columns", ",".join(export_columns))
-    if not check_run(tap, exported, "starledger-cli export (%s)" % name):
-        return {}
-    by_id = {row["id"]: row for row in csv.DictReader(io.StringIO(exported.stdout))}
-    tap.check(len(by_id) == len(rows), "export (%s) has all %d stars" % (name, len(rows)),
-              ["want %d rows" % len(rows), "got %d rows" % len(by_id)])
-    return by_id
-
-
-def number(row, column):
-    try:
-        return float(row.get(column, ""))
-    except (TypeError, ValueError):
-        return math.nan
-
-
-def compare(tap, items, description, unit, tolerance, relative=False):
-    """ITEMS: (label, want, got) triples.  Passes if every |got - want| (or
-    relative difference) is within TOLERANCE; reports the worst."""
-    worst = None
-    for label, want, got in items:
-        diff = abs(got - want)
-        if relative:
-            diff /= abs(want)
-        if not math.isfinite(diff):
-            diff = math.inf          # a missing value is the worst of all
-        if worst is None or diff > worst[0]:
-            worst = (diff, label, want, got)
-    if worst is None:
-        return tap.check(False, description, ["nothing to compare"])
-    diff, label, want, got = worst
-    kind = "relative" if relative else unit
-    return tap.check(diff <= tolerance,
-                     "%s (%d values, worst %.3g %s)" % (description, len(items), diff, kind),
-                     ["%s: want %.15g %s (tolerance %g %s)" % (label, want, unit, tolerance, kind),
-                      "%s: got  %.15g %s" % (label, got, unit)])
+    return tap_lib.export_rows(tap, project, export_columns, name, expected=len(rows))
 
 
 # ---- (a) distance modulus ----------------------------------------------------
@@ -412,11 +335,9 @@ def check_solar_scale(tap, directory):
 
 
 def main():
-    if not os.environ.get("STARLEDGER_CLI"):
-        print("Bail out! STARLEDGER_CLI is not set")
-        sys.exit(1)
+    tap_lib.required_env("STARLEDGER_CLI")
     rng = random.Random(SEED)
-    tap = Tap()
+    tap = tap_lib.Tap()
     with tempfile.TemporaryDirectory(prefix="starledger-check-astropy-") as directory:
         check_distance_modulus(tap, directory, rng)
         check_ecliptic(tap, directory, rng)

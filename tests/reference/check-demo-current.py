@@ -15,28 +15,11 @@ import subprocess
 import sys
 import tempfile
 
-
-class Tap:
-    """Collects results and prints them as TAP at the end."""
-
-    def __init__(self):
-        self.lines = []
-        self.failed = 0
-
-    def check(self, passed, description, details=()):
-        number = len(self.lines) + 1
-        text = ("ok %d - %s" if passed else "not ok %d - %s") % (number, description)
-        if not passed:
-            self.failed += 1
-            text += "".join("\n# " + line for line in details)
-        self.lines.append(text)
-        return passed
-
-    def finish(self):
-        print("1..%d" % len(self.lines))
-        for line in self.lines:
-            print(line)
-        sys.exit(1 if self.failed else 0)
+# The shared module sits beside this script; no bytecode cache is written
+# into the source tree.
+sys.dont_write_bytecode = True
+sys.path.insert(0, os.path.dirname(__file__))
+import starledger_tap as tap_lib  # noqa: E402
 
 
 def csv_files(directory):
@@ -76,13 +59,10 @@ def compare_file(tap, name, committed_path, generated_path):
 
 
 def main():
-    source_dir = os.environ.get("STARLEDGER_SOURCE_DIR")
-    if not source_dir:
-        print("Bail out! STARLEDGER_SOURCE_DIR is not set")
-        sys.exit(1)
+    source_dir = tap_lib.required_env("STARLEDGER_SOURCE_DIR")
     demo_dir = os.path.join(source_dir, "data", "demo")
     script = os.path.join(demo_dir, "generate.py")
-    tap = Tap()
+    tap = tap_lib.Tap()
 
     with tempfile.TemporaryDirectory(prefix="starledger-demo-") as out_dir:
         result = subprocess.run([sys.executable, script, out_dir],

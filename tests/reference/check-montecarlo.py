@@ -25,20 +25,23 @@
 #
 # Environment: STARLEDGER_CLI, the path of starledger-cli.
 
-import csv
-import io
 import math
 import os
-import subprocess
 import sys
 import tempfile
 from statistics import NormalDist
 
+# The shared module sits beside this script; no bytecode cache is written
+# into the source tree.
+sys.dont_write_bytecode = True
+sys.path.insert(0, os.path.dirname(__file__))
+import starledger_tap as tap_lib  # noqa: E402
+from starledger_tap import check_run, number, run_cli  # noqa: E402
+
 try:
     import numpy as np
 except ImportError:
-    print("1..0 # SKIP numpy is not installed (Debian: python3-numpy)")
-    sys.exit(0)
+    tap_lib.skip_all("numpy is not installed (Debian: python3-numpy)")
 
 DRAWS = 20000
 SEED = "7"
@@ -85,55 +88,14 @@ EDSD_TABLE = [
 ]
 
 
-class Tap:
-    """Collects results and prints them as TAP at the end."""
-
-    def __init__(self):
-        self.lines = []
-        self.failed = 0
-
-    def check(self, passed, description, details=()):
-        number = len(self.lines) + 1
-        text = ("ok %d - %s" if passed else "not ok %d - %s") % (number, description)
-        if not passed:
-            self.failed += 1
-            text += "".join("\n# " + line for line in details)
-        self.lines.append(text)
-        return passed
-
-    def finish(self):
-        print("1..%d" % len(self.lines))
-        for line in self.lines:
-            print(line)
-        sys.exit(1 if self.failed else 0)
-
-
 # ---- the command line --------------------------------------------------------
-
-def run_cli(*args):
-    return subprocess.run([os.environ["STARLEDGER_CLI"], *args],
-                          capture_output=True, text=True, timeout=60)
-
-
-def check_run(tap, result, description):
-    return tap.check(result.returncode == 0, description,
-                     ["exit status %d" % result.returncode]
-                     + result.stderr.strip().splitlines()[:10])
-
 
 def make_project(tap, directory, name, columns, rows):
     csv_path = os.path.join(directory, name + ".csv")
     project = os.path.join(directory, name + ".starledger")
-    with open(csv_path, "w", encoding="utf-8", newline="") as f:
-        writer = csv.writer(f, lineterminator="\n")
-        writer.writerow(columns)
-        for row in rows:
-            writer.writerow([row.get(c, "") for c in columns])
-    check_run(tap, run_cli("new", project), "starledger-cli new (%s)" % name)
-    result = run_cli("import", project, csv_path)
-    check_run(tap, result, "starledger-cli import (%s) exits 0" % name)
-    tap.check(result.returncode == 0 and result.stderr.strip() == "",
-              "import (%s) rejects no row" % name, result.stderr.strip().splitlines()[:10])
+    tap_lib.write_csv(csv_path, columns, rows)
+    tap_lib.new_project(tap, project, name)
+    tap_lib.import_csv(tap, project, csv_path, name)
     return project
 
 
@@ -142,38 +104,20 @@ def derive(tap, project, *args):
                      "starledger-cli derive %s" % " ".join(args))
 
 
-def export(project, columns=None):
-    args = ["export", project] + (["--columns", ",".join(columns)] if columns else [])
-    return run_cli(*args)
-
-
-def export_rows(tap, project, columns, what):
-    result = export(project, columns)
-    if not check_run(tap, result, "starledger-cli export (%s)" % what):
-        return {}
-    return {row["id"]: row for row in csv.DictReader(io.StringIO(result.stdout))}
-
-
-def number(row, column):
-    try:
-        return float(row.get(column, ""))
-    except (TypeError, ValueError):
-        return math.nan
+def export(project):
+    """The whole export, unchecked: the reproducibility checks compare it
+    byte for byte."""
+    return run_cli("export", project)
 
 
 def worst_check(tap, items, description, unit):
     """ITEMS: (label, want, got, tolerance).  Passes if every |got - want|
-    is within its tolerance; reports the worst in units of tolerance."""
-    worst = None
-    for label, want, got, tolerance in items:
-        ratio = abs(got - want) / tolerance
-        if not math.isfinite(ratio):
-            ratio = math.inf
-        if worst is None or ratio > worst[0]:
-            worst = (ratio, label, want, got, tolerance)
-    if worst is None:
+    is within its tolerance; reports the worst in units of tolerance, since
+    each sample quantile has a tolerance of its own."""
+    found = tap_lib.worst(items, lambda item: abs(item[2] - item[1]) / item[3])
+    if found is None:
         return tap.check(False, description, ["nothing to compare"])
-    ratio, label, want, got, tolerance = worst
+    ratio, (label, want, got, tolerance) = found
     off = ("%.3g%%" % (100.0 * abs(got - want) / abs(want))) if want else ("%.3g %s" % (abs(got - want), unit))
     return tap.check(ratio <= 1.0,
                      "%s (%d values; worst %s off by %s, %.2f of its tolerance)"
@@ -337,7 +281,7 @@ def check_inverse_mc(tap, directory):
     project = make_project(tap, directory, "inverse", INPUT_COLUMNS, inverse_rows())
     if not derive(tap, project, "--errors", "mc:%d" % DRAWS, "--seed", SEED):
         return project
-    rows = export_rows(tap, project, ["dist", "distmod", "teff", "absmag", "lum", "radius", "flags"],
+    rows = tap_lib.export_rows(tap, project, ["dist", "distmod", "teff", "absmag", "lum", "radius", "flags"],
                        "inverse, mc:%d" % DRAWS)
 
     # The colours stay where log Teff(B-V) is monotonic (the quantile map
@@ -438,7 +382,7 @@ def check_edsd(tap, directory):
     # (1000 draws from the posterior) below it; dist itself is always the
     # posterior mode with its HDI.
     if derive(tap, project, "--distance", "edsd:L=%g" % EDSD_L):
-        got = export_rows(tap, project, ["dist", "distmod", "flags"], "edsd, linear")
+        got = tap_lib.export_rows(tap, project, ["dist", "distmod", "flags"], "edsd, linear")
         drawn = [t for t in EDSD_TABLE if t[1] / t[2] < 5.0]
         check_mode_and_hdi(got, "edsd:L=1350")
         check_drawn_distmod(got, drawn, 1000, "edsd:L=1350, S/N < 5 (Monte Carlo of 1000 draws)")
@@ -463,7 +407,7 @@ def check_edsd(tap, directory):
 
     # Monte Carlo for every star: draws from the posterior itself.
     if derive(tap, project, "--distance", "edsd:L=%g" % EDSD_L, "--errors", "mc:%d" % DRAWS, "--seed", SEED):
-        got = export_rows(tap, project, ["dist", "distmod"], "edsd, mc:%d" % DRAWS)
+        got = tap_lib.export_rows(tap, project, ["dist", "distmod"], "edsd, mc:%d" % DRAWS)
         check_mode_and_hdi(got, "edsd:L=1350 mc:%d" % DRAWS)
         check_drawn_distmod(got, EDSD_TABLE, DRAWS, "edsd:L=1350 mc:%d" % DRAWS)
 
@@ -495,10 +439,8 @@ def check_reproducible(tap, directory, project):
 
 
 def main():
-    if not os.environ.get("STARLEDGER_CLI"):
-        print("Bail out! STARLEDGER_CLI is not set")
-        sys.exit(1)
-    tap = Tap()
+    tap_lib.required_env("STARLEDGER_CLI")
+    tap = tap_lib.Tap()
     with tempfile.TemporaryDirectory(prefix="starledger-check-montecarlo-") as directory:
         project = check_inverse_mc(tap, directory)
         check_edsd(tap, directory)

@@ -9,21 +9,23 @@
 #
 # Environment: STARLEDGER_CLI, the path of starledger-cli.
 
-import csv
-import io
 import math
 import os
 import random
-import subprocess
 import sys
 import tempfile
+
+# The shared module sits beside this script; no bytecode cache is written
+# into the source tree.
+sys.dont_write_bytecode = True
+sys.path.insert(0, os.path.dirname(__file__))
+import starledger_tap as tap_lib  # noqa: E402
 
 try:
     import astropy.units as u
     from astropy.coordinates import Angle
 except ImportError:
-    print("1..0 # SKIP astropy is not installed (Debian: python3-astropy)")
-    sys.exit(0)
+    tap_lib.skip_all("astropy is not installed (Debian: python3-astropy)")
 
 SEED = 20260401
 N_STARS = 50
@@ -33,29 +35,6 @@ MINUS = "\u2212"            # U+2212 MINUS SIGN
 
 RA_STYLES = ("blanks", "colons", "letters")
 DEC_STYLES = ("blanks", "colons", "letters", "symbols")
-
-
-class Tap:
-    """Collects results and prints them as TAP at the end."""
-
-    def __init__(self):
-        self.lines = []
-        self.failed = 0
-
-    def check(self, passed, description, details=()):
-        number = len(self.lines) + 1
-        text = ("ok %d - %s" if passed else "not ok %d - %s") % (number, description)
-        if not passed:
-            self.failed += 1
-            text += "".join("\n# " + line for line in details)
-        self.lines.append(text)
-        return passed
-
-    def finish(self):
-        print("1..%d" % len(self.lines))
-        for line in self.lines:
-            print(line)
-        sys.exit(1 if self.failed else 0)
 
 
 # ---- the stars ---------------------------------------------------------------
@@ -114,75 +93,28 @@ def make_star(rng, i):
 COLUMNS = ("id", "ra_h", "dec_d", "ra_rad", "dec_rad", "plx_as", "pmra_as", "pmdec_as")
 
 
-def write_catalogue(path, stars):
-    with open(path, "w", encoding="utf-8", newline="") as f:
-        writer = csv.writer(f, lineterminator="\n")
-        writer.writerow(COLUMNS)
-        for star in stars:
-            writer.writerow([star[c] for c in COLUMNS])
-
-
 # ---- the command line --------------------------------------------------------
-
-def run_cli(*args):
-    return subprocess.run([os.environ["STARLEDGER_CLI"], *args],
-                          capture_output=True, text=True, timeout=60)
-
-
-def check_run(tap, result, description):
-    return tap.check(result.returncode == 0, description,
-                     ["exit status %d" % result.returncode]
-                     + result.stderr.strip().splitlines()[:10])
-
 
 def import_and_export(tap, directory, name, csv_path, maps, what):
     """Creates project NAME, imports CSV_PATH with MAPS and returns the
     exported rows by id (empty if a step failed)."""
     project = os.path.join(directory, name + ".starledger")
-    args = ["import", project, csv_path]
-    for spec in maps:
-        args += ["--map", spec]
-    if not check_run(tap, run_cli("new", project), "starledger-cli new %s" % name):
+    if not tap_lib.new_project(tap, project, name):
         return {}
-    result = run_cli(*args)
-    check_run(tap, result, "starledger-cli import (%s) exits 0" % what)
-    tap.check(result.stderr.strip() == "", "import (%s) rejects no row" % what,
-              result.stderr.strip().splitlines()[:10])
-    exported = run_cli("export", project)
-    if not check_run(tap, exported, "starledger-cli export (%s)" % what):
-        return {}
-    rows = {row["id"]: row for row in csv.DictReader(io.StringIO(exported.stdout))}
-    tap.check(len(rows) == N_STARS, "export (%s) has all %d stars" % (what, N_STARS),
-              ["want %d rows" % N_STARS, "got %d rows" % len(rows)])
-    return rows
+    tap_lib.import_csv(tap, project, csv_path, what,
+                       args=[arg for spec in maps for arg in ("--map", spec)])
+    return tap_lib.export_rows(tap, project, what=what, expected=N_STARS)
 
 
 # ---- comparisons -------------------------------------------------------------
 
 def compare(tap, stars, rows, column, reference, tolerance, unit, description):
     """Checks ROWS[id][COLUMN] against REFERENCE(star) for every star and
-    reports the worst one."""
-    worst = None
-    for star in stars:
-        want = reference(star)
-        cell = rows.get(star["id"], {}).get(column, "")
-        try:
-            got = float(cell)
-        except ValueError:
-            got = math.nan
-        diff = abs(got - want)
-        if not math.isfinite(diff):
-            diff = math.inf   # an empty cell is a failure, never hidden by a later star
-        if worst is None or diff > worst[0]:
-            worst = (diff, star, want, cell)
-    if worst is None:
-        return tap.check(False, description, ["no star to compare"])
-    diff, star, want, cell = worst
-    return tap.check(diff <= tolerance,
-                     "%s (%d stars, worst %.3g %s)" % (description, len(stars), diff, unit),
-                     ["star %s: ra_h=%r dec_d=%r" % (star["id"], star["ra_h"], star["dec_d"]),
-                      "want %s = %.15g %s (tolerance %g)" % (column, want, unit, tolerance),
-                      "got  %s = %s" % (column, cell or "(empty)")])
+    reports the worst one, with the texts it was imported from."""
+    items = [("star %s (ra_h=%r dec_d=%r) %s" % (star["id"], star["ra_h"], star["dec_d"], column),
+              reference(star), tap_lib.number(rows.get(star["id"], {}), column))
+             for star in stars]
+    return tap_lib.compare(tap, items, description, unit, tolerance, noun="stars")
 
 
 def astropy_hours(star):
@@ -239,15 +171,13 @@ def check_radians(tap, stars, rows):
 
 
 def main():
-    if not os.environ.get("STARLEDGER_CLI"):
-        print("Bail out! STARLEDGER_CLI is not set")
-        sys.exit(1)
+    tap_lib.required_env("STARLEDGER_CLI")
     rng = random.Random(SEED)
     stars = [make_star(rng, i) for i in range(1, N_STARS + 1)]
-    tap = Tap()
+    tap = tap_lib.Tap()
     with tempfile.TemporaryDirectory(prefix="starledger-check-units-") as directory:
         path = os.path.join(directory, "reference.csv")
-        write_catalogue(path, stars)
+        tap_lib.write_csv(path, COLUMNS, stars)
 
         rows = import_and_export(tap, directory, "sexagesimal", path,
                                  ["ra=ra_h:hms", "dec=dec_d:dms", "parallax=plx_as:arcsec",

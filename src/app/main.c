@@ -1,0 +1,19 @@
+/* main.c: starledger, the desktop application. */
+#include <glib/gi18n.h>
+#include <locale.h>
+
+#include "sl-application.h"
+
+int
+main (int argc, char **argv)
+{
+  g_autoptr (SlApplication) app = NULL;
+
+  setlocale (LC_ALL, "");
+  bindtextdomain (GETTEXT_PACKAGE, LOCALEDIR);
+  bind_textdomain_codeset (GETTEXT_PACKAGE, "UTF-8");
+  textdomain (GETTEXT_PACKAGE);
+
+  app = sl_application_new ();
+  return g_application_run (G_APPLICATION (app), argc, argv);
+}

@@ -1,0 +1,817 @@
+/* sl-catalogue-model.c: the Catalogue's list model: the star ids in display
+ * order, and rows read a page at a time into a small cache.
+ *
+ * Contents:
+ *   the inputs in SQL ...... the choice inputs.c makes, as SQL joins
+ *   the order .............. query_order: the star ids sorted in SQL
+ *   pages .................. load_page, get_page, the LRU cache, check_state
+ *   GListModel ............. get_item_type, get_n_items, get_item
+ *   the project ............ set_project, reload, sort (and async), find
+ */
+#include "sl-catalogue-model.h"
+
+#include <glib/gi18n.h>
+#include <math.h>
+
+#include "derivation.h"
+#include "sl-error.h"
+
+/* ------------------------------------------------------------------ */
+/* The inputs in SQL                                                  */
+
+/* The measurements row a group of inputs comes from, chosen as inputs.c
+ * chooses it: among the star's rows that have the group's lead field, a
+ * row with an error beats one without, the smaller error wins, and a tie
+ * goes to the later source.  For the position the error is
+ * hypot (ra_err, dec_err), compared here as its square.  (inputs.c
+ * compares ra_err alone when only one of two rows has a dec_err; no
+ * single sort key can say that, so for such a star the two may differ.) */
+#define CHOSEN_ROW(lead, key)                                                          \
+  "(SELECT m.id FROM measurements m WHERE m.star_id = s.id AND m." lead " IS NOT NULL" \
+  " ORDER BY " key ", m.source_id DESC LIMIT 1)"
+
+#define JOIN_POSITION                                       \
+  " LEFT JOIN measurements mp ON mp.id = "                  \
+  CHOSEN_ROW ("ra", "m.ra_err IS NULL,"                     \
+              " m.ra_err * m.ra_err + coalesce (m.dec_err * m.dec_err, 0)")
+#define JOIN_PARALLAX \
+  " LEFT JOIN measurements mx ON mx.id = " CHOSEN_ROW ("parallax", "m.parallax_err IS NULL, m.parallax_err")
+#define JOIN_VMAG " LEFT JOIN measurements mv ON mv.id = " CHOSEN_ROW ("vmag", "m.vmag_err IS NULL, m.vmag_err")
+#define JOIN_BV   " LEFT JOIN measurements mb ON mb.id = " CHOSEN_ROW ("bv", "m.bv_err IS NULL, m.bv_err")
+#define JOIN_DERIVED " LEFT JOIN derived d ON d.star_id = s.id"
+
+/* The spectral type is the later source's. */
+#define SPTYPE_SQL                                                                        \
+  "(SELECT m.sptype FROM measurements m WHERE m.star_id = s.id AND m.sptype IS NOT NULL" \
+  " ORDER BY m.source_id DESC LIMIT 1)"
+
+/* A page's inputs: result columns, then the ids bound as ?1 ... ?PAGE_ROWS. */
+enum {
+  IN_ID, IN_DESIGNATION, IN_RA, IN_DEC, IN_PARALLAX, IN_PARALLAX_ERR, IN_VMAG, IN_VMAG_ERR, IN_BV, IN_BV_ERR,
+  IN_SPTYPE
+};
+
+#define INPUTS_SQL                                                                                     \
+  "SELECT s.id, s.designation, mp.ra, mp.dec, mx.parallax, mx.parallax_err, mv.vmag, mv.vmag_err,"     \
+  " mb.bv, mb.bv_err, " SPTYPE_SQL " FROM stars s" JOIN_POSITION JOIN_PARALLAX JOIN_VMAG JOIN_BV
+
+/* The derived quantity each derived column shows. */
+static const struct {
+  SlCatalogueColumn column;
+  SlQuantity        quantity;
+} derived_columns[] = {
+  { SL_CATALOGUE_COLUMN_DIST, SL_Q_DIST },
+  { SL_CATALOGUE_COLUMN_ABSMAG, SL_Q_ABSMAG },
+  { SL_CATALOGUE_COLUMN_TEFF, SL_Q_TEFF },
+  { SL_CATALOGUE_COLUMN_LUM, SL_Q_LUM },
+  { SL_CATALOGUE_COLUMN_RADIUS, SL_Q_RADIUS },
+  { SL_CATALOGUE_COLUMN_SPCLASS, SL_Q_SPCLASS },
+};
+
+/* What the order by each column joins to stars s, and the key. */
+static const struct {
+  const char *joins;
+  const char *key;          /* NULL: d.<the quantity's name> */
+} sort_keys[SL_CATALOGUE_N_COLUMNS] = {
+  [SL_CATALOGUE_COLUMN_DESIGNATION] = { "", "s.designation" },
+  [SL_CATALOGUE_COLUMN_RA] = { JOIN_POSITION, "mp.ra" },
+  [SL_CATALOGUE_COLUMN_DEC] = { JOIN_POSITION, "mp.dec" },
+  [SL_CATALOGUE_COLUMN_PARALLAX] = { JOIN_PARALLAX, "mx.parallax" },
+  [SL_CATALOGUE_COLUMN_VMAG] = { JOIN_VMAG, "mv.vmag" },
+  [SL_CATALOGUE_COLUMN_BV] = { JOIN_BV, "mb.bv" },
+  [SL_CATALOGUE_COLUMN_DIST] = { JOIN_DERIVED, NULL },
+  [SL_CATALOGUE_COLUMN_ABSMAG] = { JOIN_DERIVED, NULL },
+  [SL_CATALOGUE_COLUMN_TEFF] = { JOIN_DERIVED, NULL },
+  [SL_CATALOGUE_COLUMN_LUM] = { JOIN_DERIVED, NULL },
+  [SL_CATALOGUE_COLUMN_RADIUS] = { JOIN_DERIVED, NULL },
+  [SL_CATALOGUE_COLUMN_SPCLASS] = { JOIN_DERIVED, NULL },
+  [SL_CATALOGUE_COLUMN_SPTYPE] = { "", SPTYPE_SQL },
+  [SL_CATALOGUE_COLUMN_FLAGS] = { JOIN_DERIVED, "d.flags" },
+};
+
+static SlQuantity
+quantity_of_column (SlCatalogueColumn column)
+{
+  for (gsize i = 0; i < G_N_ELEMENTS (derived_columns); i++)
+    if (derived_columns[i].column == column)
+      return derived_columns[i].quantity;
+  return SL_Q_NONE;
+}
+
+/* ------------------------------------------------------------------ */
+/* The order                                                          */
+
+static char *
+order_sql (SlCatalogueColumn column, gboolean descending)
+{
+  g_autofree char *key = NULL;
+
+  if (column == SL_CATALOGUE_COLUMN_NONE)
+    return g_strdup ("SELECT id FROM stars ORDER BY id");
+  key = sort_keys[column].key ? g_strdup (sort_keys[column].key)
+                              : g_strdup_printf ("d.%s", sl_quantity_info (quantity_of_column (column))->name);
+  return g_strdup_printf ("SELECT s.id FROM stars s%s ORDER BY %s %s NULLS LAST, s.id", sort_keys[column].joins,
+                          key, descending ? "DESC" : "ASC");
+}
+
+static int
+interrupt_if_cancelled (void *cancellable)
+{
+  return g_cancellable_is_cancelled (cancellable);
+}
+
+/* The star ids in the order asked for. */
+static GArray *
+query_order (SlProject *project, SlCatalogueColumn column, gboolean descending, GCancellable *cancellable,
+             GError **error)
+{
+  sqlite3 *db = sl_project_db (project);
+  g_autofree char *sql = order_sql (column, descending);
+  g_autoptr (GArray) ids = NULL;
+  sqlite3_stmt *stmt;
+  gint64 count = 0;
+  int rc;
+
+  /* One read transaction: the count and the order see one snapshot. */
+  if (!sl_project_exec (project, "BEGIN", error))
+    return NULL;
+  /* Counted first so that the array is allocated once. */
+  stmt = sl_project_prepare (project, "SELECT count(*) FROM stars", error);
+  if (stmt != NULL)
+    {
+      if (sqlite3_step (stmt) == SQLITE_ROW)
+        count = sqlite3_column_int64 (stmt, 0);
+      sqlite3_finalize (stmt);
+      stmt = sl_project_prepare (project, sql, error);
+    }
+  if (stmt == NULL)
+    {
+      sl_project_rollback (project);
+      return NULL;
+    }
+  ids = g_array_sized_new (FALSE, FALSE, sizeof (gint64), (guint) count);
+  if (cancellable)
+    sqlite3_progress_handler (db, 10000, interrupt_if_cancelled, cancellable);
+  while ((rc = sqlite3_step (stmt)) == SQLITE_ROW)
+    {
+      gint64 id = sqlite3_column_int64 (stmt, 0);
+
+      g_array_append_val (ids, id);
+    }
+  if (cancellable)
+    sqlite3_progress_handler (db, 0, NULL, NULL);
+  if (rc != SQLITE_DONE)
+    {
+      if (rc == SQLITE_INTERRUPT)
+        g_set_error_literal (error, G_IO_ERROR, G_IO_ERROR_CANCELLED, "cancelled");
+      else
+        sl_project_set_db_error (project, error, sl_project_path (project));
+      g_clear_pointer (&ids, g_array_unref);
+    }
+  sqlite3_finalize (stmt);
+  sl_project_rollback (project);
+  return g_steal_pointer (&ids);
+}
+
+/* The model's connection: read-only, with a modest page cache. */
+static SlProject *
+open_reader (const char *path, GError **error)
+{
+  g_autoptr (SlProject) project = sl_project_open (path, error);
+
+  if (project == NULL || !sl_project_exec (project, "PRAGMA query_only = ON; PRAGMA cache_size = -8192", error))
+    return NULL;
+  return g_steal_pointer (&project);
+}
+
+/* ------------------------------------------------------------------ */
+/* The model                                                          */
+
+typedef struct {
+  guint            index;    /* rows at positions index * PAGE_ROWS ... */
+  guint            n_rows;
+  guint64          used;     /* access tick, for dropping the least recently used */
+  SlCatalogueRow **rows;     /* n_rows, owned */
+} Page;
+
+struct _SlCatalogueModel {
+  GObject           parent_instance;
+
+  char             *path;          /* the project, or NULL */
+  SlProject        *project;       /* our read-only connection to it */
+  sqlite3_stmt     *inputs_stmt;   /* a page's inputs (INPUTS_SQL) */
+  sqlite3_stmt     *derived_stmt;  /* a page's derived rows */
+  sqlite3_stmt     *designation_stmt;  /* id -> designation */
+  sqlite3_stmt     *id_stmt;       /* designation -> id */
+
+  GArray           *ids;           /* gint64 star ids in display order; NULL without a project */
+  SlCatalogueColumn sort_column;
+  gboolean          descending;
+  guint             generation;    /* bumped whenever ids may change: stale async orders are dropped */
+
+  Page              pages[SL_CATALOGUE_MODEL_MAX_PAGES];
+  guint             n_pages;
+  guint64           tick;
+  gboolean          warned;        /* a page failed to load; said once */
+};
+
+static void sl_catalogue_model_list_model_init (GListModelInterface *iface);
+
+G_DEFINE_FINAL_TYPE_WITH_CODE (SlCatalogueModel, sl_catalogue_model, G_TYPE_OBJECT,
+                               G_IMPLEMENT_INTERFACE (G_TYPE_LIST_MODEL, sl_catalogue_model_list_model_init))
+
+static guint
+n_stars (SlCatalogueModel *self)
+{
+  return self->ids ? self->ids->len : 0;
+}
+
+static gint64
+id_at (SlCatalogueModel *self, guint position)
+{
+  return g_array_index (self->ids, gint64, position);
+}
+
+/* The invariants of the cache: at most MAX_PAGES distinct pages, each
+ * holding the rows of the ids at its positions. */
+static void
+check_state (SlCatalogueModel *self)
+{
+  guint n = n_stars (self);
+
+  g_assert (self->n_pages <= SL_CATALOGUE_MODEL_MAX_PAGES);
+  g_assert (self->project != NULL || (self->ids == NULL && self->n_pages == 0));
+  for (guint p = 0; p < self->n_pages; p++)
+    {
+      const Page *page = &self->pages[p];
+      guint first = page->index * SL_CATALOGUE_MODEL_PAGE_ROWS;
+
+      g_assert (first < n);
+      g_assert (page->n_rows == MIN (SL_CATALOGUE_MODEL_PAGE_ROWS, n - first));
+      for (guint q = 0; q < p; q++)
+        g_assert (self->pages[q].index != page->index);
+      for (guint r = 0; r < page->n_rows; r++)
+        g_assert (sl_catalogue_row_get_star_id (page->rows[r]) == id_at (self, first + r));
+    }
+}
+
+static void
+page_clear (Page *page)
+{
+  for (guint r = 0; r < page->n_rows; r++)
+    g_object_unref (page->rows[r]);
+  g_clear_pointer (&page->rows, g_free);
+  page->n_rows = 0;
+}
+
+static void
+drop_pages (SlCatalogueModel *self)
+{
+  for (guint p = 0; p < self->n_pages; p++)
+    page_clear (&self->pages[p]);
+  self->n_pages = 0;
+}
+
+/* A measured value with its error as the interval value -/+ error. */
+static void
+set_measured (SlCatalogueRow *row, SlCatalogueColumn column, sqlite3_stmt *stmt, int value_column)
+{
+  double value = sl_column_double_or_nan (stmt, value_column), error = sl_column_double_or_nan (stmt, value_column + 1);
+
+  sl_catalogue_row_set_number (row, column, value, value - error, value + error);
+}
+
+static void
+fill_inputs (SlCatalogueRow *row, sqlite3_stmt *stmt)
+{
+  sl_catalogue_row_set_text (row, SL_CATALOGUE_COLUMN_DESIGNATION,
+                             (const char *) sqlite3_column_text (stmt, IN_DESIGNATION));
+  sl_catalogue_row_set_number (row, SL_CATALOGUE_COLUMN_RA, sl_column_double_or_nan (stmt, IN_RA), NAN, NAN);
+  sl_catalogue_row_set_number (row, SL_CATALOGUE_COLUMN_DEC, sl_column_double_or_nan (stmt, IN_DEC), NAN, NAN);
+  set_measured (row, SL_CATALOGUE_COLUMN_PARALLAX, stmt, IN_PARALLAX);
+  set_measured (row, SL_CATALOGUE_COLUMN_VMAG, stmt, IN_VMAG);
+  set_measured (row, SL_CATALOGUE_COLUMN_BV, stmt, IN_BV);
+  sl_catalogue_row_set_text (row, SL_CATALOGUE_COLUMN_SPTYPE, (const char *) sqlite3_column_text (stmt, IN_SPTYPE));
+}
+
+static void
+fill_derived (SlCatalogueRow *row, const SlDerivedRow *derived)
+{
+  const SlDerivedValues *v = &derived->values;
+
+  for (gsize i = 0; i < G_N_ELEMENTS (derived_columns); i++)
+    {
+      SlQuantity q = derived_columns[i].quantity;
+
+      if (sl_quantity_info (q)->is_text)
+        sl_catalogue_row_set_text (row, derived_columns[i].column, v->has[q] ? v->text[q] : NULL);
+      else if (v->has[q])
+        sl_catalogue_row_set_number (row, derived_columns[i].column, v->value[q], v->lo[q], v->hi[q]);
+    }
+  sl_catalogue_row_set_flags (row, v->flags, derived->stale);
+}
+
+typedef struct {
+  gint64 id;
+  guint  slot;
+} IdSlot;
+
+static int
+compare_id_slots (gconstpointer a, gconstpointer b)
+{
+  gint64 x = ((const IdSlot *) a)->id, y = ((const IdSlot *) b)->id;
+
+  return x < y ? -1 : x > y;
+}
+
+/* Runs STMT (bound to the page's ids, results in id order) and hands each
+ * result row to FILL with the page row of its id: a merge of two sorted
+ * lists. */
+static gboolean
+read_page_rows (SlCatalogueModel *self, sqlite3_stmt *stmt, const IdSlot *by_id, guint n, Page *page,
+                gboolean derived, GError **error)
+{
+  guint next = 0;
+  int rc;
+
+  for (guint i = 0; i < SL_CATALOGUE_MODEL_PAGE_ROWS; i++)
+    {
+      if (i < n)
+        sqlite3_bind_int64 (stmt, (int) i + 1, by_id[i].id);
+      else
+        sqlite3_bind_null (stmt, (int) i + 1);
+    }
+  while ((rc = sqlite3_step (stmt)) == SQLITE_ROW)
+    {
+      gint64 id = sqlite3_column_int64 (stmt, 0);
+
+      while (next < n && by_id[next].id < id)
+        next++;
+      if (next == n || by_id[next].id != id)
+        continue;
+      if (derived)
+        {
+          SlDerivedRow row;
+
+          sl_derived_row_read (stmt, &row);
+          fill_derived (page->rows[by_id[next].slot], &row);
+        }
+      else
+        fill_inputs (page->rows[by_id[next].slot], stmt);
+    }
+  sqlite3_reset (stmt);   /* ends the read: the writer's checkpoints may proceed */
+  if (rc != SQLITE_DONE)
+    {
+      sl_project_set_db_error (self->project, error, sl_project_path (self->project));
+      return FALSE;
+    }
+  return TRUE;
+}
+
+/* Fills PAGE with page INDEX: one query for the inputs, one for the
+ * derived rows.  On an error the rows stay empty (said once). */
+static void
+load_page (SlCatalogueModel *self, Page *page, guint index)
+{
+  guint first = index * SL_CATALOGUE_MODEL_PAGE_ROWS;
+  IdSlot by_id[SL_CATALOGUE_MODEL_PAGE_ROWS];
+  g_autoptr (GError) error = NULL;
+
+  page->index = index;
+  page->n_rows = MIN (SL_CATALOGUE_MODEL_PAGE_ROWS, n_stars (self) - first);
+  page->rows = g_new (SlCatalogueRow *, page->n_rows);
+  for (guint r = 0; r < page->n_rows; r++)
+    {
+      page->rows[r] = sl_catalogue_row_new (id_at (self, first + r));
+      by_id[r].id = id_at (self, first + r);
+      by_id[r].slot = r;
+    }
+  qsort (by_id, page->n_rows, sizeof by_id[0], compare_id_slots);
+
+  if ((!read_page_rows (self, self->inputs_stmt, by_id, page->n_rows, page, FALSE, &error)
+       || !read_page_rows (self, self->derived_stmt, by_id, page->n_rows, page, TRUE, &error))
+      && !self->warned)
+    {
+      g_warning ("the Catalogue cannot read rows: %s", error->message);
+      self->warned = TRUE;
+    }
+}
+
+/* The cached page INDEX, loaded (in place of the least recently used
+ * one when the cache is full) if it is not cached. */
+static Page *
+get_page (SlCatalogueModel *self, guint index)
+{
+  Page *page = NULL;
+
+  for (guint p = 0; p < self->n_pages; p++)
+    if (self->pages[p].index == index)
+      {
+        page = &self->pages[p];
+        break;
+      }
+  if (page == NULL)
+    {
+      if (self->n_pages < SL_CATALOGUE_MODEL_MAX_PAGES)
+        page = &self->pages[self->n_pages++];
+      else
+        {
+          page = &self->pages[0];
+          for (guint p = 1; p < self->n_pages; p++)
+            if (self->pages[p].used < page->used)
+              page = &self->pages[p];
+          page_clear (page);
+        }
+      load_page (self, page, index);
+      check_state (self);
+    }
+  page->used = ++self->tick;
+  return page;
+}
+
+/* Shows IDS (taken) instead of the current order. */
+static void
+replace_ids (SlCatalogueModel *self, GArray *ids)
+{
+  guint old_n = n_stars (self), new_n = ids ? ids->len : 0;
+
+  drop_pages (self);
+  g_clear_pointer (&self->ids, g_array_unref);
+  self->ids = ids;
+  check_state (self);
+  if (old_n > 0 || new_n > 0)
+    g_list_model_items_changed (G_LIST_MODEL (self), 0, old_n, new_n);
+}
+
+/* ------------------------------------------------------------------ */
+/* GListModel                                                         */
+
+static GType
+sl_catalogue_model_get_item_type (GListModel *list)
+{
+  return SL_TYPE_CATALOGUE_ROW;
+}
+
+static guint
+sl_catalogue_model_get_n_items (GListModel *list)
+{
+  return n_stars (SL_CATALOGUE_MODEL (list));
+}
+
+static gpointer
+sl_catalogue_model_get_item (GListModel *list, guint position)
+{
+  SlCatalogueModel *self = SL_CATALOGUE_MODEL (list);
+  Page *page;
+
+  if (position >= n_stars (self))
+    return NULL;
+  page = get_page (self, position / SL_CATALOGUE_MODEL_PAGE_ROWS);
+  return g_object_ref (page->rows[position % SL_CATALOGUE_MODEL_PAGE_ROWS]);
+}
+
+static void
+sl_catalogue_model_list_model_init (GListModelInterface *iface)
+{
+  iface->get_item_type = sl_catalogue_model_get_item_type;
+  iface->get_n_items = sl_catalogue_model_get_n_items;
+  iface->get_item = sl_catalogue_model_get_item;
+}
+
+/* ------------------------------------------------------------------ */
+/* The project                                                        */
+
+static void
+close_project (SlCatalogueModel *self)
+{
+  g_clear_pointer (&self->inputs_stmt, sqlite3_finalize);
+  g_clear_pointer (&self->derived_stmt, sqlite3_finalize);
+  g_clear_pointer (&self->designation_stmt, sqlite3_finalize);
+  g_clear_pointer (&self->id_stmt, sqlite3_finalize);
+  g_clear_pointer (&self->project, sl_project_close);
+  g_clear_pointer (&self->path, g_free);
+  self->warned = FALSE;
+}
+
+/* " IN (?1, ..., ?PAGE_ROWS) ORDER BY COLUMN" */
+static char *
+page_where_sql (const char *column)
+{
+  GString *sql = g_string_new (NULL);
+
+  g_string_append_printf (sql, " WHERE %s IN (", column);
+  for (guint i = 1; i <= SL_CATALOGUE_MODEL_PAGE_ROWS; i++)
+    g_string_append_printf (sql, "%s?%u", i > 1 ? ", " : "", i);
+  g_string_append_printf (sql, ") ORDER BY %s", column);
+  return g_string_free (sql, FALSE);
+}
+
+static gboolean
+open_project (SlCatalogueModel *self, const char *path, GError **error)
+{
+  g_autofree char *inputs_where = page_where_sql ("s.id");
+  g_autofree char *derived_where = page_where_sql ("star_id");
+  g_autofree char *inputs_sql = g_strconcat (INPUTS_SQL, inputs_where, NULL);
+  g_autofree char *derived_sql = sl_derived_select_sql (derived_where);
+
+  self->project = open_reader (path, error);
+  if (self->project == NULL)
+    return FALSE;
+  self->path = g_strdup (path);
+  self->inputs_stmt = sl_project_prepare (self->project, inputs_sql, error);
+  if (self->inputs_stmt)
+    self->derived_stmt = sl_project_prepare (self->project, derived_sql, error);
+  if (self->derived_stmt)
+    self->designation_stmt = sl_project_prepare (self->project, "SELECT designation FROM stars WHERE id = ?", error);
+  if (self->designation_stmt)
+    self->id_stmt = sl_project_prepare (self->project, "SELECT id FROM stars WHERE designation = ?", error);
+  return self->id_stmt != NULL;
+}
+
+gboolean
+sl_catalogue_model_set_project (SlCatalogueModel *self, const char *path, GError **error)
+{
+  g_autoptr (GArray) ids = NULL;
+
+  g_return_val_if_fail (SL_IS_CATALOGUE_MODEL (self), FALSE);
+
+  self->generation++;
+  drop_pages (self);
+  close_project (self);
+  if (path != NULL)
+    {
+      if (open_project (self, path, error))
+        ids = query_order (self->project, self->sort_column, self->descending, NULL, error);
+      if (ids == NULL)
+        close_project (self);
+    }
+  replace_ids (self, g_steal_pointer (&ids));
+  return path == NULL || self->project != NULL;
+}
+
+const char *
+sl_catalogue_model_get_path (SlCatalogueModel *self)
+{
+  g_return_val_if_fail (SL_IS_CATALOGUE_MODEL (self), NULL);
+  return self->path;
+}
+
+gboolean
+sl_catalogue_model_sort (SlCatalogueModel *self, SlCatalogueColumn column, gboolean descending, GError **error)
+{
+  GArray *ids;
+
+  g_return_val_if_fail (SL_IS_CATALOGUE_MODEL (self), FALSE);
+  g_return_val_if_fail (column <= SL_CATALOGUE_COLUMN_NONE, FALSE);
+
+  self->generation++;
+  self->sort_column = column;
+  self->descending = descending;
+  if (self->project == NULL)
+    return TRUE;
+  ids = query_order (self->project, column, descending, NULL, error);
+  if (ids == NULL)
+    return FALSE;
+  replace_ids (self, ids);
+  return TRUE;
+}
+
+gboolean
+sl_catalogue_model_reload (SlCatalogueModel *self, GError **error)
+{
+  g_return_val_if_fail (SL_IS_CATALOGUE_MODEL (self), FALSE);
+  return sl_catalogue_model_sort (self, self->sort_column, self->descending, error);
+}
+
+void
+sl_catalogue_model_get_sort (SlCatalogueModel *self, SlCatalogueColumn *column, gboolean *descending)
+{
+  g_return_if_fail (SL_IS_CATALOGUE_MODEL (self));
+
+  if (column)
+    *column = self->sort_column;
+  if (descending)
+    *descending = self->descending;
+}
+
+/* An order computed in a thread, on a connection of its own. */
+typedef struct {
+  char             *path;
+  SlCatalogueColumn column;
+  gboolean          descending;
+  guint             generation;   /* the model's when asked */
+} OrderJob;
+
+static void
+order_job_free (gpointer data)
+{
+  OrderJob *job = data;
+
+  g_free (job->path);
+  g_free (job);
+}
+
+static void
+order_thread (GTask *task, gpointer source, gpointer data, GCancellable *cancellable)
+{
+  OrderJob *job = data;
+  GError *error = NULL;
+  g_autoptr (SlProject) project = open_reader (job->path, &error);
+  GArray *ids = project ? query_order (project, job->column, job->descending, cancellable, &error) : NULL;
+
+  if (ids)
+    g_task_return_pointer (task, ids, (GDestroyNotify) g_array_unref);
+  else
+    g_task_return_error (task, error);
+}
+
+/* Back on the main thread: swaps the order in unless something newer
+ * came first, then completes the caller's task. */
+static void
+on_order_ready (GObject *source, GAsyncResult *result, gpointer user_data)
+{
+  SlCatalogueModel *self = SL_CATALOGUE_MODEL (source);
+  g_autoptr (GTask) outer = user_data;
+  OrderJob *job = g_task_get_task_data (G_TASK (result));
+  GError *error = NULL;
+  GArray *ids = g_task_propagate_pointer (G_TASK (result), &error);
+
+  if (ids == NULL)
+    {
+      g_task_return_error (outer, error);
+      return;
+    }
+  if (job->generation != self->generation)
+    {
+      g_array_unref (ids);
+      g_task_return_new_error (outer, G_IO_ERROR, G_IO_ERROR_CANCELLED, "superseded");
+      return;
+    }
+  replace_ids (self, ids);
+  g_task_return_boolean (outer, TRUE);
+}
+
+static void
+order_async (SlCatalogueModel *self, SlCatalogueColumn column, gboolean descending, GCancellable *cancellable,
+             GAsyncReadyCallback callback, gpointer user_data)
+{
+  GTask *outer = g_task_new (self, cancellable, callback, user_data);
+  g_autoptr (GTask) inner = NULL;
+  OrderJob *job;
+
+  g_task_set_source_tag (outer, order_async);
+  self->generation++;
+  self->sort_column = column;
+  self->descending = descending;
+  if (self->project == NULL)
+    {
+      g_task_return_boolean (outer, TRUE);
+      g_object_unref (outer);
+      return;
+    }
+  job = g_new0 (OrderJob, 1);
+  job->path = g_strdup (self->path);
+  job->column = column;
+  job->descending = descending;
+  job->generation = self->generation;
+  inner = g_task_new (self, cancellable, on_order_ready, outer);
+  g_task_set_task_data (inner, job, order_job_free);
+  g_task_run_in_thread (inner, order_thread);
+}
+
+void
+sl_catalogue_model_sort_async (SlCatalogueModel *self, SlCatalogueColumn column, gboolean descending,
+                               GCancellable *cancellable, GAsyncReadyCallback callback, gpointer user_data)
+{
+  g_return_if_fail (SL_IS_CATALOGUE_MODEL (self));
+  g_return_if_fail (column <= SL_CATALOGUE_COLUMN_NONE);
+
+  order_async (self, column, descending, cancellable, callback, user_data);
+}
+
+void
+sl_catalogue_model_reload_async (SlCatalogueModel *self, GCancellable *cancellable, GAsyncReadyCallback callback,
+                                 gpointer user_data)
+{
+  g_return_if_fail (SL_IS_CATALOGUE_MODEL (self));
+
+  order_async (self, self->sort_column, self->descending, cancellable, callback, user_data);
+}
+
+gboolean
+sl_catalogue_model_order_finish (SlCatalogueModel *self, GAsyncResult *result, GError **error)
+{
+  g_return_val_if_fail (g_task_is_valid (result, self), FALSE);
+  g_return_val_if_fail (g_task_get_source_tag (G_TASK (result)) == order_async, FALSE);
+
+  return g_task_propagate_boolean (G_TASK (result), error);
+}
+
+GArray *
+sl_catalogue_model_find (SlCatalogueModel *self, const char *const *designations)
+{
+  g_autoptr (GHashTable) wanted = g_hash_table_new (g_int64_hash, g_int64_equal);
+  g_autofree gint64 *found = NULL;
+  GArray *positions = g_array_new (FALSE, FALSE, sizeof (guint));
+  guint n_wanted = designations ? g_strv_length ((char **) designations) : 0, n_found = 0;
+
+  g_return_val_if_fail (SL_IS_CATALOGUE_MODEL (self), positions);
+
+  if (self->project == NULL || n_wanted == 0)
+    return positions;
+  found = g_new (gint64, n_wanted);
+  for (guint i = 0; i < n_wanted; i++)
+    {
+      sqlite3_bind_text (self->id_stmt, 1, designations[i], -1, SQLITE_STATIC);
+      if (sqlite3_step (self->id_stmt) == SQLITE_ROW)
+        {
+          found[n_found] = sqlite3_column_int64 (self->id_stmt, 0);
+          g_hash_table_add (wanted, &found[n_found++]);
+        }
+      sqlite3_reset (self->id_stmt);
+    }
+  sqlite3_clear_bindings (self->id_stmt);
+  /* One pass over the order: a hash lookup a star. */
+  for (guint p = 0; p < n_stars (self) && positions->len < g_hash_table_size (wanted); p++)
+    {
+      gint64 id = id_at (self, p);
+
+      if (g_hash_table_contains (wanted, &id))
+        g_array_append_val (positions, p);
+    }
+  return positions;
+}
+
+char **
+sl_catalogue_model_get_designations (SlCatalogueModel *self, const guint *positions, guint n_positions)
+{
+  g_autoptr (GStrvBuilder) builder = g_strv_builder_new ();
+
+  g_return_val_if_fail (SL_IS_CATALOGUE_MODEL (self), NULL);
+
+  for (guint i = 0; i < n_positions; i++)
+    {
+      guint position = positions[i], index = position / SL_CATALOGUE_MODEL_PAGE_ROWS;
+      const char *designation = NULL;
+
+      if (position >= n_stars (self))
+        continue;
+      for (guint p = 0; p < self->n_pages && designation == NULL; p++)
+        if (self->pages[p].index == index)
+          designation = sl_catalogue_row_get_designation (self->pages[p].rows[position % SL_CATALOGUE_MODEL_PAGE_ROWS]);
+      if (designation)
+        {
+          g_strv_builder_add (builder, designation);
+          continue;
+        }
+      sqlite3_bind_int64 (self->designation_stmt, 1, id_at (self, position));
+      if (sqlite3_step (self->designation_stmt) == SQLITE_ROW)
+        g_strv_builder_add (builder, (const char *) sqlite3_column_text (self->designation_stmt, 0));
+      sqlite3_reset (self->designation_stmt);
+    }
+  return g_strv_builder_end (builder);
+}
+
+guint
+sl_catalogue_model_get_cached_rows (SlCatalogueModel *self)
+{
+  guint rows = 0;
+
+  g_return_val_if_fail (SL_IS_CATALOGUE_MODEL (self), 0);
+
+  for (guint p = 0; p < self->n_pages; p++)
+    rows += self->pages[p].n_rows;
+  return rows;
+}
+
+/* ------------------------------------------------------------------ */
+/* Construction                                                       */
+
+static void
+sl_catalogue_model_finalize (GObject *object)
+{
+  SlCatalogueModel *self = SL_CATALOGUE_MODEL (object);
+
+  drop_pages (self);
+  g_clear_pointer (&self->ids, g_array_unref);
+  close_project (self);
+  G_OBJECT_CLASS (sl_catalogue_model_parent_class)->finalize (object);
+}
+
+static void
+sl_catalogue_model_class_init (SlCatalogueModelClass *klass)
+{
+  G_OBJECT_CLASS (klass)->finalize = sl_catalogue_model_finalize;
+}
+
+static void
+sl_catalogue_model_init (SlCatalogueModel *self)
+{
+  self->sort_column = SL_CATALOGUE_COLUMN_NONE;
+}
+
+SlCatalogueModel *
+sl_catalogue_model_new (void)
+{
+  return g_object_new (SL_TYPE_CATALOGUE_MODEL, NULL);
+}

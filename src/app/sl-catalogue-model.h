@@ -1,0 +1,68 @@
+/* sl-catalogue-model.h: the stars of a project as a GListModel of
+ * SlCatalogueRow, for the Catalogue.
+ *
+ * A million stars without a million objects: the model keeps the star ids
+ * in display order (8 bytes a star, sorted in SQL) and reads rows on
+ * demand, a page of SL_CATALOGUE_MODEL_PAGE_ROWS at a time, keeping at
+ * most SL_CATALOGUE_MODEL_MAX_PAGES pages (least recently used dropped).
+ * Sorting replaces the id order and announces every item changed; rows
+ * are never re-sorted one by one.  The model reads through a connection
+ * of its own, made read-only; WAL lets it read while another connection
+ * writes.
+ */
+#pragma once
+
+#include <gio/gio.h>
+
+#include "sl-catalogue-row.h"
+
+G_BEGIN_DECLS
+
+#define SL_CATALOGUE_MODEL_PAGE_ROWS 256
+#define SL_CATALOGUE_MODEL_MAX_PAGES 16
+
+#define SL_TYPE_CATALOGUE_MODEL (sl_catalogue_model_get_type ())
+G_DECLARE_FINAL_TYPE (SlCatalogueModel, sl_catalogue_model, SL, CATALOGUE_MODEL, GObject)
+
+SlCatalogueModel *sl_catalogue_model_new (void);
+
+/* Shows PATH's stars in the model's current order; NULL: none.  On an
+ * error the model is left empty. */
+gboolean  sl_catalogue_model_set_project (SlCatalogueModel *self, const char *path, GError **error);
+const char *sl_catalogue_model_get_path  (SlCatalogueModel *self);
+
+/* Reads the stars again (after an import or a derivation), keeping the
+ * order. */
+gboolean  sl_catalogue_model_reload (SlCatalogueModel *self, GError **error);
+
+/* Orders the stars by COLUMN (SL_CATALOGUE_COLUMN_NONE: by id), missing
+ * values last in both directions, ties by id. */
+gboolean  sl_catalogue_model_sort (SlCatalogueModel *self, SlCatalogueColumn column, gboolean descending,
+                                   GError **error);
+/* The order asked for last (shown, or being computed by an async call). */
+void      sl_catalogue_model_get_sort (SlCatalogueModel *self, SlCatalogueColumn *column, gboolean *descending);
+
+/* The same two off the main thread: the model keeps showing the old order
+ * until the new one is ready (seconds at a million stars), then swaps.  A
+ * later request, set_project or a sync call supersedes a pending one,
+ * which then fails with G_IO_ERROR_CANCELLED. */
+void      sl_catalogue_model_sort_async   (SlCatalogueModel *self, SlCatalogueColumn column, gboolean descending,
+                                           GCancellable *cancellable, GAsyncReadyCallback callback,
+                                           gpointer user_data);
+void      sl_catalogue_model_reload_async (SlCatalogueModel *self, GCancellable *cancellable,
+                                           GAsyncReadyCallback callback, gpointer user_data);
+gboolean  sl_catalogue_model_order_finish (SlCatalogueModel *self, GAsyncResult *result, GError **error);
+
+/* The positions (ascending) of the stars named; unknown names are
+ * skipped.  A GArray of guint. */
+GArray   *sl_catalogue_model_find (SlCatalogueModel *self, const char *const *designations);
+
+/* The designations at N_POSITIONS positions, in that order (GStrv). */
+char    **sl_catalogue_model_get_designations (SlCatalogueModel *self, const guint *positions,
+                                               guint n_positions);
+
+/* Rows held in the page cache (for tests): at most
+ * SL_CATALOGUE_MODEL_PAGE_ROWS * SL_CATALOGUE_MODEL_MAX_PAGES. */
+guint     sl_catalogue_model_get_cached_rows (SlCatalogueModel *self);
+
+G_END_DECLS

@@ -1,0 +1,34 @@
+/* sl-catalogue-view.h: the Catalogue: a table of the project's stars with
+ * chosen columns (inputs and derived values, each value with its interval
+ * rounded to the uncertainty's digits, flags as small icons with a tooltip
+ * each), sortable by any column.  Backed by SlCatalogueModel, a GListModel
+ * over the project database with a paged cache: smooth at a million stars
+ * without one object per star in memory. */
+#pragma once
+
+#include <gtk/gtk.h>
+
+#include "project.h"
+
+G_BEGIN_DECLS
+
+#define SL_TYPE_CATALOGUE_VIEW (sl_catalogue_view_get_type ())
+G_DECLARE_FINAL_TYPE (SlCatalogueView, sl_catalogue_view, SL, CATALOGUE_VIEW, GtkWidget)
+
+SlCatalogueView *sl_catalogue_view_new (void);
+
+/* Shows PATH's stars (opens its own read connection); NULL clears. */
+gboolean sl_catalogue_view_set_project (SlCatalogueView *view, const char *path, GError **error);
+
+/* Re-reads the rows after the project changed (import, derive). */
+void     sl_catalogue_view_reload (SlCatalogueView *view);
+
+/* Selects (and scrolls to) the stars named; NULL: none. */
+void     sl_catalogue_view_set_selection (SlCatalogueView *view, const char *const *designations);
+
+/* Signals:
+ *   "selection-changed" (GStrv designations)
+ *   "cell-activated" (const char *designation, const char *quantity):
+ *       a click on a value: the window shows its trail. */
+
+G_END_DECLS

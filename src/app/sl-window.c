@@ -1,0 +1,620 @@
+/* sl-window.c: a project's window.
+ *
+ * Contents:
+ *   the project ........... sl_window_open_project, load_stars (a GTask thread)
+ *   the selection ......... set_selection: one selection for the table and every view
+ *   trail and ledger ...... show_trail, show_ledger
+ *   actions ............... open, new, open-demo, derive (a GTask thread)
+ *   drag and drop ......... a project opens, a CSV file is imported
+ *   settings .............. window size and pane positions (GSettings)
+ *
+ * The window computes nothing: it calls src/core and src/plot.
+ */
+#include "sl-window.h"
+
+#include <glib/gi18n.h>
+#include <glib/gstdio.h>
+#include <math.h>
+
+#include "derivation.h"
+#include "explain.h"
+#include "import.h"
+#include "ledger.h"
+#include "sl-application.h"
+#include "sl-catalogue-view.h"
+#include "sl-plot-view.h"
+#include "starset.h"
+
+struct _SlWindow {
+  AdwApplicationWindow parent_instance;
+
+  /* Template widgets. */
+  AdwToastOverlay *toasts;
+  AdwWindowTitle  *window_title;
+  GtkStack        *stack;
+  GtkPaned        *main_paned, *left_paned, *views_paned, *lower_views_paned;
+  GtkBox          *catalogue_box, *hrd_box, *sky_box, *parallax_box;
+  GtkNotebook     *side_notebook;
+  GtkTextView     *trail_view, *ledger_view;
+
+  SlCatalogueView *catalogue;
+  SlPlotView      *views[3];          /* indexed by SlPlotKind */
+
+  char            *path;              /* the open project, or NULL */
+  SlStarSet       *stars;             /* what the views draw */
+  GStrv            selection;         /* selected designations */
+  GCancellable    *work;              /* the running background job, if any */
+  GSettings       *settings;
+};
+
+G_DEFINE_FINAL_TYPE (SlWindow, sl_window, ADW_TYPE_APPLICATION_WINDOW)
+
+static void
+toast (SlWindow *self, const char *message)
+{
+  adw_toast_overlay_add_toast (self->toasts, adw_toast_new (message));
+}
+
+/* ------------------------------------------------------------------ */
+/* Trail and ledger                                                   */
+
+static void
+set_text (GtkTextView *view, const char *text)
+{
+  gtk_text_buffer_set_text (gtk_text_view_get_buffer (view), text, -1);
+}
+
+static void
+show_trail (SlWindow *self, const char *designation, const char *quantity)
+{
+  g_autoptr (SlProject) project = NULL;
+  g_autoptr (GString) text = g_string_new (NULL);
+  g_autoptr (GError) error = NULL;
+
+  if (self->path == NULL)
+    return;
+  project = sl_project_open (self->path, &error);
+  if (project == NULL || !sl_explain (project, designation, quantity, SL_EXPLAIN_TEXT, text, &error))
+    g_string_assign (text, error->message);
+  set_text (self->trail_view, text->str);
+  gtk_notebook_set_current_page (self->side_notebook, 0);
+}
+
+static void
+show_ledger (SlWindow *self, SlProject *project)
+{
+  g_autoptr (GPtrArray) entries = NULL;
+  g_autoptr (GString) text = g_string_new (NULL);
+  g_autoptr (GError) error = NULL;
+
+  entries = sl_ledger_read (project, &error);
+  if (entries == NULL)
+    {
+      set_text (self->ledger_view, error->message);
+      return;
+    }
+  /* Newest first. */
+  for (guint i = entries->len; i-- > 0;)
+    {
+      const SlLedgerEntry *e = entries->pdata[i];
+
+      g_string_append_printf (text, "%s  %-10s  %-8s  %s\n", e->at, e->who, e->action, e->summary);
+    }
+  set_text (self->ledger_view, text->str);
+}
+
+/* ------------------------------------------------------------------ */
+/* The selection                                                      */
+
+static void
+set_selection (SlWindow *self, const char *const *designations)
+{
+  g_strfreev (self->selection);
+  self->selection = g_strdupv ((char **) designations);
+  for (guint i = 0; i < G_N_ELEMENTS (self->views); i++)
+    sl_plot_view_set_selection (self->views[i], (const char *const *) self->selection);
+  sl_catalogue_view_set_selection (self->catalogue, (const char *const *) self->selection);
+  if (self->selection && self->selection[0])
+    show_trail (self, self->selection[0], "lum");
+}
+
+static void
+on_view_star_selected (SlPlotView *view, const char *designation, gboolean extend, SlWindow *self)
+{
+  g_autoptr (GStrvBuilder) builder = g_strv_builder_new ();
+  g_auto (GStrv) selection = NULL;
+
+  if (extend && self->selection)
+    g_strv_builder_addv (builder, (const char **) self->selection);
+  if (designation && !(extend && self->selection && g_strv_contains ((const char *const *) self->selection, designation)))
+    g_strv_builder_add (builder, designation);
+  selection = g_strv_builder_end (builder);
+  set_selection (self, (const char *const *) selection);
+}
+
+static void
+on_view_region_selected (SlPlotView *view, GStrv designations, SlWindow *self)
+{
+  set_selection (self, (const char *const *) designations);
+}
+
+static void
+on_catalogue_selection_changed (SlCatalogueView *view, GStrv designations, SlWindow *self)
+{
+  g_strfreev (self->selection);
+  self->selection = g_strdupv (designations);
+  for (guint i = 0; i < G_N_ELEMENTS (self->views); i++)
+    sl_plot_view_set_selection (self->views[i], (const char *const *) self->selection);
+}
+
+static void
+on_catalogue_cell_activated (SlCatalogueView *view, const char *designation, const char *quantity,
+                             SlWindow *self)
+{
+  show_trail (self, designation, quantity);
+}
+
+/* ------------------------------------------------------------------ */
+/* The project                                                        */
+
+static void
+set_stars (SlWindow *self, SlStarSet *stars)
+{
+  for (guint i = 0; i < G_N_ELEMENTS (self->views); i++)
+    sl_plot_view_set_stars (self->views[i], stars);
+  g_clear_pointer (&self->stars, sl_star_set_free);
+  self->stars = stars;
+  for (guint i = 0; i < G_N_ELEMENTS (self->views); i++)
+    sl_plot_view_set_selection (self->views[i], (const char *const *) self->selection);
+}
+
+static void
+load_stars_thread (GTask *task, gpointer source, gpointer task_data, GCancellable *cancellable)
+{
+  const char *path = task_data;
+  g_autoptr (SlProject) project = NULL;
+  GError *error = NULL;
+  SlStarSet *stars = NULL;
+
+  project = sl_project_open (path, &error);
+  if (project)
+    stars = sl_star_set_load (project, NULL, &error);
+  if (stars)
+    g_task_return_pointer (task, stars, (GDestroyNotify) sl_star_set_free);
+  else
+    g_task_return_error (task, error);
+}
+
+static void
+on_stars_loaded (GObject *source, GAsyncResult *result, gpointer user_data)
+{
+  SlWindow *self = SL_WINDOW (source);
+  g_autoptr (GError) error = NULL;
+  SlStarSet *stars = g_task_propagate_pointer (G_TASK (result), &error);
+
+  if (stars == NULL)
+    {
+      if (!g_error_matches (error, G_IO_ERROR, G_IO_ERROR_CANCELLED))
+        toast (self, error->message);
+      return;
+    }
+  set_stars (self, stars);
+}
+
+/* Loads the views' stars off the main thread: a million stars take seconds. */
+static void
+load_stars (SlWindow *self)
+{
+  g_autoptr (GTask) task = NULL;
+
+  g_cancellable_cancel (self->work);
+  g_clear_object (&self->work);
+  self->work = g_cancellable_new ();
+  task = g_task_new (self, self->work, on_stars_loaded, NULL);
+  g_task_set_task_data (task, g_strdup (self->path), g_free);
+  g_task_run_in_thread (task, load_stars_thread);
+}
+
+/* Reads everything again after the project changed. */
+static void
+reload (SlWindow *self)
+{
+  g_autoptr (SlProject) project = NULL;
+  g_autoptr (GError) error = NULL;
+
+  project = sl_project_open (self->path, &error);
+  if (project == NULL)
+    {
+      toast (self, error->message);
+      return;
+    }
+  show_ledger (self, project);
+  sl_catalogue_view_reload (self->catalogue);
+  load_stars (self);
+}
+
+gboolean
+sl_window_open_project (SlWindow *self, const char *path, GError **error)
+{
+  g_autoptr (SlProject) project = NULL;
+  g_autofree char *name = NULL;
+
+  g_return_val_if_fail (SL_IS_WINDOW (self), FALSE);
+
+  project = sl_project_open (path, error);
+  if (project == NULL || !sl_catalogue_view_set_project (self->catalogue, path, error))
+    return FALSE;
+
+  g_free (self->path);
+  self->path = g_strdup (path);
+  name = g_path_get_basename (path);
+  adw_window_title_set_title (self->window_title, name);
+  adw_window_title_set_subtitle (self->window_title, path);
+  gtk_stack_set_visible_child_name (self->stack, "project");
+  set_text (self->trail_view, _("Click a value in the table to see how it was obtained."));
+  show_ledger (self, project);
+  gtk_widget_action_set_enabled (GTK_WIDGET (self), "win.derive", TRUE);
+  {
+    g_autofree char *uri = g_filename_to_uri (path, NULL, NULL);
+
+    if (uri)
+      gtk_recent_manager_add_item (gtk_recent_manager_get_default (), uri);
+  }
+  load_stars (self);
+  return TRUE;
+}
+
+/* The demo project as build-aux/dev and README make it (data/demo/README.md
+ * describes the two files and their dialects). */
+static gboolean
+import_demo_file (SlProject *project, const char *dir, const char *file, const char *source_name,
+                  const char *const *map_specs, const char *const *missing, double epoch, GError **error)
+{
+  g_autofree char *path = g_build_filename (dir, file, NULL);
+  g_autoptr (GArray) maps = g_array_new (FALSE, FALSE, sizeof (SlColumnMap));
+  g_autoptr (SlImportReport) report = NULL;
+  SlImportOptions options;
+
+  g_array_set_clear_func (maps, (GDestroyNotify) sl_column_map_clear);
+  for (guint i = 0; map_specs && map_specs[i]; i++)
+    {
+      SlColumnMap map;
+
+      if (!sl_column_map_parse (map_specs[i], &map, error))
+        return FALSE;
+      g_array_append_val (maps, map);
+    }
+  sl_import_options_init (&options);
+  options.maps = (const SlColumnMap *) maps->data;
+  options.n_maps = maps->len;
+  options.missing = missing;
+  options.epoch = epoch;
+  options.source_name = source_name;
+  report = sl_import_csv (project, path, &options, error);
+  return report != NULL;
+}
+
+gboolean
+sl_window_open_demo (SlWindow *self, GError **error)
+{
+  static const char *const photometry_map[] = {
+    "id=star", "ra=ra_sexa:hms", "dec=dec_sexa:dms", "vmag=v", "vmag_err=v_sigma", "bv=b_minus_v",
+    "bv_err=b_minus_v_sigma", "ebv=reddening", "ebv_err=reddening_sigma", "sptype=spectral_type", NULL
+  };
+  static const char *const missing[] = { "99.99", NULL };
+  g_autofree char *dir = g_build_filename (g_get_user_cache_dir (), "starledger", NULL);
+  g_autofree char *path = g_build_filename (dir, "demo.starledger", NULL);
+  g_autofree char *wal = g_strconcat (path, "-wal", NULL);
+  g_autofree char *shm = g_strconcat (path, "-shm", NULL);
+  g_autoptr (SlProject) project = NULL;
+  SlDeriveParams params;
+  SlDeriveReport report;
+  const char *demo = sl_application_demo_dir ();
+
+  g_mkdir_with_parents (dir, 0700);
+  g_unlink (path);
+  g_unlink (wal);
+  g_unlink (shm);
+  project = sl_project_create (path, error);
+  sl_derive_params_init (&params);
+  if (project == NULL
+      || !import_demo_file (project, demo, "astrometry.csv", _("Larkspur Hill astrometry 2026"), NULL, NULL,
+                            NAN, error)
+      || !import_demo_file (project, demo, "photometry.csv", _("Partner photometry extract"), photometry_map,
+                            missing, 2000.0, error)
+      || !sl_derivation_run (project, &params, FALSE, NULL, NULL, NULL, &report, error))
+    return FALSE;
+  g_clear_pointer (&project, sl_project_close);
+  return sl_window_open_project (self, path, error);
+}
+
+/* ------------------------------------------------------------------ */
+/* Actions                                                            */
+
+static void
+on_open_response (GtkNativeDialog *dialog, int response, SlWindow *self)
+{
+  if (response == GTK_RESPONSE_ACCEPT)
+    {
+      g_autoptr (GFile) file = gtk_file_chooser_get_file (GTK_FILE_CHOOSER (dialog));
+      g_autofree char *path = g_file_get_path (file);
+      g_autoptr (GError) error = NULL;
+
+      if (path && !sl_window_open_project (self, path, &error))
+        toast (self, error->message);
+    }
+  g_object_unref (dialog);
+}
+
+static GtkFileFilter *
+project_filter (void)
+{
+  GtkFileFilter *filter = gtk_file_filter_new ();
+
+  gtk_file_filter_set_name (filter, _("Starledger projects"));
+  gtk_file_filter_add_pattern (filter, "*.starledger");
+  return filter;
+}
+
+static void
+open_action (GtkWidget *widget, const char *action, GVariant *parameter)
+{
+  SlWindow *self = SL_WINDOW (widget);
+  GtkFileChooserNative *dialog = gtk_file_chooser_native_new (_("Open a Project"), GTK_WINDOW (self),
+                                                              GTK_FILE_CHOOSER_ACTION_OPEN, _("_Open"),
+                                                              _("_Cancel"));
+  g_autoptr (GtkFileFilter) filter = project_filter ();
+
+  gtk_file_chooser_add_filter (GTK_FILE_CHOOSER (dialog), filter);
+  g_signal_connect (dialog, "response", G_CALLBACK (on_open_response), self);
+  gtk_native_dialog_show (GTK_NATIVE_DIALOG (dialog));
+}
+
+static void
+on_new_response (GtkNativeDialog *dialog, int response, SlWindow *self)
+{
+  if (response == GTK_RESPONSE_ACCEPT)
+    {
+      g_autoptr (GFile) file = gtk_file_chooser_get_file (GTK_FILE_CHOOSER (dialog));
+      g_autofree char *path = g_file_get_path (file);
+      g_autoptr (GError) error = NULL;
+      g_autoptr (SlProject) project = path ? sl_project_create (path, &error) : NULL;
+
+      if (project != NULL)
+        {
+          g_clear_pointer (&project, sl_project_close);
+          sl_window_open_project (self, path, &error);
+        }
+      if (error)
+        toast (self, error->message);
+    }
+  g_object_unref (dialog);
+}
+
+static void
+new_action (GtkWidget *widget, const char *action, GVariant *parameter)
+{
+  SlWindow *self = SL_WINDOW (widget);
+  GtkFileChooserNative *dialog = gtk_file_chooser_native_new (_("Create a Project"), GTK_WINDOW (self),
+                                                              GTK_FILE_CHOOSER_ACTION_SAVE, _("_Create"),
+                                                              _("_Cancel"));
+
+  gtk_file_chooser_set_current_name (GTK_FILE_CHOOSER (dialog), _("targets.starledger"));
+  g_signal_connect (dialog, "response", G_CALLBACK (on_new_response), self);
+  gtk_native_dialog_show (GTK_NATIVE_DIALOG (dialog));
+}
+
+static void
+open_demo_action (GtkWidget *widget, const char *action, GVariant *parameter)
+{
+  SlWindow *self = SL_WINDOW (widget);
+  g_autoptr (GError) error = NULL;
+
+  if (!sl_window_open_demo (self, &error))
+    toast (self, error->message);
+}
+
+static void
+derive_thread (GTask *task, gpointer source, gpointer task_data, GCancellable *cancellable)
+{
+  g_autoptr (SlProject) project = NULL;
+  SlDeriveReport *report = g_new0 (SlDeriveReport, 1);
+  SlDeriveParams params;
+  GError *error = NULL;
+
+  sl_derive_params_init (&params);
+  project = sl_project_open (task_data, &error);
+  if (project && sl_derivation_run (project, &params, FALSE, cancellable, NULL, NULL, report, &error))
+    g_task_return_pointer (task, report, g_free);
+  else
+    {
+      g_free (report);
+      g_task_return_error (task, error);
+    }
+}
+
+static void
+on_derived (GObject *source, GAsyncResult *result, gpointer user_data)
+{
+  SlWindow *self = SL_WINDOW (source);
+  g_autoptr (GError) error = NULL;
+  g_autofree SlDeriveReport *report = g_task_propagate_pointer (G_TASK (result), &error);
+  g_autofree char *message = NULL;
+
+  gtk_widget_action_set_enabled (GTK_WIDGET (self), "win.derive", TRUE);
+  if (report == NULL)
+    {
+      toast (self, error->message);
+      return;
+    }
+  message = g_strdup_printf (g_dngettext (GETTEXT_PACKAGE, "Derived %" G_GUINT64_FORMAT " star",
+                                          "Derived %" G_GUINT64_FORMAT " stars", report->computed),
+                             report->computed);
+  toast (self, message);
+  reload (self);
+}
+
+static void
+derive_action (GtkWidget *widget, const char *action, GVariant *parameter)
+{
+  SlWindow *self = SL_WINDOW (widget);
+  g_autoptr (GTask) task = NULL;
+
+  if (self->path == NULL)
+    return;
+  gtk_widget_action_set_enabled (widget, "win.derive", FALSE);
+  task = g_task_new (self, NULL, on_derived, NULL);
+  g_task_set_task_data (task, g_strdup (self->path), g_free);
+  g_task_run_in_thread (task, derive_thread);
+}
+
+/* ------------------------------------------------------------------ */
+/* Drag and drop                                                      */
+
+static gboolean
+on_drop (GtkDropTarget *target, const GValue *value, double x, double y, SlWindow *self)
+{
+  GFile *file = g_value_get_object (value);
+  g_autofree char *path = g_file_get_path (file);
+  g_autoptr (GError) error = NULL;
+
+  if (path == NULL)
+    return FALSE;
+  if (g_str_has_suffix (path, ".csv") && self->path)
+    {
+      g_autoptr (SlProject) project = sl_project_open (self->path, &error);
+      g_autoptr (SlImportReport) report = NULL;
+      SlImportOptions options;
+
+      sl_import_options_init (&options);
+      report = project ? sl_import_csv (project, path, &options, &error) : NULL;
+      if (report)
+        {
+          g_autofree char *message = g_strdup_printf (_("Imported %" G_GUINT64_FORMAT " rows, rejected %u"),
+                                                      report->rows_accepted, report->rejections->len);
+
+          toast (self, message);
+          reload (self);
+        }
+    }
+  else
+    sl_window_open_project (self, path, &error);
+  if (error)
+    toast (self, error->message);
+  return error == NULL;
+}
+
+/* ------------------------------------------------------------------ */
+/* Construction                                                       */
+
+static void
+add_view (SlWindow *self, SlPlotKind kind, GtkBox *box)
+{
+  self->views[kind] = sl_plot_view_new (kind);
+  gtk_widget_set_vexpand (GTK_WIDGET (self->views[kind]), TRUE);
+  gtk_widget_set_hexpand (GTK_WIDGET (self->views[kind]), TRUE);
+  gtk_box_append (box, GTK_WIDGET (self->views[kind]));
+  g_signal_connect (self->views[kind], "star-selected", G_CALLBACK (on_view_star_selected), self);
+  g_signal_connect (self->views[kind], "stars-selected-in-region", G_CALLBACK (on_view_region_selected), self);
+}
+
+static void
+sl_window_dispose (GObject *object)
+{
+  SlWindow *self = SL_WINDOW (object);
+
+  g_cancellable_cancel (self->work);
+  g_clear_object (&self->work);
+  for (guint i = 0; i < G_N_ELEMENTS (self->views); i++)
+    if (self->views[i])
+      sl_plot_view_set_stars (self->views[i], NULL);
+  g_clear_pointer (&self->stars, sl_star_set_free);
+  g_clear_pointer (&self->selection, g_strfreev);
+  g_clear_pointer (&self->path, g_free);
+  g_clear_object (&self->settings);
+  G_OBJECT_CLASS (sl_window_parent_class)->dispose (object);
+}
+
+static void
+sl_window_class_init (SlWindowClass *klass)
+{
+  GObjectClass *object_class = G_OBJECT_CLASS (klass);
+  GtkWidgetClass *widget_class = GTK_WIDGET_CLASS (klass);
+
+  object_class->dispose = sl_window_dispose;
+
+  gtk_widget_class_set_template_from_resource (widget_class, "/org/starledger/Starledger/sl-window.ui");
+  gtk_widget_class_bind_template_child (widget_class, SlWindow, toasts);
+  gtk_widget_class_bind_template_child (widget_class, SlWindow, window_title);
+  gtk_widget_class_bind_template_child (widget_class, SlWindow, stack);
+  gtk_widget_class_bind_template_child (widget_class, SlWindow, main_paned);
+  gtk_widget_class_bind_template_child (widget_class, SlWindow, left_paned);
+  gtk_widget_class_bind_template_child (widget_class, SlWindow, views_paned);
+  gtk_widget_class_bind_template_child (widget_class, SlWindow, lower_views_paned);
+  gtk_widget_class_bind_template_child (widget_class, SlWindow, catalogue_box);
+  gtk_widget_class_bind_template_child (widget_class, SlWindow, hrd_box);
+  gtk_widget_class_bind_template_child (widget_class, SlWindow, sky_box);
+  gtk_widget_class_bind_template_child (widget_class, SlWindow, parallax_box);
+  gtk_widget_class_bind_template_child (widget_class, SlWindow, side_notebook);
+  gtk_widget_class_bind_template_child (widget_class, SlWindow, trail_view);
+  gtk_widget_class_bind_template_child (widget_class, SlWindow, ledger_view);
+
+  /* Everything the window can do, in one place. */
+  gtk_widget_class_install_action (widget_class, "win.open", NULL, open_action);
+  gtk_widget_class_install_action (widget_class, "win.new", NULL, new_action);
+  gtk_widget_class_install_action (widget_class, "win.open-demo", NULL, open_demo_action);
+  gtk_widget_class_install_action (widget_class, "win.derive", NULL, derive_action);
+  gtk_widget_class_add_binding_action (widget_class, GDK_KEY_o, GDK_CONTROL_MASK, "win.open", NULL);
+  gtk_widget_class_add_binding_action (widget_class, GDK_KEY_n, GDK_CONTROL_MASK, "win.new", NULL);
+  gtk_widget_class_add_binding_action (widget_class, GDK_KEY_d, GDK_CONTROL_MASK, "win.derive", NULL);
+}
+
+static void
+bind_settings (SlWindow *self)
+{
+  GSettingsSchemaSource *source = g_settings_schema_source_get_default ();
+  g_autoptr (GSettingsSchema) schema = source ? g_settings_schema_source_lookup (source, SL_APPLICATION_ID, TRUE) : NULL;
+
+  /* Run from the build tree without the compiled schema: no memory. */
+  if (schema == NULL)
+    return;
+  self->settings = g_settings_new (SL_APPLICATION_ID);
+  g_settings_bind (self->settings, "window-width", self, "default-width", G_SETTINGS_BIND_DEFAULT);
+  g_settings_bind (self->settings, "window-height", self, "default-height", G_SETTINGS_BIND_DEFAULT);
+  g_settings_bind (self->settings, "window-maximized", self, "maximized", G_SETTINGS_BIND_DEFAULT);
+  g_settings_bind (self->settings, "table-width", self->main_paned, "position", G_SETTINGS_BIND_DEFAULT);
+  g_settings_bind (self->settings, "table-height", self->left_paned, "position", G_SETTINGS_BIND_DEFAULT);
+  g_settings_bind (self->settings, "diagram-height", self->views_paned, "position", G_SETTINGS_BIND_DEFAULT);
+  g_settings_bind (self->settings, "sky-width", self->lower_views_paned, "position", G_SETTINGS_BIND_DEFAULT);
+}
+
+static void
+sl_window_init (SlWindow *self)
+{
+  GtkDropTarget *drop;
+
+  gtk_widget_init_template (GTK_WIDGET (self));
+
+  self->catalogue = sl_catalogue_view_new ();
+  gtk_widget_set_vexpand (GTK_WIDGET (self->catalogue), TRUE);
+  gtk_box_append (self->catalogue_box, GTK_WIDGET (self->catalogue));
+  g_signal_connect (self->catalogue, "selection-changed", G_CALLBACK (on_catalogue_selection_changed), self);
+  g_signal_connect (self->catalogue, "cell-activated", G_CALLBACK (on_catalogue_cell_activated), self);
+  add_view (self, SL_PLOT_KIND_HRD, self->hrd_box);
+  add_view (self, SL_PLOT_KIND_SKY, self->sky_box);
+  add_view (self, SL_PLOT_KIND_PARALLAX, self->parallax_box);
+
+  drop = gtk_drop_target_new (G_TYPE_FILE, GDK_ACTION_COPY);
+  g_signal_connect (drop, "drop", G_CALLBACK (on_drop), self);
+  gtk_widget_add_controller (GTK_WIDGET (self), GTK_EVENT_CONTROLLER (drop));
+
+  gtk_window_set_default_size (GTK_WINDOW (self), 1280, 820);
+  bind_settings (self);
+  gtk_widget_action_set_enabled (GTK_WIDGET (self), "win.derive", FALSE);
+}
+
+SlWindow *
+sl_window_new (GtkApplication *application)
+{
+  return g_object_new (SL_TYPE_WINDOW, "application", application, NULL);
+}
