@@ -2,6 +2,7 @@
 #include "sl-application.h"
 
 #include <glib/gi18n.h>
+#include <stdlib.h>
 
 #include "sl-window.h"
 
@@ -96,7 +97,12 @@ sl_application_activate (GApplication *app)
     }
   window = present_window (self);
   if (self->demo && !sl_window_open_demo (window, &error))
-    g_printerr ("starledger: %s\n", error->message);
+    {
+      g_printerr ("starledger: %s\n", error->message);
+      /* The smoke test must fail, not draw an empty window. */
+      if (self->exit_after_startup)
+        exit (1);
+    }
 }
 
 static void

@@ -318,8 +318,14 @@ sl_figure_message (SlFigure *fig, const char *message)
 {
   g_autofree char *escaped = g_markup_escape_text (message, -1);
 
+  /* Wrapped to the page, centred: a narrow pane must show it all. */
+  pango_layout_set_width (fig->layout, (int) (MAX (fig->width - 4 * fig->style.font_pt, 40) * PANGO_SCALE));
+  pango_layout_set_wrap (fig->layout, PANGO_WRAP_WORD);
+  pango_layout_set_alignment (fig->layout, PANGO_ALIGN_CENTER);
   cairo_set_source_rgb (fig->cr, 0.25, 0.25, 0.25);
   sl_figure_text (fig, fig->width / 2, fig->height / 2, 0.5, 0.5, 1.3, 0, escaped);
+  pango_layout_set_width (fig->layout, -1);
+  pango_layout_set_alignment (fig->layout, PANGO_ALIGN_LEFT);
 }
 
 void
