@@ -429,7 +429,10 @@ get_page (SlCatalogueModel *self, guint index)
   return page;
 }
 
-/* Shows IDS (taken) instead of the current order. */
+/* Shows IDS (taken) instead of the current order, announced as every row
+ * removed and then every row added: in one signal, GTK 4.8's list item
+ * manager would look for the rows it tracks (focus, anchor) among all the
+ * added items by identity, and so read every page of a million stars. */
 static void
 replace_ids (SlCatalogueModel *self, GArray *ids)
 {
@@ -437,10 +440,13 @@ replace_ids (SlCatalogueModel *self, GArray *ids)
 
   drop_pages (self);
   g_clear_pointer (&self->ids, g_array_unref);
+  check_state (self);
+  if (old_n > 0)
+    g_list_model_items_changed (G_LIST_MODEL (self), 0, old_n, 0);
   self->ids = ids;
   check_state (self);
-  if (old_n > 0 || new_n > 0)
-    g_list_model_items_changed (G_LIST_MODEL (self), 0, old_n, new_n);
+  if (new_n > 0)
+    g_list_model_items_changed (G_LIST_MODEL (self), 0, 0, new_n);
 }
 
 /* ------------------------------------------------------------------ */

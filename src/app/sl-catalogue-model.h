@@ -5,8 +5,8 @@
  * in display order (8 bytes a star, sorted in SQL) and reads rows on
  * demand, a page of SL_CATALOGUE_MODEL_PAGE_ROWS at a time, keeping at
  * most SL_CATALOGUE_MODEL_MAX_PAGES pages (least recently used dropped).
- * Sorting replaces the id order and announces every item changed; rows
- * are never re-sorted one by one.  The model reads through a connection
+ * Sorting replaces the id order and announces every item removed, then
+ * every item added (two signals); rows are never re-sorted one by one.  The model reads through a connection
  * of its own, made read-only; WAL lets it read while another connection
  * writes.
  */

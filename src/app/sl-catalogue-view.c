@@ -8,10 +8,15 @@
  *   selection ........ kept as designations, so it survives sorts and reloads
  *   the project ...... sl_catalogue_view_set_project, _reload
  *
+ * The selection model is SlCatalogueSelection, a bitset: GtkMultiSelection
+ * would fetch (and keep) every selected row, all million of them after
+ * Ctrl+A.
+ *
  * Scrolling to a selected star: GTK 4.8 has no gtk_column_view_scroll_to,
  * so the view activates "list.scroll-to-item" on the column view's inner
  * GtkListView (the action its rows use to scroll to the focused row),
- * which brings the row into view.
+ * which brings the row into view.  That happens on set_selection and after
+ * a sort; a reload keeps the scroll position instead.
  */
 #include "sl-catalogue-view.h"
 
@@ -60,6 +65,11 @@ struct _SlCatalogueView {
   guint                 clicked_position;  /* the last cell clicked ... */
   SlCatalogueColumn     clicked_column;
   gint64                clicked_at;        /* ... and when, monotonic us */
+
+  /* A reload shows the same order again: the rows stay where they were. */
+  gboolean              reloading;         /* a reload is pending */
+  double                scroll;            /* px, the vertical scroll before the rows were replaced */
+  guint                 restore_scroll;    /* idle source putting it back */
 };
 
 G_DEFINE_FINAL_TYPE (SlCatalogueView, sl_catalogue_view, GTK_TYPE_WIDGET)
@@ -289,13 +299,33 @@ on_selection_changed (GtkSelectionModel *model, guint position, guint n_items, S
   g_signal_emit (self, signals[SELECTION_CHANGED], 0, self->selected);
 }
 
-/* After the model showed another order or project: the same stars stay
- * selected, wherever they are now. */
+static gboolean
+restore_scroll (gpointer data)
+{
+  SlCatalogueView *self = data;
+
+  self->restore_scroll = 0;
+  gtk_adjustment_set_value (gtk_scrollable_get_vadjustment (GTK_SCROLLABLE (self->column_view)), self->scroll);
+  return G_SOURCE_REMOVE;
+}
+
+/* After the model showed another order or project (all rows removed,
+ * then all added): the same stars stay selected, wherever they are now.
+ * After a reload the table keeps its scroll position (set once the new
+ * rows are laid out); after a sort it shows the first selected star. */
 static void
 on_model_items_changed (GListModel *model, guint position, guint removed, guint added, SlCatalogueView *self)
 {
   self->clicked_position = GTK_INVALID_LIST_POSITION;   /* another star's row now */
-  apply_selection (self, FALSE);
+  if (added == 0)
+    {
+      self->scroll = gtk_adjustment_get_value (gtk_scrollable_get_vadjustment (GTK_SCROLLABLE (self->column_view)));
+      return;
+    }
+  apply_selection (self, !self->reloading);
+  if (self->reloading && self->restore_scroll == 0)
+    self->restore_scroll = g_idle_add (restore_scroll, self);
+  self->reloading = FALSE;
 }
 
 void
@@ -370,6 +400,7 @@ on_sorter_changed (GtkSorter *sorter, GtkSorterChange change, SlCatalogueView *s
   SlCatalogueColumn column = primary_sort (self, &descending);
 
   start_ordering (self);
+  self->reloading = FALSE;
   sl_catalogue_model_sort_async (self->model, column, descending, self->ordering, on_order_done,
                                  g_object_ref (self));
 }
@@ -384,6 +415,7 @@ sl_catalogue_view_set_project (SlCatalogueView *view, const char *path, GError *
 
   /* The model keeps the order the headers asked for last. */
   g_cancellable_cancel (view->ordering);
+  view->reloading = FALSE;
   gtk_widget_set_cursor (GTK_WIDGET (view), NULL);
   return sl_catalogue_model_set_project (view->model, path, error);
 }
@@ -394,6 +426,7 @@ sl_catalogue_view_reload (SlCatalogueView *view)
   g_return_if_fail (SL_IS_CATALOGUE_VIEW (view));
 
   start_ordering (view);
+  view->reloading = TRUE;
   sl_catalogue_model_reload_async (view->model, view->ordering, on_order_done, g_object_ref (view));
 }
 
@@ -441,6 +474,7 @@ sl_catalogue_view_dispose (GObject *object)
 
   g_cancellable_cancel (self->ordering);
   g_clear_object (&self->ordering);
+  g_clear_handle_id (&self->restore_scroll, g_source_remove);
   if (self->model)
     g_signal_handlers_disconnect_by_func (self->model, on_model_items_changed, self);
   if (self->selection)
