@@ -540,3 +540,10 @@ sl_catalogue_view_new (void)
 {
   return g_object_new (SL_TYPE_CATALOGUE_VIEW, NULL);
 }
+
+GtkSelectionModel *
+sl_catalogue_view_get_selection_model (SlCatalogueView *view)
+{
+  g_return_val_if_fail (SL_IS_CATALOGUE_VIEW (view), NULL);
+  return GTK_SELECTION_MODEL (view->selection);
+}

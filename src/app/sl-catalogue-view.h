@@ -26,6 +26,10 @@ void     sl_catalogue_view_reload (SlCatalogueView *view);
 /* Selects (and scrolls to) the stars named; NULL: none. */
 void     sl_catalogue_view_set_selection (SlCatalogueView *view, const char *const *designations);
 
+/* For tests only (tests/test-gui.c): the table's selection model, whose
+ * items are the SlCatalogueRow of the stars shown (borrowed). */
+GtkSelectionModel *sl_catalogue_view_get_selection_model (SlCatalogueView *view);
+
 /* Signals:
  *   "selection-changed" (GStrv designations)
  *   "cell-activated" (const char *designation, const char *quantity):

@@ -368,6 +368,13 @@ sl_plot_view_get_kind (SlPlotView *self)
   return self->kind;
 }
 
+guint
+sl_plot_view_get_n_drawn (SlPlotView *self)
+{
+  g_return_val_if_fail (SL_IS_PLOT_VIEW (self), 0);
+  return self->positions->len;
+}
+
 static void
 sl_plot_view_finalize (GObject *object)
 {

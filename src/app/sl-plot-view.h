@@ -33,6 +33,10 @@ void        sl_plot_view_set_selection (SlPlotView *view, const char *const *des
 /* Back to the whole view after zooming and panning. */
 void        sl_plot_view_reset (SlPlotView *view);
 
+/* For tests only (tests/test-gui.c): how many stars (parallax view:
+ * panels) the last draw recorded positions for. */
+guint       sl_plot_view_get_n_drawn (SlPlotView *view);
+
 /* Signals:
  *   "star-selected" (const char *designation, gboolean extend):
  *       a click on a star (EXTEND with Ctrl); NULL designation: a click on

@@ -3,7 +3,7 @@
  * Contents:
  *   the project ........... sl_window_open_project, load_stars (a GTask thread)
  *   the selection ......... set_selection: one selection for the table and every view
- *   trail and ledger ...... show_trail, show_ledger
+ *   trail and ledger ...... show_trail (kept current by reload), show_ledger
  *   actions ............... open, new, open-demo, derive (a GTask thread)
  *   drag and drop ......... a project opens, a CSV file is imported
  *   settings .............. window size and pane positions (GSettings)
@@ -41,9 +41,12 @@ struct _SlWindow {
   SlPlotView      *views[3];          /* indexed by SlPlotKind */
 
   char            *path;              /* the open project, or NULL */
+  char            *trail_star;        /* what the Trail shows: this star's ... */
+  char            *trail_quantity;    /* ... quantity; NULL: nothing yet */
   SlStarSet       *stars;             /* what the views draw */
   GStrv            selection;         /* selected designations */
-  GCancellable    *work;              /* the running background job, if any */
+  GCancellable    *work;              /* the running star load, if any */
+  guint            busy;              /* star loads and derivations running */
   GSettings       *settings;
 };
 
@@ -64,19 +67,34 @@ set_text (GtkTextView *view, const char *text)
   gtk_text_buffer_set_text (gtk_text_view_get_buffer (view), text, -1);
 }
 
+/* Explains the value the Trail is showing again: after a derivation or an
+ * import it may come from another run. */
 static void
-show_trail (SlWindow *self, const char *designation, const char *quantity)
+update_trail (SlWindow *self)
 {
   g_autoptr (SlProject) project = NULL;
   g_autoptr (GString) text = g_string_new (NULL);
   g_autoptr (GError) error = NULL;
 
-  if (self->path == NULL)
+  if (self->path == NULL || self->trail_star == NULL)
     return;
   project = sl_project_open (self->path, &error);
-  if (project == NULL || !sl_explain (project, designation, quantity, SL_EXPLAIN_TEXT, text, &error))
+  if (project == NULL
+      || !sl_explain (project, self->trail_star, self->trail_quantity, SL_EXPLAIN_TEXT, text, &error))
     g_string_assign (text, error->message);
   set_text (self->trail_view, text->str);
+}
+
+static void
+show_trail (SlWindow *self, const char *designation, const char *quantity)
+{
+  char *star = g_strdup (designation), *name = g_strdup (quantity);
+
+  g_free (self->trail_star);
+  g_free (self->trail_quantity);
+  self->trail_star = star;
+  self->trail_quantity = name;
+  update_trail (self);
   gtk_notebook_set_current_page (self->side_notebook, 0);
 }
 
@@ -192,6 +210,7 @@ on_stars_loaded (GObject *source, GAsyncResult *result, gpointer user_data)
   g_autoptr (GError) error = NULL;
   SlStarSet *stars = g_task_propagate_pointer (G_TASK (result), &error);
 
+  self->busy--;
   if (stars == NULL)
     {
       if (!g_error_matches (error, G_IO_ERROR, G_IO_ERROR_CANCELLED))
@@ -210,6 +229,7 @@ load_stars (SlWindow *self)
   g_cancellable_cancel (self->work);
   g_clear_object (&self->work);
   self->work = g_cancellable_new ();
+  self->busy++;
   task = g_task_new (self, self->work, on_stars_loaded, NULL);
   g_task_set_task_data (task, g_strdup (self->path), g_free);
   g_task_run_in_thread (task, load_stars_thread);
@@ -229,6 +249,7 @@ reload (SlWindow *self)
       return;
     }
   show_ledger (self, project);
+  update_trail (self);
   sl_catalogue_view_reload (self->catalogue);
   load_stars (self);
 }
@@ -251,6 +272,8 @@ sl_window_open_project (SlWindow *self, const char *path, GError **error)
   adw_window_title_set_title (self->window_title, name);
   adw_window_title_set_subtitle (self->window_title, path);
   gtk_stack_set_visible_child_name (self->stack, "project");
+  g_clear_pointer (&self->trail_star, g_free);
+  g_clear_pointer (&self->trail_quantity, g_free);
   set_text (self->trail_view, _("Click a value in the table to see how it was obtained."));
   show_ledger (self, project);
   gtk_widget_action_set_enabled (GTK_WIDGET (self), "win.derive", TRUE);
@@ -441,6 +464,7 @@ on_derived (GObject *source, GAsyncResult *result, gpointer user_data)
   g_autofree SlDeriveReport *report = g_task_propagate_pointer (G_TASK (result), &error);
   g_autofree char *message = NULL;
 
+  self->busy--;
   gtk_widget_action_set_enabled (GTK_WIDGET (self), "win.derive", TRUE);
   if (report == NULL)
     {
@@ -463,6 +487,7 @@ derive_action (GtkWidget *widget, const char *action, GVariant *parameter)
   if (self->path == NULL)
     return;
   gtk_widget_action_set_enabled (widget, "win.derive", FALSE);
+  self->busy++;
   task = g_task_new (self, NULL, on_derived, NULL);
   g_task_set_task_data (task, g_strdup (self->path), g_free);
   g_task_run_in_thread (task, derive_thread);
@@ -490,7 +515,10 @@ on_drop (GtkDropTarget *target, const GValue *value, double x, double y, SlWindo
       report = project ? sl_import_csv (project, path, &options, &error) : NULL;
       if (report)
         {
-          g_autofree char *message = g_strdup_printf (_("Imported %" G_GUINT64_FORMAT " rows, rejected %u"),
+          g_autofree char *message = g_strdup_printf (g_dngettext (GETTEXT_PACKAGE,
+                                                                   "Imported %" G_GUINT64_FORMAT " row, rejected %u",
+                                                                   "Imported %" G_GUINT64_FORMAT " rows, rejected %u",
+                                                                   report->rows_accepted),
                                                       report->rows_accepted, report->rejections->len);
 
           toast (self, message);
@@ -531,6 +559,8 @@ sl_window_dispose (GObject *object)
   g_clear_pointer (&self->stars, sl_star_set_free);
   g_clear_pointer (&self->selection, g_strfreev);
   g_clear_pointer (&self->path, g_free);
+  g_clear_pointer (&self->trail_star, g_free);
+  g_clear_pointer (&self->trail_quantity, g_free);
   g_clear_object (&self->settings);
   G_OBJECT_CLASS (sl_window_parent_class)->dispose (object);
 }
@@ -617,4 +647,36 @@ SlWindow *
 sl_window_new (GtkApplication *application)
 {
   return g_object_new (SL_TYPE_WINDOW, "application", application, NULL);
+}
+
+/* ------------------------------------------------------------------ */
+/* For tests                                                          */
+
+SlCatalogueView *
+sl_window_get_catalogue (SlWindow *self)
+{
+  g_return_val_if_fail (SL_IS_WINDOW (self), NULL);
+  return self->catalogue;
+}
+
+SlPlotView *
+sl_window_get_view (SlWindow *self, SlPlotKind kind)
+{
+  g_return_val_if_fail (SL_IS_WINDOW (self), NULL);
+  g_return_val_if_fail (kind < G_N_ELEMENTS (self->views), NULL);
+  return self->views[kind];
+}
+
+gboolean
+sl_window_is_loading (SlWindow *self)
+{
+  g_return_val_if_fail (SL_IS_WINDOW (self), FALSE);
+  return self->busy > 0;
+}
+
+const char *const *
+sl_window_get_selection (SlWindow *self)
+{
+  g_return_val_if_fail (SL_IS_WINDOW (self), NULL);
+  return (const char *const *) self->selection;
 }

@@ -5,6 +5,9 @@
 
 #include <adwaita.h>
 
+#include "sl-catalogue-view.h"
+#include "sl-plot-view.h"
+
 G_BEGIN_DECLS
 
 #define SL_TYPE_WINDOW (sl_window_get_type ())
@@ -17,5 +20,14 @@ gboolean  sl_window_open_project (SlWindow *window, const char *path, GError **e
 
 /* Makes a fresh demo project in the user's cache directory and opens it. */
 gboolean  sl_window_open_demo (SlWindow *window, GError **error);
+
+/* For tests only (tests/test-gui.c); the window itself does not use them.
+ * The Catalogue and the view of KIND (borrowed); whether a background job
+ * (loading the views' stars, a derivation) is still running; the selected
+ * designations (borrowed, NULL-terminated; NULL: none). */
+SlCatalogueView    *sl_window_get_catalogue (SlWindow *window);
+SlPlotView         *sl_window_get_view      (SlWindow *window, SlPlotKind kind);
+gboolean            sl_window_is_loading    (SlWindow *window);
+const char *const  *sl_window_get_selection (SlWindow *window);
 
 G_END_DECLS

@@ -1,4 +1,5 @@
-/* cmd-export.c: starledger-cli export PROJECT [-o FILE] [--columns A,B,...] */
+/* cmd-export.c: starledger-cli export PROJECT [-o FILE] [--format csv|tex] [--list NAME]
+ *                                     [--columns A,B,...] */
 #include <glib/gi18n.h>
 #include <stdio.h>
 #include <string.h>
@@ -12,6 +13,7 @@ sl_cli_export (int argc, char **argv)
   g_autofree char *output = NULL;
   g_autofree char *format = NULL;
   g_autofree char *columns_text = NULL;
+  g_autofree char *list = NULL;
   const GOptionEntry entries[] = {
     { "output", 'o', 0, G_OPTION_ARG_FILENAME, &output,
       N_("Write to FILE (default and '-': standard output)"), N_("FILE") },
@@ -19,6 +21,8 @@ sl_cli_export (int argc, char **argv)
       N_("Table format: csv (default) or tex (a LaTeX tabular)"), N_("FORMAT") },
     { "columns", 0, 0, G_OPTION_ARG_STRING, &columns_text,
       N_("Only these quantities, comma-separated (id always comes first)"), N_("A,B,…") },
+    { "list", 0, 0, G_OPTION_ARG_STRING, &list,
+      N_("Only the stars of this target list (see 'lists')"), N_("NAME") },
     { NULL }
   };
   g_autoptr (GOptionContext) context =
@@ -36,7 +40,7 @@ sl_cli_export (int argc, char **argv)
   g_auto (GStrv) columns = NULL;
   g_autoptr (SlProject) project = NULL;
   g_autoptr (GError) error = NULL;
-  SlExportOptions options = { SL_EXPORT_CSV, NULL, NULL };
+  SlExportOptions options = { SL_EXPORT_CSV, NULL, NULL, NULL };
 
   if (!sl_cli_parse (context, "export", &argc, &argv, 1))
     return SL_EXIT_USAGE;
@@ -51,6 +55,7 @@ sl_cli_export (int argc, char **argv)
         g_strstrip (columns[i]);
       options.columns = (const char *const *) columns;
     }
+  options.list = list;
 
   project = sl_cli_open_project (argv[1]);
   if (project == NULL)

@@ -66,9 +66,11 @@ parse_field (const char *text, SlSkyOptions *sky)
          && fabs (sky->centre_dec) <= 90.0;
 }
 
-/* An unknown --star is an error, not a silent no-op. */
+/* An unknown --star (or, with --list, one not in the list) is an error,
+ * not a silent no-op. */
 static gboolean
-check_stars_exist (const SlStarSet *stars, char **wanted, const char *project, GError **error)
+check_stars_exist (const SlStarSet *stars, char **wanted, const char *project, const char *list,
+                   GError **error)
 {
   g_autoptr (GHashTable) known = g_hash_table_new (g_str_hash, g_str_equal);
 
@@ -77,8 +79,12 @@ check_stars_exist (const SlStarSet *stars, char **wanted, const char *project, G
   for (guint i = 0; wanted && wanted[i]; i++)
     if (!g_hash_table_contains (known, wanted[i]))
       {
-        g_set_error (error, SL_ERROR, SL_ERROR_UNKNOWN_NAME, _("%s: no star '%s' in the project"), project,
-                     wanted[i]);
+        if (list)
+          g_set_error (error, SL_ERROR, SL_ERROR_UNKNOWN_NAME, _("%s: star '%s' is not in list '%s'"), project,
+                       wanted[i], list);
+        else
+          g_set_error (error, SL_ERROR, SL_ERROR_UNKNOWN_NAME, _("%s: no star '%s' in the project"), project,
+                       wanted[i]);
         return FALSE;
       }
   return TRUE;
@@ -100,6 +106,7 @@ sl_cli_figure (int argc, char **argv)
   g_autofree char *ellipses = NULL;
   g_autofree char *start = NULL;
   g_autofree char *years = NULL;
+  g_autofree char *list = NULL;
   g_auto (GStrv) stars_wanted = NULL;
   gboolean grayscale = FALSE, proper_motion = FALSE, common_scale = FALSE, no_errors = FALSE;
   const GOptionEntry entries[] = {
@@ -111,6 +118,7 @@ sl_cli_figure (int argc, char **argv)
     { "font-pt", 0, 0, G_OPTION_ARG_STRING, &font, N_("Body text size in points (default 7)"), N_("P") },
     { "grayscale", 0, 0, G_OPTION_ARG_NONE, &grayscale, N_("Grey instead of the colour scale, for print"), NULL },
     { "star", 0, 0, G_OPTION_ARG_STRING_ARRAY, &stars_wanted, N_("Highlight this star (hr, sky), draw its path (parallax); repeatable"), N_("ID") },
+    { "list", 0, 0, G_OPTION_ARG_STRING, &list, N_("Only the stars of this target list (parallax: their paths, or those of --star among them)"), N_("NAME") },
     { "plane", 0, 0, G_OPTION_ARG_STRING, &plane, N_("hr: theoretical (log Teff, log L; default) or observational ((B-V)0, M_V)"), N_("PLANE") },
     { "no-errors", 0, 0, G_OPTION_ARG_NONE, &no_errors, N_("hr: no error ellipses or bars"), NULL },
     { "coordinates", 0, 0, G_OPTION_ARG_STRING, &coordinates, N_("sky: equatorial (default) or galactic"), N_("SYSTEM") },
@@ -194,8 +202,20 @@ sl_cli_figure (int argc, char **argv)
   if (project == NULL)
     return SL_EXIT_FAILURE;
   /* The parallax figure draws only the chosen stars (none: it says how to
-   * choose them); the others draw every star and highlight the chosen. */
-  if (job.kind == KIND_PARALLAX && stars_wanted == NULL)
+   * choose them); the others draw every star and highlight the chosen.
+   * A list stands for every star, and the chosen must be in it. */
+  if (list != NULL)
+    {
+      stars = sl_star_set_load_list (project, list, &error);
+      if (stars == NULL || !check_stars_exist (stars, stars_wanted, argv[1], list, &error))
+        return sl_cli_fail (error);
+      if (job.kind == KIND_PARALLAX && stars_wanted != NULL)
+        {
+          g_clear_pointer (&stars, sl_star_set_free);
+          stars = sl_star_set_load (project, (const char *const *) stars_wanted, &error);
+        }
+    }
+  else if (job.kind == KIND_PARALLAX && stars_wanted == NULL)
     {
       static const char *const none[] = { NULL };
 
@@ -206,13 +226,17 @@ sl_cli_figure (int argc, char **argv)
   else
     {
       stars = sl_star_set_load (project, NULL, &error);
-      if (stars && !check_stars_exist (stars, stars_wanted, argv[1], &error))
+      if (stars && !check_stars_exist (stars, stars_wanted, argv[1], NULL, &error))
         return sl_cli_fail (error);
     }
   if (stars == NULL || error != NULL)
     return sl_cli_fail (error);
 
-  subject = g_strdup_printf (_("project %s, derivation run %" G_GINT64_FORMAT), argv[1], stars->run_id);
+  if (list != NULL)
+    subject = g_strdup_printf (_("project %s, list %s, derivation run %" G_GINT64_FORMAT), argv[1], list,
+                               stars->run_id);
+  else
+    subject = g_strdup_printf (_("project %s, derivation run %" G_GINT64_FORMAT), argv[1], stars->run_id);
   meta.subject = subject;
   job.stars = stars;
   job.notes = notes;

@@ -19,6 +19,8 @@ static const SlCliCommand commands[] = {
   { "verify",  sl_cli_verify,  N_("Recompute every derived value and compare") },
   { "figure",  sl_cli_figure,  N_("Draw an HR diagram, a sky map or parallax paths for a paper") },
   { "export",  sl_cli_export,  N_("Write the stars' values as a CSV or LaTeX table") },
+  { "select",  sl_cli_select,  N_("Make a target list of the stars that satisfy a condition") },
+  { "lists",   sl_cli_lists,   N_("Show the project's target lists") },
   { "summary", sl_cli_summary, N_("Show what a project holds") },
   { "ledger",  sl_cli_ledger,  N_("Show the project's audit log") },
 };

@@ -14,6 +14,7 @@
 
 #include "derivation.h"
 #include "inputs.h"
+#include "lists.h"
 #include "rounding.h"
 #include "sl-error.h"
 #include "util.h"
@@ -389,6 +390,8 @@ sl_export (SlProject *project, const char *path, const SlExportOptions *options,
   g_autoptr (GArray) columns = NULL;
   g_autoptr (SlInputCursor) cursor = NULL;
   g_autoptr (GError) local_error = NULL;
+  g_autoptr (GArray) list_ids = NULL;
+  guint next_member = 0;
   g_autofree char *derived_sql = sl_derived_select_sql ("ORDER BY star_id");
   sqlite3_stmt *derived = NULL;
   gboolean pending = FALSE, finished = FALSE;
@@ -405,6 +408,11 @@ sl_export (SlProject *project, const char *path, const SlExportOptions *options,
   /* Read in one transaction so the table is one consistent snapshot. */
   if (!sl_project_exec (project, "BEGIN", error))
     return -1;
+  if (options->list != NULL && (list_ids = sl_list_star_ids (project, options->list, error)) == NULL)
+    {
+      sl_project_rollback (project);
+      return -1;
+    }
   derived = sl_project_prepare (project, derived_sql, error);
   cursor = derived ? sl_input_cursor_new (project, 0, error) : NULL;
   if (cursor == NULL || (out = sl_output_open (path, &temp_path, error)) == NULL)
@@ -422,6 +430,14 @@ sl_export (SlProject *project, const char *path, const SlExportOptions *options,
     {
       StarRow row = { &inputs, NULL };
 
+      /* Both walk in star id order. */
+      if (list_ids != NULL)
+        {
+          while (next_member < list_ids->len && g_array_index (list_ids, gint64, next_member) < inputs.star_id)
+            next_member++;
+          if (next_member == list_ids->len || g_array_index (list_ids, gint64, next_member) != inputs.star_id)
+            continue;
+        }
       if (next_derived_row (derived, inputs.star_id, &derived_row, &pending, &finished))
         row.derived = &derived_row;
       if (options->format == SL_EXPORT_TEX)

@@ -24,6 +24,7 @@ typedef struct {
   SlExportFormat     format;
   const char *const *columns;  /* names, NULL-terminated; NULL: every input, derived value and flags */
   GCancellable      *cancellable;
+  const char        *list;     /* only the stars of this list (lists.h); NULL: every star */
 } SlExportOptions;
 
 /* Writes the table to PATH, or to standard output when PATH is "-".

@@ -6,6 +6,7 @@
 
 #include "derivation.h"
 #include "inputs.h"
+#include "lists.h"
 #include "sl-error.h"
 
 static double
@@ -77,8 +78,10 @@ derived_for (sqlite3_stmt *stmt, gint64 star_id, SlDerivedRow *row, gboolean *pe
   return *pending && row->star_id == star_id ? &row->values : NULL;
 }
 
+/* WANTED (designations) or MEMBERS (star ids, ascending) restrict the
+ * stars loaded when not NULL. */
 static gboolean
-load_all (SlStarSet *set, SlProject *project, GHashTable *wanted, GError **error)
+load_all (SlStarSet *set, SlProject *project, GHashTable *wanted, const GArray *members, GError **error)
 {
   g_autofree char *sql = sl_derived_select_sql ("ORDER BY star_id");
   g_autoptr (SlInputCursor) cursor = sl_input_cursor_new (project, 0, error);
@@ -87,6 +90,7 @@ load_all (SlStarSet *set, SlProject *project, GHashTable *wanted, GError **error
   SlDerivedRow row;
   SlStarInputs in;
   GError *local = NULL;
+  guint next_member = 0;
 
   if (stmt == NULL)
     return FALSE;
@@ -98,6 +102,13 @@ load_all (SlStarSet *set, SlProject *project, GHashTable *wanted, GError **error
 
       if (wanted && (slot = g_hash_table_lookup (wanted, in.designation)) == NULL)
         continue;
+      if (members)
+        {
+          while (next_member < members->len && g_array_index (members, gint64, next_member) < in.star_id)
+            next_member++;
+          if (next_member == members->len || g_array_index (members, gint64, next_member) != in.star_id)
+            continue;
+        }
       fill_inputs (&s, &in);
       fill_derived (&s, v);
       s.designation = g_string_chunk_insert (set->strings, in.designation);
@@ -149,7 +160,7 @@ sl_star_set_load (SlProject *project, const char *const *designations, GError **
 
   if (!sl_project_exec (project, "BEGIN", error))
     return NULL;
-  if (!load_all (set, project, wanted, error))
+  if (!load_all (set, project, wanted, NULL, error))
     {
       sl_project_rollback (project);
       return NULL;
@@ -164,6 +175,25 @@ sl_star_set_load (SlProject *project, const char *const *designations, GError **
         return NULL;
       }
   return g_steal_pointer (&set);
+}
+
+SlStarSet *
+sl_star_set_load_list (SlProject *project, const char *name, GError **error)
+{
+  g_autoptr (SlStarSet) set = g_new0 (SlStarSet, 1);
+  g_autoptr (GArray) members = NULL;
+  gboolean ok;
+
+  g_return_val_if_fail (name != NULL, NULL);
+
+  set->stars = g_array_new (FALSE, TRUE, sizeof (SlPlotStar));
+  set->strings = g_string_chunk_new (4096);
+  if (!sl_project_exec (project, "BEGIN", error))
+    return NULL;
+  members = sl_list_star_ids (project, name, error);
+  ok = members != NULL && load_all (set, project, NULL, members, error);
+  sl_project_rollback (project);
+  return ok ? g_steal_pointer (&set) : NULL;
 }
 
 void

@@ -35,6 +35,9 @@ typedef struct {
 /* Loads every star, or only those named in DESIGNATIONS (NULL-terminated,
  * in that order; an unknown name is an error). */
 SlStarSet *sl_star_set_load (SlProject *project, const char *const *designations, GError **error);
+/* Loads the stars of list NAME (lists.h), in star order; an unknown list
+ * is an error naming the lists there are. */
+SlStarSet *sl_star_set_load_list (SlProject *project, const char *name, GError **error);
 void       sl_star_set_free (SlStarSet *set);
 
 static inline SlPlotStar *

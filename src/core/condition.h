@@ -1,0 +1,71 @@
+/* condition.h: the condition language of target lists and its compiler
+ * to SQL.
+ *
+ *   expr       := or
+ *   or         := and ('or' and)*
+ *   and        := not ('and' not)*
+ *   not        := 'not' not | primary
+ *   primary    := '(' expr ')' | 'flag:' FLAG | NAME 'is' ['not'] 'missing'
+ *               | NAME OP NUMBER          (a numeric NAME; OP one of < <= > >= = !=)
+ *               | NAME TEXTOP STRING      (id, sptype, spclass; TEXTOP one of = != ~)
+ *
+ * NAME is a derived quantity (teff, dist, ..., each number also as
+ * NAME_lo and NAME_hi, the bounds of its 68% interval), an input field
+ * of the vocabulary (parallax, vmag, ra, pmra_err, sptype, ...: the value
+ * the star's derivation used, through the derived row's m_* pointers to
+ * its measurements rows), or id (the designation).  FLAG is a flag's name
+ * (sl_flag_info) or 'stale'.  Keywords and names are case-insensitive;
+ * numbers are read by sl_parse_number (never the locale); strings are in
+ * '...' or "..." with a backslash taking the next character literally.
+ * '=' on text is exact; '~' is "contains", ignoring the case of ASCII
+ * letters.
+ *
+ * A condition selects among the stars that have a derived row (stars
+ * never derived have no values to test, and their inputs have not been
+ * chosen among their measurements yet); a stale row is tested as stored.
+ * A missing value satisfies no comparison, and 'not' of a comparison on a
+ * missing value is not satisfied either (SQL's three-valued logic): say
+ * 'teff is missing or teff < 5000' to include stars without a teff.
+ */
+#pragma once
+
+#include <glib.h>
+#include <sqlite3.h>
+
+G_BEGIN_DECLS
+
+typedef enum {
+  SL_CONDITION_PARAM_NUMBER,   /* a NUMBER of the text */
+  SL_CONDITION_PARAM_TEXT,     /* a STRING of the text, unescaped */
+  SL_CONDITION_PARAM_INTEGER,  /* a flag's bit */
+} SlConditionParamKind;
+
+typedef struct {
+  SlConditionParamKind kind;
+  double               number;
+  char                *text;
+  gint64               integer;
+} SlConditionParam;
+
+typedef struct {
+  char   *text;    /* the condition as written */
+  char   *where;   /* an SQL boolean expression over "derived d" and JOINS; every
+                    * literal is an anonymous '?' parameter, in PARAMS' order */
+  char   *joins;   /* "" or " LEFT JOIN measurements in_vmag ON in_vmag.id = d.m_vmag ..." */
+  GArray *params;  /* SlConditionParam */
+} SlCondition;
+
+/* Compiles TEXT; on a mistake sets an SL_ERROR whose message starts with
+ * "at COLUMN:" (characters from 1) and says what was expected there. */
+SlCondition *sl_condition_compile (const char *text, GError **error);
+void         sl_condition_free    (SlCondition *condition);
+
+/* "SELECT d.star_id FROM derived d JOINS WHERE WHERE ORDER BY d.star_id". */
+char        *sl_condition_select_sql (const SlCondition *condition);
+
+/* Binds the parameters to STMT's '?' from number FIRST on. */
+void         sl_condition_bind (const SlCondition *condition, sqlite3_stmt *stmt, int first);
+
+G_DEFINE_AUTOPTR_CLEANUP_FUNC (SlCondition, sl_condition_free)
+
+G_END_DECLS
