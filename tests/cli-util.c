@@ -1,5 +1,6 @@
 /* cli-util.c: running starledger-cli from a test program (cli-util.h). */
 #include "cli-util.h"
+#include "test-util.h"
 
 #include <stdarg.h>
 #include <string.h>
@@ -136,4 +137,20 @@ assert_commands_usage (const char *const *commands)
       assert_contains (help.out, commands[i]);
       assert_command_usage (commands[i]);
     }
+}
+
+char *
+make_derived_demo_project (char **dir)
+{
+  g_auto (CliResult) a = { 0 };
+  g_auto (CliResult) p = { 0 };
+  g_auto (CliResult) derived = { 0 };
+  char *project;
+
+  *dir = sl_test_scratch_new ();
+  project = g_build_filename (*dir, "demo.starledger", NULL);
+  import_demo (project, NULL, &a, &p);
+  run_cli (&derived, "derive", project, NULL);
+  g_assert_cmpint (derived.status, ==, 0);
+  return project;
 }

@@ -33,6 +33,11 @@ void import_demo (const char *project, const char *locale, CliResult *astrometry
  * starledger-cli to run (run as a plain program, say). */
 void cli_test_init (int *argc, char ***argv);
 
+/* A scratch directory (new) with the demo project in it, imported and
+ * derived; returns the project's path (free it), the directory in *DIR
+ * (free it with sl_test_scratch_free). */
+char *make_derived_demo_project (char **dir);
+
 /* DESIGN.md: a user error is one line on stderr. */
 void assert_one_line (const char *text);
 

@@ -18,15 +18,7 @@ static char *project;
 static void
 make_demo_project (void)
 {
-  g_auto (CliResult) a = { 0 };
-  g_auto (CliResult) p = { 0 };
-  g_auto (CliResult) derived = { 0 };
-
-  scratch = sl_test_scratch_new ();
-  project = g_build_filename (scratch, "demo.starledger", NULL);
-  import_demo (project, NULL, &a, &p);
-  run_cli (&derived, "derive", project, NULL);
-  g_assert_cmpint (derived.status, ==, 0);
+  project = make_derived_demo_project (&scratch);
 }
 
 static char *
