@@ -98,6 +98,28 @@ show_trail (SlWindow *self, const char *designation, const char *quantity)
   gtk_notebook_set_current_page (self->side_notebook, 0);
 }
 
+/* A long summary wraps under the summary column, not under the time: each
+ * entry stays one block.  (The columns before it are 44 characters wide in
+ * the view's monospace font.) */
+static void
+hang_ledger_lines (SlWindow *self)
+{
+  GtkTextBuffer *buffer = gtk_text_view_get_buffer (self->ledger_view);
+  GtkTextTag *tag = gtk_text_tag_table_lookup (gtk_text_buffer_get_tag_table (buffer), "hang");
+  g_autoptr (PangoLayout) layout = gtk_widget_create_pango_layout (GTK_WIDGET (self->ledger_view),
+                                                                   "2026-01-01T00:00:00Z  who         action    ");
+  GtkTextIter start, end;
+  int width;
+
+  pango_layout_get_pixel_size (layout, &width, NULL);
+  if (tag == NULL)
+    tag = gtk_text_buffer_create_tag (buffer, "hang", NULL);
+  /* A negative indent hangs: the first line has the full width. */
+  g_object_set (tag, "indent", -width, NULL);
+  gtk_text_buffer_get_bounds (buffer, &start, &end);
+  gtk_text_buffer_apply_tag (buffer, tag, &start, &end);
+}
+
 static void
 show_ledger (SlWindow *self, SlProject *project)
 {
@@ -119,6 +141,7 @@ show_ledger (SlWindow *self, SlProject *project)
       g_string_append_printf (text, "%s  %-10s  %-8s  %s\n", e->at, e->who, e->action, e->summary);
     }
   set_text (self->ledger_view, text->str);
+  hang_ledger_lines (self);
 }
 
 /* ------------------------------------------------------------------ */
