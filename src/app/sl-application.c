@@ -10,6 +10,7 @@ struct _SlApplication {
   AdwApplication parent_instance;
   gboolean       exit_after_startup;   /* for the smoke test: draw once, then quit */
   gboolean       demo;                 /* open the demo project at start */
+  GStrv          select;               /* --select: stars to select once a project is open */
 };
 
 G_DEFINE_FINAL_TYPE (SlApplication, sl_application, ADW_TYPE_APPLICATION)
@@ -96,7 +97,9 @@ sl_application_activate (GApplication *app)
       return;
     }
   window = present_window (self);
-  if (self->demo && !sl_window_open_demo (window, &error))
+  if (self->demo && sl_window_open_demo (window, &error))
+    sl_window_set_selection (window, (const char *const *) self->select);
+  else if (self->demo)
     {
       g_printerr ("starledger: %s\n", error->message);
       /* The smoke test must fail, not draw an empty window. */
@@ -118,6 +121,8 @@ sl_application_open (GApplication *app, GFile **files, int n_files, const char *
 
       if (path == NULL || !sl_window_open_project (window, path, &error))
         g_printerr ("starledger: %s\n", error ? error->message : _("not a local file"));
+      else
+        sl_window_set_selection (window, (const char *const *) self->select);
     }
 }
 
@@ -128,13 +133,24 @@ sl_application_handle_local_options (GApplication *app, GVariantDict *options)
 
   self->exit_after_startup = g_variant_dict_contains (options, "exit-after-startup");
   self->demo = g_variant_dict_contains (options, "demo");
+  g_clear_pointer (&self->select, g_strfreev);
+  g_variant_dict_lookup (options, "select", "^as", &self->select);
   return -1;
+}
+
+static void
+sl_application_finalize (GObject *object)
+{
+  g_strfreev (SL_APPLICATION (object)->select);
+  G_OBJECT_CLASS (sl_application_parent_class)->finalize (object);
 }
 
 static void
 sl_application_class_init (SlApplicationClass *klass)
 {
   GApplicationClass *app_class = G_APPLICATION_CLASS (klass);
+
+  G_OBJECT_CLASS (klass)->finalize = sl_application_finalize;
 
   app_class->startup = sl_application_startup;
   app_class->activate = sl_application_activate;
@@ -148,6 +164,7 @@ sl_application_init (SlApplication *self)
   const GOptionEntry options[] = {
     { "demo", 0, 0, G_OPTION_ARG_NONE, NULL, N_("Open the demo project"), NULL },
     { "exit-after-startup", 0, 0, G_OPTION_ARG_NONE, NULL, N_("Quit once the window has drawn (for tests)"), NULL },
+    { "select", 0, 0, G_OPTION_ARG_STRING_ARRAY, NULL, N_("Select this star once the project is open (repeatable)"), N_("ID") },
     { NULL }
   };
 

@@ -147,8 +147,8 @@ show_ledger (SlWindow *self, SlProject *project)
 /* ------------------------------------------------------------------ */
 /* The selection                                                      */
 
-static void
-set_selection (SlWindow *self, const char *const *designations)
+void
+sl_window_set_selection (SlWindow *self, const char *const *designations)
 {
   g_strfreev (self->selection);
   self->selection = g_strdupv ((char **) designations);
@@ -170,13 +170,13 @@ on_view_star_selected (SlPlotView *view, const char *designation, gboolean exten
   if (designation && !(extend && self->selection && g_strv_contains ((const char *const *) self->selection, designation)))
     g_strv_builder_add (builder, designation);
   selection = g_strv_builder_end (builder);
-  set_selection (self, (const char *const *) selection);
+  sl_window_set_selection (self, (const char *const *) selection);
 }
 
 static void
 on_view_region_selected (SlPlotView *view, GStrv designations, SlWindow *self)
 {
-  set_selection (self, (const char *const *) designations);
+  sl_window_set_selection (self, (const char *const *) designations);
 }
 
 static void

@@ -30,4 +30,7 @@ SlPlotView         *sl_window_get_view      (SlWindow *window, SlPlotKind kind);
 gboolean            sl_window_is_loading    (SlWindow *window);
 const char *const  *sl_window_get_selection (SlWindow *window);
 
+/* Selects the stars named (NULL: none) in the table and every view. */
+void      sl_window_set_selection (SlWindow *window, const char *const *designations);
+
 G_END_DECLS

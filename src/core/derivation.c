@@ -558,8 +558,16 @@ finish_run (SlProject *project, const SlDeriveParams *params, SlDeriveReport *re
       sl_project_set_db_error (project, error, "derivation_runs");
       return FALSE;
     }
-  summary = g_strdup_printf (_("derived %" G_GUINT64_FORMAT " stars (run %" G_GINT64_FORMAT "; %s)"),
-                             report->computed, report->run_id, described);
+  {
+    /* Numbers formatted first: a translator's string holds no 64-bit
+     * format macros, which gettext cannot carry. */
+    g_autofree char *stars = g_strdup_printf ("%" G_GUINT64_FORMAT, report->computed);
+    g_autofree char *run = g_strdup_printf ("%" G_GINT64_FORMAT, report->run_id);
+
+    summary = g_strdup_printf (g_dngettext (GETTEXT_PACKAGE, "derived %s star (run %s; %s)",
+                                            "derived %s stars (run %s; %s)", report->computed),
+                               stars, run, described);
+  }
   details = g_strdup_printf ("{\"run_id\":%" G_GINT64_FORMAT ",\"stars\":%" G_GUINT64_FORMAT
                              ",\"up_to_date\":%" G_GUINT64_FORMAT "}",
                              report->run_id, report->computed, report->up_to_date);
