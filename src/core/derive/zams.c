@@ -18,8 +18,8 @@
  * Validity: 0.1 <= M <= 100 M_sun, 1e-4 <= Z <= 0.03 (the fits' range);
  *   outside it the functions return NAN rather than an extrapolation.
  * Notes: not a per-star derivation module; a published relation the HR
- *   diagram draws.  One public transcription writes the L numerator as
- *   alpha M^2.5: the paper and every code use M^5.5.
+ *   diagram draws.  The L numerator is alpha M^5.5 (M^5 sqrt M), as in
+ *   the paper; an M^2.5 seen in some copies is a misprint.
  */
 #include <math.h>
 
