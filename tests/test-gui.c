@@ -459,6 +459,19 @@ text_view_starts_with (const char *prefix)
   return FALSE;
 }
 
+/* Whether a text view of the window holds TEXT. */
+static gboolean
+text_view_contains (const char *text)
+{
+  g_autoptr (GPtrArray) texts = g_ptr_array_new_with_free_func (g_free);
+
+  collect_text_views (GTK_WIDGET (demo), texts);
+  for (guint i = 0; i < texts->len; i++)
+    if (strstr (texts->pdata[i], text) != NULL)
+      return TRUE;
+  return FALSE;
+}
+
 /* The text view whose first line begins with AT, the time of a ledger
  * entry: the Ledger tab shows the newest entry first. */
 static gboolean
@@ -545,6 +558,85 @@ test_actions_derive (void)
   click_star (SL_PLOT_KIND_SKY, NULL, FALSE);
   PAINT (demo);
   g_assert_cmpuint (drawn (SL_PLOT_KIND_HRD), >, 200);
+}
+
+/* The open message dialog of the window, if any. */
+static AdwMessageDialog *
+open_message_dialog (void)
+{
+  GListModel *toplevels = gtk_window_get_toplevels ();
+
+  for (guint i = 0; i < g_list_model_get_n_items (toplevels); i++)
+    {
+      g_autoptr (GObject) window = g_list_model_get_item (toplevels, i);
+
+      if (ADW_IS_MESSAGE_DIALOG (window) && gtk_widget_get_visible (GTK_WIDGET (window)))
+        return ADW_MESSAGE_DIALOG (window);
+    }
+  return NULL;
+}
+
+/* The dialog's entries in order: value, lower, upper bound, reason. */
+static void
+fill_form (AdwMessageDialog *dialog, const char *const texts[4])
+{
+  GtkWidget *grid = adw_message_dialog_get_extra_child (dialog);
+  int row = 0;
+
+  for (GtkWidget *child = gtk_widget_get_first_child (grid); child; child = gtk_widget_get_next_sibling (child))
+    if (GTK_IS_ENTRY (child))
+      gtk_editable_set_text (GTK_EDITABLE (child), texts[row++]);
+  g_assert_cmpint (row, ==, 4);
+}
+
+/* Set by Hand in the Trail: the dialog's value lands in the project with
+ * its reason, what follows is derived again, and Clear takes it back. */
+static void
+test_trail_override (void)
+{
+  g_autofree char *path = demo_path ();
+  const char *const form[4] = { "6100", "6050", "6150", "spectroscopic Teff from the test" };
+  g_autoptr (SlProject) project = NULL;
+  g_autoptr (GError) error = NULL;
+  g_autoptr (GArray) overrides = NULL;
+  AdwMessageDialog *dialog;
+  gint64 star;
+
+  ENSURE_DEMO ();
+  click_star (SL_PLOT_KIND_SKY, "LHO 0004", FALSE);
+  g_signal_emit_by_name (sl_window_get_catalogue (demo), "cell-activated", "LHO 0004", "teff");
+  g_assert_true (gtk_widget_activate_action (GTK_WIDGET (demo), "win.override", NULL));
+  WAIT_UNTIL ((dialog = open_message_dialog ()) != NULL, FRAME_TIMEOUT_S, "the dialog");
+  fill_form (dialog, form);
+  PAINT (GTK_WIDGET (dialog));
+  {
+    cairo_surface_t *picture = render_widget (GTK_WIDGET (dialog));
+
+    save_png (picture, "gui-override.png");
+    cairo_surface_destroy (picture);
+  }
+  /* As a click on Set does: the response, then the dialog closes. */
+  adw_message_dialog_response (dialog, "set");
+  gtk_window_close (GTK_WINDOW (dialog));
+  WAIT_UNTIL (!sl_window_is_loading (demo), LOAD_TIMEOUT_S, "the override and its derivation");
+
+  project = sl_project_open (path, &error);
+  g_assert_no_error (error);
+  star = sl_star_lookup (project, "LHO 0004", &error);
+  overrides = sl_overrides_for_star (project, star, &error);
+  g_assert_cmpuint (overrides->len, ==, 1);
+  g_assert_cmpfloat (g_array_index (overrides, SlOverride, 0).value, ==, 6100.0);
+  g_assert_cmpfloat (g_array_index (overrides, SlOverride, 0).hi, ==, 6150.0);
+  g_assert_cmpint (stale_stars (path), ==, 0);
+  g_assert_true (text_view_contains ("SET BY HAND"));
+  g_assert_true (text_view_contains ("spectroscopic Teff from the test"));
+
+  g_assert_true (gtk_widget_activate_action (GTK_WIDGET (demo), "win.clear-override", NULL));
+  WAIT_UNTIL (!sl_window_is_loading (demo), LOAD_TIMEOUT_S, "the clear and its derivation");
+  g_clear_pointer (&overrides, g_array_unref);
+  overrides = sl_overrides_for_star (project, star, &error);
+  g_assert_cmpuint (overrides->len, ==, 0);
+  g_assert_false (text_view_contains ("SET BY HAND"));
 }
 
 static GtkDropTarget *
@@ -850,6 +942,7 @@ main (int argc, char **argv)
   g_test_add_func ("/gui/selection/shared", test_selection_shared);
   g_test_add_func ("/gui/actions/derive", test_actions_derive);
   g_test_add_func ("/gui/actions/import-by-drop", test_actions_import_by_drop);
+  g_test_add_func ("/gui/trail/override", test_trail_override);
   g_test_add_func ("/gui/snapshot", test_snapshot);
   g_test_add_func ("/gui/about", test_about);
   g_test_add_func ("/gui/shortcuts", test_shortcuts);

@@ -24,6 +24,7 @@
 #include "sl-catalogue-view.h"
 #include "sl-plot-view.h"
 #include "starset.h"
+#include "units.h"
 
 struct _SlWindow {
   AdwApplicationWindow parent_instance;
@@ -36,6 +37,7 @@ struct _SlWindow {
   GtkBox          *catalogue_box, *hrd_box, *sky_box, *parallax_box;
   GtkNotebook     *side_notebook;
   GtkTextView     *trail_view, *ledger_view;
+  GtkLabel        *trail_title;
 
   SlCatalogueView *catalogue;
   SlPlotView      *views[3];          /* indexed by SlPlotKind */
@@ -76,6 +78,10 @@ update_trail (SlWindow *self)
   g_autoptr (GString) text = g_string_new (NULL);
   g_autoptr (GError) error = NULL;
 
+  SlQuantity q;
+  gboolean settable;
+  g_autofree char *title = NULL;
+
   if (self->path == NULL || self->trail_star == NULL)
     return;
   project = sl_project_open (self->path, &error);
@@ -83,6 +89,13 @@ update_trail (SlWindow *self)
       || !sl_explain (project, self->trail_star, self->trail_quantity, SL_EXPLAIN_TEXT, text, &error))
     g_string_assign (text, error->message);
   set_text (self->trail_view, text->str);
+
+  /* Only a derived number can be set by hand. */
+  settable = sl_quantity_from_name (self->trail_quantity, &q) && !sl_quantity_info (q)->is_text;
+  title = g_strdup_printf ("%s · %s", self->trail_star, self->trail_quantity);
+  gtk_label_set_text (self->trail_title, title);
+  gtk_widget_action_set_enabled (GTK_WIDGET (self), "win.override", settable);
+  gtk_widget_action_set_enabled (GTK_WIDGET (self), "win.clear-override", settable);
 }
 
 static void
@@ -516,6 +529,115 @@ derive_action (GtkWidget *widget, const char *action, GVariant *parameter)
   g_task_run_in_thread (task, derive_thread);
 }
 
+/* The hand-set value dialog: value, optional 68% bounds, and the reason
+ * the ledger keeps. */
+typedef struct {
+  SlWindow *window;
+  GtkEntry *value, *lo, *hi, *reason;
+} OverrideForm;
+
+static gboolean
+read_number (GtkEntry *entry, double *value, gboolean optional)
+{
+  const char *text = gtk_editable_get_text (GTK_EDITABLE (entry));
+  const char *problem;
+
+  *value = NAN;
+  if (optional && *text == '\0')
+    return TRUE;
+  return sl_parse_number (text, value, &problem);
+}
+
+static void
+on_override_response (AdwMessageDialog *dialog, const char *response, OverrideForm *form)
+{
+  SlWindow *self = form->window;
+  g_autoptr (SlProject) project = NULL;
+  g_autoptr (GError) error = NULL;
+  double value, lo, hi;
+  SlQuantity q;
+
+  if (g_strcmp0 (response, "set") != 0 || !sl_quantity_from_name (self->trail_quantity, &q))
+    return;
+  if (!read_number (form->value, &value, FALSE) || !read_number (form->lo, &lo, TRUE)
+      || !read_number (form->hi, &hi, TRUE))
+    {
+      toast (self, _("The value and its bounds must be numbers written with a '.'"));
+      return;
+    }
+  project = sl_project_open (self->path, &error);
+  if (project == NULL
+      || !sl_override_set (project, self->trail_star, q, value, lo, hi,
+                           gtk_editable_get_text (GTK_EDITABLE (form->reason)), &error))
+    {
+      toast (self, error->message);
+      return;
+    }
+  /* What follows from the value is derived again at once. */
+  gtk_widget_activate_action (GTK_WIDGET (self), "win.derive", NULL);
+}
+
+static GtkEntry *
+form_row (GtkGrid *grid, int row, const char *label, const char *placeholder)
+{
+  GtkWidget *title = gtk_label_new (label);
+  GtkWidget *entry = gtk_entry_new ();
+
+  gtk_label_set_xalign (GTK_LABEL (title), 1.0);
+  gtk_entry_set_placeholder_text (GTK_ENTRY (entry), placeholder);
+  gtk_widget_set_hexpand (entry, TRUE);
+  gtk_grid_attach (grid, title, 0, row, 1, 1);
+  gtk_grid_attach (grid, entry, 1, row, 1, 1);
+  return GTK_ENTRY (entry);
+}
+
+static void
+override_action (GtkWidget *widget, const char *action, GVariant *parameter)
+{
+  SlWindow *self = SL_WINDOW (widget);
+  OverrideForm *form = g_new0 (OverrideForm, 1);
+  GtkGrid *grid = GTK_GRID (gtk_grid_new ());
+  g_autofree char *heading = g_strdup_printf (_("Set %s of %s by Hand"), self->trail_quantity, self->trail_star);
+  AdwMessageDialog *dialog = ADW_MESSAGE_DIALOG (
+    adw_message_dialog_new (GTK_WINDOW (self), heading,
+                            _("The value replaces the derived one, and the values that follow from it are "
+                              "derived again. Who, when and why are recorded in the ledger.")));
+
+  gtk_grid_set_row_spacing (grid, 6);
+  gtk_grid_set_column_spacing (grid, 12);
+  form->window = self;
+  form->value = form_row (grid, 0, _("Value"), _("for example 6530"));
+  form->lo = form_row (grid, 1, _("Lower bound"), _("68% interval, optional"));
+  form->hi = form_row (grid, 2, _("Upper bound"), _("68% interval, optional"));
+  form->reason = form_row (grid, 3, _("Reason"), _("for example: spectroscopic Teff, our 2026 run"));
+  adw_message_dialog_set_extra_child (dialog, GTK_WIDGET (grid));
+  adw_message_dialog_add_responses (dialog, "cancel", _("_Cancel"), "set", _("_Set"), NULL);
+  adw_message_dialog_set_response_appearance (dialog, "set", ADW_RESPONSE_SUGGESTED);
+  adw_message_dialog_set_default_response (dialog, "set");
+  g_signal_connect_data (dialog, "response", G_CALLBACK (on_override_response), form,
+                         (GClosureNotify) (void (*) (void)) g_free, 0);
+  gtk_window_present (GTK_WINDOW (dialog));
+}
+
+static void
+clear_override_action (GtkWidget *widget, const char *action, GVariant *parameter)
+{
+  SlWindow *self = SL_WINDOW (widget);
+  g_autoptr (SlProject) project = NULL;
+  g_autoptr (GError) error = NULL;
+  SlQuantity q;
+
+  if (!sl_quantity_from_name (self->trail_quantity, &q))
+    return;
+  project = sl_project_open (self->path, &error);
+  if (project == NULL || !sl_override_clear (project, self->trail_star, q, NULL, &error))
+    {
+      toast (self, error->message);
+      return;
+    }
+  gtk_widget_activate_action (GTK_WIDGET (self), "win.derive", NULL);
+}
+
 /* ------------------------------------------------------------------ */
 /* Drag and drop                                                      */
 
@@ -610,6 +732,7 @@ sl_window_class_init (SlWindowClass *klass)
   gtk_widget_class_bind_template_child (widget_class, SlWindow, parallax_box);
   gtk_widget_class_bind_template_child (widget_class, SlWindow, side_notebook);
   gtk_widget_class_bind_template_child (widget_class, SlWindow, trail_view);
+  gtk_widget_class_bind_template_child (widget_class, SlWindow, trail_title);
   gtk_widget_class_bind_template_child (widget_class, SlWindow, ledger_view);
 
   /* Everything the window can do, in one place. */
@@ -617,6 +740,8 @@ sl_window_class_init (SlWindowClass *klass)
   gtk_widget_class_install_action (widget_class, "win.new", NULL, new_action);
   gtk_widget_class_install_action (widget_class, "win.open-demo", NULL, open_demo_action);
   gtk_widget_class_install_action (widget_class, "win.derive", NULL, derive_action);
+  gtk_widget_class_install_action (widget_class, "win.override", NULL, override_action);
+  gtk_widget_class_install_action (widget_class, "win.clear-override", NULL, clear_override_action);
   gtk_widget_class_add_binding_action (widget_class, GDK_KEY_o, GDK_CONTROL_MASK, "win.open", NULL);
   gtk_widget_class_add_binding_action (widget_class, GDK_KEY_n, GDK_CONTROL_MASK, "win.new", NULL);
   gtk_widget_class_add_binding_action (widget_class, GDK_KEY_d, GDK_CONTROL_MASK, "win.derive", NULL);
@@ -664,6 +789,8 @@ sl_window_init (SlWindow *self)
   gtk_window_set_default_size (GTK_WINDOW (self), 1280, 820);
   bind_settings (self);
   gtk_widget_action_set_enabled (GTK_WIDGET (self), "win.derive", FALSE);
+  gtk_widget_action_set_enabled (GTK_WIDGET (self), "win.override", FALSE);
+  gtk_widget_action_set_enabled (GTK_WIDGET (self), "win.clear-override", FALSE);
 }
 
 SlWindow *
