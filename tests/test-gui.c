@@ -639,6 +639,65 @@ test_trail_override (void)
   g_assert_false (text_view_contains ("SET BY HAND"));
 }
 
+/* The Ledger's filters: one kind of change, one person. */
+static void
+test_ledger_filters (void)
+{
+  GtkDropDown *kind = NULL;
+  GtkSearchEntry *person = NULL;
+  GtkWidget *w;
+
+  ENSURE_DEMO ();
+  /* Find the two filter widgets in the window. */
+  for (w = GTK_WIDGET (demo); w; )
+    {
+      if (GTK_IS_DROP_DOWN (w) && kind == NULL)
+        kind = GTK_DROP_DOWN (w);
+      if (GTK_IS_SEARCH_ENTRY (w) && person == NULL)
+        {
+          g_autofree char *placeholder = NULL;
+
+          /* Not the drop-down's own search entry: the one that asks who. */
+          g_object_get (w, "placeholder-text", &placeholder, NULL);
+          if (g_strcmp0 (placeholder, "Who") == 0)
+            person = GTK_SEARCH_ENTRY (w);
+        }
+      /* Depth-first walk. */
+      if (gtk_widget_get_first_child (w))
+        w = gtk_widget_get_first_child (w);
+      else
+        {
+          while (w && !gtk_widget_get_next_sibling (w))
+            w = gtk_widget_get_parent (w);
+          if (w)
+            w = gtk_widget_get_next_sibling (w);
+        }
+    }
+  g_assert_nonnull (kind);
+  g_assert_nonnull (person);
+
+  gtk_drop_down_set_selected (kind, 3);   /* import */
+  g_assert_true (text_view_contains ("import    imported astrometry.csv"));
+  {
+    GtkWidget *notebook = gtk_widget_get_ancestor (GTK_WIDGET (kind), GTK_TYPE_NOTEBOOK);
+    cairo_surface_t *picture;
+
+    gtk_notebook_set_current_page (GTK_NOTEBOOK (notebook), 1);
+    PAINT (demo);
+    picture = render_widget (notebook);
+    save_png (picture, "gui-ledger.png");
+    cairo_surface_destroy (picture);
+    gtk_notebook_set_current_page (GTK_NOTEBOOK (notebook), 0);
+  }
+  g_assert_false (text_view_contains ("create    created the project"));
+  gtk_drop_down_set_selected (kind, 0);
+  g_assert_true (text_view_contains ("create    created the project"));
+  gtk_editable_set_text (GTK_EDITABLE (person), "nobody-by-that-name");
+  WAIT_UNTIL (!text_view_contains ("created the project"), FRAME_TIMEOUT_S, "the person filter");
+  gtk_editable_set_text (GTK_EDITABLE (person), "");
+  WAIT_UNTIL (text_view_contains ("created the project"), FRAME_TIMEOUT_S, "the filter cleared");
+}
+
 static GtkDropTarget *
 drop_target (GtkWidget *widget)
 {
@@ -943,6 +1002,7 @@ main (int argc, char **argv)
   g_test_add_func ("/gui/actions/derive", test_actions_derive);
   g_test_add_func ("/gui/actions/import-by-drop", test_actions_import_by_drop);
   g_test_add_func ("/gui/trail/override", test_trail_override);
+  g_test_add_func ("/gui/ledger/filters", test_ledger_filters);
   g_test_add_func ("/gui/snapshot", test_snapshot);
   g_test_add_func ("/gui/about", test_about);
   g_test_add_func ("/gui/shortcuts", test_shortcuts);

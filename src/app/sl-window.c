@@ -15,6 +15,7 @@
 #include <glib/gi18n.h>
 #include <glib/gstdio.h>
 #include <math.h>
+#include <string.h>
 
 #include "derivation.h"
 #include "explain.h"
@@ -38,6 +39,9 @@ struct _SlWindow {
   GtkNotebook     *side_notebook;
   GtkTextView     *trail_view, *ledger_view;
   GtkLabel        *trail_title;
+  GtkDropDown     *ledger_kind;
+  GtkSearchEntry  *ledger_person;
+  GPtrArray       *ledger_entries;    /* SlLedgerEntry, oldest first, as last read */
 
   SlCatalogueView *catalogue;
   SlPlotView      *views[3];          /* indexed by SlPlotKind */
@@ -133,11 +137,43 @@ hang_ledger_lines (SlWindow *self)
   gtk_text_buffer_apply_tag (buffer, tag, &start, &end);
 }
 
+/* The ledger as read, newest first, through the kind and person filters. */
+static void
+render_ledger (SlWindow *self)
+{
+  g_autoptr (GString) text = g_string_new (NULL);
+  guint kind = gtk_drop_down_get_selected (self->ledger_kind);
+  const char *action = kind == 0 || kind == GTK_INVALID_LIST_POSITION
+                         ? NULL
+                         : gtk_string_list_get_string (GTK_STRING_LIST (gtk_drop_down_get_model (self->ledger_kind)), kind);
+  const char *person = gtk_editable_get_text (GTK_EDITABLE (self->ledger_person));
+
+  if (self->ledger_entries == NULL)
+    return;
+  for (guint i = self->ledger_entries->len; i-- > 0;)
+    {
+      const SlLedgerEntry *e = self->ledger_entries->pdata[i];
+
+      if (action && g_strcmp0 (e->action, action) != 0)
+        continue;
+      if (*person && strstr (e->who, person) == NULL)
+        continue;
+      g_string_append_printf (text, "%s  %-10s  %-8s  %s\n", e->at, e->who, e->action, e->summary);
+    }
+  set_text (self->ledger_view, text->str);
+  hang_ledger_lines (self);
+}
+
+static void
+on_ledger_filter_changed (SlWindow *self)
+{
+  render_ledger (self);
+}
+
 static void
 show_ledger (SlWindow *self, SlProject *project)
 {
   g_autoptr (GPtrArray) entries = NULL;
-  g_autoptr (GString) text = g_string_new (NULL);
   g_autoptr (GError) error = NULL;
 
   entries = sl_ledger_read (project, &error);
@@ -146,15 +182,9 @@ show_ledger (SlWindow *self, SlProject *project)
       set_text (self->ledger_view, error->message);
       return;
     }
-  /* Newest first. */
-  for (guint i = entries->len; i-- > 0;)
-    {
-      const SlLedgerEntry *e = entries->pdata[i];
-
-      g_string_append_printf (text, "%s  %-10s  %-8s  %s\n", e->at, e->who, e->action, e->summary);
-    }
-  set_text (self->ledger_view, text->str);
-  hang_ledger_lines (self);
+  g_clear_pointer (&self->ledger_entries, g_ptr_array_unref);
+  self->ledger_entries = g_steal_pointer (&entries);
+  render_ledger (self);
 }
 
 /* ------------------------------------------------------------------ */
@@ -707,6 +737,7 @@ sl_window_dispose (GObject *object)
   g_clear_pointer (&self->trail_star, g_free);
   g_clear_pointer (&self->trail_quantity, g_free);
   g_clear_object (&self->settings);
+  g_clear_pointer (&self->ledger_entries, g_ptr_array_unref);
   G_OBJECT_CLASS (sl_window_parent_class)->dispose (object);
 }
 
@@ -733,6 +764,8 @@ sl_window_class_init (SlWindowClass *klass)
   gtk_widget_class_bind_template_child (widget_class, SlWindow, side_notebook);
   gtk_widget_class_bind_template_child (widget_class, SlWindow, trail_view);
   gtk_widget_class_bind_template_child (widget_class, SlWindow, trail_title);
+  gtk_widget_class_bind_template_child (widget_class, SlWindow, ledger_kind);
+  gtk_widget_class_bind_template_child (widget_class, SlWindow, ledger_person);
   gtk_widget_class_bind_template_child (widget_class, SlWindow, ledger_view);
 
   /* Everything the window can do, in one place. */
@@ -772,6 +805,8 @@ sl_window_init (SlWindow *self)
   GtkDropTarget *drop;
 
   gtk_widget_init_template (GTK_WIDGET (self));
+  g_signal_connect_swapped (self->ledger_kind, "notify::selected", G_CALLBACK (on_ledger_filter_changed), self);
+  g_signal_connect_swapped (self->ledger_person, "search-changed", G_CALLBACK (on_ledger_filter_changed), self);
 
   self->catalogue = sl_catalogue_view_new ();
   gtk_widget_set_vexpand (GTK_WIDGET (self->catalogue), TRUE);

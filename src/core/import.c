@@ -723,10 +723,19 @@ finish_source (Import *im, GError **error)
       return FALSE;
     }
 
-  summary = g_strdup_printf (_("imported %s: %" G_GUINT64_FORMAT " rows accepted, %u rejected, %"
-                               G_GUINT64_FORMAT " new stars"),
-                             report->file_name, report->rows_accepted, report->rejections->len,
-                             report->new_stars);
+  {
+    /* Each count in its own plural form; numbers formatted first, since
+     * gettext cannot carry the 64-bit format macros. */
+    g_autofree char *n_accepted = g_strdup_printf ("%" G_GUINT64_FORMAT, report->rows_accepted);
+    g_autofree char *n_new = g_strdup_printf ("%" G_GUINT64_FORMAT, report->new_stars);
+    g_autofree char *accepted = g_strdup_printf (g_dngettext (GETTEXT_PACKAGE, "%s row accepted", "%s rows accepted",
+                                                              report->rows_accepted), n_accepted);
+    g_autofree char *new_stars = g_strdup_printf (g_dngettext (GETTEXT_PACKAGE, "%s new star", "%s new stars",
+                                                               report->new_stars), n_new);
+
+    summary = g_strdup_printf (_("imported %s: %s, %u rejected, %s"), report->file_name, accepted,
+                               report->rejections->len, new_stars);
+  }
   g_string_append_printf (details, "{\"source_id\":%" G_GINT64_FORMAT ",\"file\":", report->source_id);
   sl_json_append_string (details, report->file_name);
   g_string_append (details, ",\"sha256\":");
