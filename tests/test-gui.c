@@ -491,6 +491,22 @@ ledger_view_starts_with (const char *at, const char *action)
   return FALSE;
 }
 
+/* The first widget of TYPE under WIDGET, depth first. */
+static GtkWidget *
+find_descendant (GtkWidget *widget, GType type)
+{
+  if (G_TYPE_CHECK_INSTANCE_TYPE (widget, type))
+    return widget;
+  for (GtkWidget *child = gtk_widget_get_first_child (widget); child; child = gtk_widget_get_next_sibling (child))
+    {
+      GtkWidget *found = find_descendant (child, type);
+
+      if (found)
+        return found;
+    }
+  return NULL;
+}
+
 /* The first button under WIDGET that activates ACTION. */
 static GtkWidget *
 action_button (GtkWidget *widget, const char *action)
@@ -539,6 +555,9 @@ test_actions_derive (void)
   g_assert_true (gtk_widget_get_sensitive (action_button (GTK_WIDGET (demo), "win.derive")));
   g_assert_true (gtk_widget_activate_action (GTK_WIDGET (demo), "win.derive", NULL));
   g_assert_true (sl_window_is_loading (demo));
+  /* Long work shows its progress and a way to cancel it. */
+  g_assert_true (gtk_revealer_get_reveal_child (GTK_REVEALER (find_descendant (GTK_WIDGET (demo), GTK_TYPE_REVEALER))));
+  g_assert_true (gtk_widget_get_sensitive (action_button (GTK_WIDGET (demo), "win.cancel-work")));
   /* One derivation at a time: the button is off while it runs. */
   g_assert_false (gtk_widget_get_sensitive (action_button (GTK_WIDGET (demo), "win.derive")));
   WAIT_UNTIL (!sl_window_is_loading (demo), LOAD_TIMEOUT_S, "the derivation and the reload");
@@ -553,6 +572,7 @@ test_actions_derive (void)
   g_assert_true (text_view_starts_with (trail));
   g_assert_cmpint (stale_stars (path), ==, 0);
   g_assert_true (ledger_view_starts_with (after->at, "derive"));
+  g_assert_false (gtk_revealer_get_reveal_child (GTK_REVEALER (find_descendant (GTK_WIDGET (demo), GTK_TYPE_REVEALER))));
   /* Derive can be asked for again. */
   g_assert_true (gtk_widget_get_sensitive (action_button (GTK_WIDGET (demo), "win.derive")));
   click_star (SL_PLOT_KIND_SKY, NULL, FALSE);

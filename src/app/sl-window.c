@@ -39,6 +39,10 @@ struct _SlWindow {
   GtkNotebook     *side_notebook;
   GtkTextView     *trail_view, *ledger_view;
   GtkLabel        *trail_title;
+  GtkRevealer     *work_revealer;
+  GtkLabel        *work_label;
+  GtkProgressBar  *work_progress;
+  GCancellable    *derive_cancel;     /* the running derivation, if any */
   GtkDropDown     *ledger_kind;
   GtkSearchEntry  *ledger_person;
   GPtrArray       *ledger_entries;    /* SlLedgerEntry, oldest first, as last read */
@@ -503,6 +507,40 @@ open_demo_action (GtkWidget *widget, const char *action, GVariant *parameter)
     toast (self, error->message);
 }
 
+/* Progress from the worker thread, shown on the main thread. */
+typedef struct {
+  SlWindow *window;
+  double    fraction;
+} ProgressUpdate;
+
+static gboolean
+apply_progress (gpointer data)
+{
+  ProgressUpdate *update = data;
+
+  gtk_progress_bar_set_fraction (update->window->work_progress, update->fraction);
+  return G_SOURCE_REMOVE;
+}
+
+static void
+progress_update_free (gpointer data)
+{
+  ProgressUpdate *update = data;
+
+  g_object_unref (update->window);
+  g_free (update);
+}
+
+static void
+report_progress (double fraction, gpointer user_data)
+{
+  ProgressUpdate *update = g_new (ProgressUpdate, 1);
+
+  update->window = g_object_ref (SL_WINDOW (user_data));
+  update->fraction = fraction;
+  g_idle_add_full (G_PRIORITY_DEFAULT, apply_progress, update, progress_update_free);
+}
+
 static void
 derive_thread (GTask *task, gpointer source, gpointer task_data, GCancellable *cancellable)
 {
@@ -513,7 +551,7 @@ derive_thread (GTask *task, gpointer source, gpointer task_data, GCancellable *c
 
   sl_derive_params_init (&params);
   project = sl_project_open (task_data, &error);
-  if (project && sl_derivation_run (project, &params, FALSE, cancellable, NULL, NULL, report, &error))
+  if (project && sl_derivation_run (project, &params, FALSE, cancellable, report_progress, source, report, &error))
     g_task_return_pointer (task, report, g_free);
   else
     {
@@ -523,23 +561,37 @@ derive_thread (GTask *task, gpointer source, gpointer task_data, GCancellable *c
 }
 
 static void
+show_work (SlWindow *self, const char *what)
+{
+  gtk_label_set_text (self->work_label, what);
+  gtk_progress_bar_set_fraction (self->work_progress, 0.0);
+  gtk_revealer_set_reveal_child (self->work_revealer, what != NULL);
+  gtk_widget_action_set_enabled (GTK_WIDGET (self), "win.cancel-work", what != NULL);
+}
+
+static void
 on_derived (GObject *source, GAsyncResult *result, gpointer user_data)
 {
   SlWindow *self = SL_WINDOW (source);
   g_autoptr (GError) error = NULL;
   g_autofree SlDeriveReport *report = g_task_propagate_pointer (G_TASK (result), &error);
   g_autofree char *message = NULL;
+  g_autofree char *count = NULL;
 
   self->busy--;
+  g_clear_object (&self->derive_cancel);
+  show_work (self, NULL);
   gtk_widget_action_set_enabled (GTK_WIDGET (self), "win.derive", TRUE);
   if (report == NULL)
     {
-      toast (self, error->message);
+      toast (self, g_error_matches (error, G_IO_ERROR, G_IO_ERROR_CANCELLED)
+                     ? _("Derivation cancelled: the project is as it was")
+                     : error->message);
       return;
     }
-  message = g_strdup_printf (g_dngettext (GETTEXT_PACKAGE, "Derived %" G_GUINT64_FORMAT " star",
-                                          "Derived %" G_GUINT64_FORMAT " stars", report->computed),
-                             report->computed);
+  count = g_strdup_printf ("%" G_GUINT64_FORMAT, report->computed);
+  message = g_strdup_printf (g_dngettext (GETTEXT_PACKAGE, "Derived %s star", "Derived %s stars",
+                                          report->computed), count);
   toast (self, message);
   reload (self);
 }
@@ -554,9 +606,20 @@ derive_action (GtkWidget *widget, const char *action, GVariant *parameter)
     return;
   gtk_widget_action_set_enabled (widget, "win.derive", FALSE);
   self->busy++;
-  task = g_task_new (self, NULL, on_derived, NULL);
+  self->derive_cancel = g_cancellable_new ();
+  show_work (self, _("Deriving…"));
+  task = g_task_new (self, self->derive_cancel, on_derived, NULL);
   g_task_set_task_data (task, g_strdup (self->path), g_free);
   g_task_run_in_thread (task, derive_thread);
+}
+
+static void
+cancel_work_action (GtkWidget *widget, const char *action, GVariant *parameter)
+{
+  SlWindow *self = SL_WINDOW (widget);
+
+  if (self->derive_cancel)
+    g_cancellable_cancel (self->derive_cancel);
 }
 
 /* The hand-set value dialog: value, optional 68% bounds, and the reason
@@ -728,6 +791,9 @@ sl_window_dispose (GObject *object)
 
   g_cancellable_cancel (self->work);
   g_clear_object (&self->work);
+  if (self->derive_cancel)
+    g_cancellable_cancel (self->derive_cancel);
+  g_clear_object (&self->derive_cancel);
   for (guint i = 0; i < G_N_ELEMENTS (self->views); i++)
     if (self->views[i])
       sl_plot_view_set_stars (self->views[i], NULL);
@@ -764,6 +830,9 @@ sl_window_class_init (SlWindowClass *klass)
   gtk_widget_class_bind_template_child (widget_class, SlWindow, side_notebook);
   gtk_widget_class_bind_template_child (widget_class, SlWindow, trail_view);
   gtk_widget_class_bind_template_child (widget_class, SlWindow, trail_title);
+  gtk_widget_class_bind_template_child (widget_class, SlWindow, work_revealer);
+  gtk_widget_class_bind_template_child (widget_class, SlWindow, work_label);
+  gtk_widget_class_bind_template_child (widget_class, SlWindow, work_progress);
   gtk_widget_class_bind_template_child (widget_class, SlWindow, ledger_kind);
   gtk_widget_class_bind_template_child (widget_class, SlWindow, ledger_person);
   gtk_widget_class_bind_template_child (widget_class, SlWindow, ledger_view);
@@ -773,6 +842,7 @@ sl_window_class_init (SlWindowClass *klass)
   gtk_widget_class_install_action (widget_class, "win.new", NULL, new_action);
   gtk_widget_class_install_action (widget_class, "win.open-demo", NULL, open_demo_action);
   gtk_widget_class_install_action (widget_class, "win.derive", NULL, derive_action);
+  gtk_widget_class_install_action (widget_class, "win.cancel-work", NULL, cancel_work_action);
   gtk_widget_class_install_action (widget_class, "win.override", NULL, override_action);
   gtk_widget_class_install_action (widget_class, "win.clear-override", NULL, clear_override_action);
   gtk_widget_class_add_binding_action (widget_class, GDK_KEY_o, GDK_CONTROL_MASK, "win.open", NULL);
@@ -826,6 +896,7 @@ sl_window_init (SlWindow *self)
   gtk_widget_action_set_enabled (GTK_WIDGET (self), "win.derive", FALSE);
   gtk_widget_action_set_enabled (GTK_WIDGET (self), "win.override", FALSE);
   gtk_widget_action_set_enabled (GTK_WIDGET (self), "win.clear-override", FALSE);
+  gtk_widget_action_set_enabled (GTK_WIDGET (self), "win.cancel-work", FALSE);
 }
 
 SlWindow *
