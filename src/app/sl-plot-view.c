@@ -82,6 +82,16 @@ selected_subset (const SlStarSet *stars, const char *const *selection)
   return subset;
 }
 
+/* The parallax view draws only the selected stars: picked out once when
+ * the stars or the selection change, not at every redraw. */
+static void
+update_chosen (SlPlotView *self)
+{
+  g_clear_pointer (&self->chosen, sl_star_set_free);
+  if (self->kind == SL_PLOT_KIND_PARALLAX && self->stars)
+    self->chosen = selected_subset (self->stars, (const char *const *) self->selection);
+}
+
 static void
 draw_figure (SlPlotView *self, cairo_t *cr, double width, double height)
 {
@@ -128,8 +138,6 @@ draw_figure (SlPlotView *self, cairo_t *cr, double width, double height)
 
         sl_parallax_options_init (&options);
         options.empty_message = _("Select stars in the table or a view to see their parallax paths.");
-        g_clear_pointer (&self->chosen, sl_star_set_free);
-        self->chosen = selected_subset (self->stars, (const char *const *) self->selection);
         sl_parallax_draw (&fig, self->chosen, &options, NULL, NULL);
         break;
       }
@@ -340,7 +348,7 @@ sl_plot_view_set_stars (SlPlotView *self, const SlStarSet *stars)
 {
   g_return_if_fail (SL_IS_PLOT_VIEW (self));
   self->stars = stars;
-  g_clear_pointer (&self->chosen, sl_star_set_free);
+  update_chosen (self);
   g_array_set_size (self->positions, 0);
   gtk_widget_queue_draw (GTK_WIDGET (self));
 }
@@ -351,6 +359,7 @@ sl_plot_view_set_selection (SlPlotView *self, const char *const *designations)
   g_return_if_fail (SL_IS_PLOT_VIEW (self));
   g_strfreev (self->selection);
   self->selection = g_strdupv ((char **) designations);
+  update_chosen (self);
   gtk_widget_queue_draw (GTK_WIDGET (self));
 }
 

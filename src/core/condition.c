@@ -17,6 +17,7 @@
 #include <string.h>
 
 #include "derive/derive.h"
+#include "inputs.h"
 #include "sl-error.h"
 #include "units.h"
 #include "vocabulary.h"
@@ -62,22 +63,24 @@ static const char *const join_alias[N_JOINS] = {
   "in_sptype", "in_star",
 };
 
-/* Which group each input field is chosen with: the groups of inputs.c. */
-static const Join field_join[SL_N_FIELDS] = {
-  [SL_FIELD_ID] = JOIN_STAR,
-  [SL_FIELD_RA] = JOIN_POSITION, [SL_FIELD_RA_ERR] = JOIN_POSITION,
-  [SL_FIELD_DEC] = JOIN_POSITION, [SL_FIELD_DEC_ERR] = JOIN_POSITION,
-  [SL_FIELD_EPOCH] = JOIN_POSITION,
-  [SL_FIELD_PARALLAX] = JOIN_PARALLAX, [SL_FIELD_PARALLAX_ERR] = JOIN_PARALLAX,
-  [SL_FIELD_PMRA] = JOIN_PM, [SL_FIELD_PMRA_ERR] = JOIN_PM,
-  [SL_FIELD_PMDEC] = JOIN_PM, [SL_FIELD_PMDEC_ERR] = JOIN_PM,
-  [SL_FIELD_VMAG] = JOIN_VMAG, [SL_FIELD_VMAG_ERR] = JOIN_VMAG,
-  [SL_FIELD_BMAG] = JOIN_BMAG, [SL_FIELD_BMAG_ERR] = JOIN_BMAG,
-  [SL_FIELD_BV] = JOIN_BV, [SL_FIELD_BV_ERR] = JOIN_BV,
-  [SL_FIELD_EBV] = JOIN_EBV, [SL_FIELD_EBV_ERR] = JOIN_EBV,
-  [SL_FIELD_VRAD] = JOIN_VRAD, [SL_FIELD_VRAD_ERR] = JOIN_VRAD,
-  [SL_FIELD_SPTYPE] = JOIN_SPTYPE,
-};
+/* The join of each group of inputs (inputs.c), by the field that leads it. */
+static Join
+field_join (SlField field)
+{
+  switch (field == SL_FIELD_ID ? SL_FIELD_ID : sl_input_group_lead (field))
+    {
+    case SL_FIELD_ID:       return JOIN_STAR;
+    case SL_FIELD_RA:       return JOIN_POSITION;
+    case SL_FIELD_PARALLAX: return JOIN_PARALLAX;
+    case SL_FIELD_PMRA:     return JOIN_PM;
+    case SL_FIELD_VMAG:     return JOIN_VMAG;
+    case SL_FIELD_BMAG:     return JOIN_BMAG;
+    case SL_FIELD_BV:       return JOIN_BV;
+    case SL_FIELD_EBV:      return JOIN_EBV;
+    case SL_FIELD_VRAD:     return JOIN_VRAD;
+    default:                return JOIN_SPTYPE;
+    }
+}
 
 /* A name resolved to a column. */
 typedef struct {
@@ -101,7 +104,7 @@ resolve_name (const char *name, Column *column)
     }
   if (sl_field_from_name (name, &f))
     {
-      column->join = field_join[f];
+      column->join = field_join (f);
       column->is_text = sl_field_info (f)->kind != SL_FIELD_KIND_VALUE
                         && sl_field_info (f)->kind != SL_FIELD_KIND_ERROR;
       g_snprintf (column->sql, sizeof column->sql, "%s.%s", join_alias[column->join],

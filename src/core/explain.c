@@ -12,6 +12,7 @@
 #include <string.h>
 
 #include "derivation.h"
+#include "inputs.h"
 #include "derive/engine.h"
 #include "sl-error.h"
 #include "util.h"
@@ -442,21 +443,9 @@ write_step (Writer *w, const SlModule *m, const SlDerivedRow *row, const RunInfo
 static gint64
 measurement_for_field (const SlDerivedRow *row, SlField field)
 {
-  static const SlField group_of[SL_N_FIELDS] = {
-    [SL_FIELD_RA] = SL_FIELD_RA, [SL_FIELD_RA_ERR] = SL_FIELD_RA, [SL_FIELD_DEC] = SL_FIELD_RA,
-    [SL_FIELD_DEC_ERR] = SL_FIELD_RA, [SL_FIELD_EPOCH] = SL_FIELD_RA,
-    [SL_FIELD_PARALLAX] = SL_FIELD_PARALLAX, [SL_FIELD_PARALLAX_ERR] = SL_FIELD_PARALLAX,
-    [SL_FIELD_PMRA] = SL_FIELD_PMRA, [SL_FIELD_PMRA_ERR] = SL_FIELD_PMRA,
-    [SL_FIELD_PMDEC] = SL_FIELD_PMRA, [SL_FIELD_PMDEC_ERR] = SL_FIELD_PMRA,
-    [SL_FIELD_VMAG] = SL_FIELD_VMAG, [SL_FIELD_VMAG_ERR] = SL_FIELD_VMAG,
-    [SL_FIELD_BMAG] = SL_FIELD_BMAG, [SL_FIELD_BMAG_ERR] = SL_FIELD_BMAG,
-    [SL_FIELD_BV] = SL_FIELD_BV, [SL_FIELD_BV_ERR] = SL_FIELD_BV,
-    [SL_FIELD_EBV] = SL_FIELD_EBV, [SL_FIELD_EBV_ERR] = SL_FIELD_EBV,
-    [SL_FIELD_VRAD] = SL_FIELD_VRAD, [SL_FIELD_VRAD_ERR] = SL_FIELD_VRAD,
-    [SL_FIELD_SPTYPE] = SL_FIELD_SPTYPE,
-  };
+  SlField lead = sl_input_group_lead (field);
 
-  return row->measurement[group_of[field]];
+  return lead == SL_FIELD_NONE ? 0 : row->measurement[lead];
 }
 
 static gboolean

@@ -25,6 +25,19 @@ static const FieldGroup groups[] = {
   { SL_FIELD_VRAD, { SL_FIELD_VRAD, SL_FIELD_VRAD_ERR }, 2 },
 };
 
+SlField
+sl_input_group_lead (SlField field)
+{
+  g_return_val_if_fail (field < SL_N_FIELDS, SL_FIELD_NONE);
+  if (field == SL_FIELD_SPTYPE)
+    return SL_FIELD_SPTYPE;   /* alone: the later source's */
+  for (gsize g = 0; g < G_N_ELEMENTS (groups); g++)
+    for (guint m = 0; m < groups[g].n_members; m++)
+      if (groups[g].members[m] == field)
+        return groups[g].lead;
+  return SL_FIELD_NONE;
+}
+
 /* One measurements row as read. */
 typedef struct {
   gint64   id;

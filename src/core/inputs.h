@@ -25,6 +25,12 @@ typedef struct {
   guint       n_measurements;           /* rows the star has */
 } SlStarInputs;
 
+/* The field that leads FIELD's group (ra for dec and epoch, pmra for
+ * pmdec, the value for its error, sptype for itself): the key of
+ * SlStarInputs.measurement and of a derived row's measurement columns.
+ * SL_FIELD_NONE for the id. */
+SlField sl_input_group_lead (SlField field);
+
 typedef struct _SlInputCursor SlInputCursor;
 
 /* Walks every star in id order.  STAR_ID > 0 restricts it to that star. */
