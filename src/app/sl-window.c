@@ -4,7 +4,9 @@
  *   the project ........... sl_window_open_project, load_stars (a GTask thread)
  *   the selection ......... set_selection: one selection for the table and every view
  *   trail and ledger ...... show_trail (kept current by reload), show_ledger
- *   actions ............... open, new, open-demo, derive (a GTask thread)
+ *   actions ............... open, new, open-demo
+ *   long work ............. sl_window_run_work: derive, import (GTask threads,
+ *                           progress bar, Cancel)
  *   drag and drop ......... a project opens, a CSV file is imported
  *   settings .............. window size and pane positions (GSettings)
  *
@@ -42,7 +44,7 @@ struct _SlWindow {
   GtkRevealer     *work_revealer;
   GtkLabel        *work_label;
   GtkProgressBar  *work_progress;
-  GCancellable    *derive_cancel;     /* the running derivation, if any */
+  GCancellable    *work_cancel;       /* the running job (derive, import, export), if any */
   GtkDropDown     *ledger_kind;
   GtkSearchEntry  *ledger_person;
   GPtrArray       *ledger_entries;    /* SlLedgerEntry, oldest first, as last read */
@@ -61,6 +63,8 @@ struct _SlWindow {
 };
 
 G_DEFINE_FINAL_TYPE (SlWindow, sl_window, ADW_TYPE_APPLICATION_WINDOW)
+
+static void show_work (SlWindow *self, const char *what);
 
 static void
 toast (SlWindow *self, const char *message)
@@ -346,7 +350,8 @@ sl_window_open_project (SlWindow *self, const char *path, GError **error)
   g_clear_pointer (&self->trail_quantity, g_free);
   set_text (self->trail_view, _("Click a value in the table to see how it was obtained."));
   show_ledger (self, project);
-  gtk_widget_action_set_enabled (GTK_WIDGET (self), "win.derive", TRUE);
+  if (self->work_cancel == NULL)
+    show_work (self, NULL);
   {
     g_autofree char *uri = g_filename_to_uri (path, NULL, NULL);
 
@@ -507,6 +512,14 @@ open_demo_action (GtkWidget *widget, const char *action, GVariant *parameter)
     toast (self, error->message);
 }
 
+/* Long work: one job at a time, off the main thread, with the progress
+ * bar and Cancel.  Derive, import and figure export all go through here. */
+
+typedef struct {
+  GAsyncReadyCallback done;
+  gpointer            done_data;
+} WorkClosure;
+
 /* Progress from the worker thread, shown on the main thread. */
 typedef struct {
   SlWindow *window;
@@ -518,7 +531,8 @@ apply_progress (gpointer data)
 {
   ProgressUpdate *update = data;
 
-  gtk_progress_bar_set_fraction (update->window->work_progress, update->fraction);
+  if (update->window->work_cancel)
+    gtk_progress_bar_set_fraction (update->window->work_progress, update->fraction);
   return G_SOURCE_REMOVE;
 }
 
@@ -531,14 +545,77 @@ progress_update_free (gpointer data)
   g_free (update);
 }
 
-static void
-report_progress (double fraction, gpointer user_data)
+void
+sl_window_report_progress (double fraction, gpointer window)
 {
   ProgressUpdate *update = g_new (ProgressUpdate, 1);
 
-  update->window = g_object_ref (SL_WINDOW (user_data));
+  update->window = g_object_ref (SL_WINDOW (window));
   update->fraction = fraction;
   g_idle_add_full (G_PRIORITY_DEFAULT, apply_progress, update, progress_update_free);
+}
+
+/* While a job runs, nothing else that writes the project may start. */
+static const char *const work_actions[] = { "win.derive", "win.import", NULL };
+
+static void
+show_work (SlWindow *self, const char *what)
+{
+  gboolean running = what != NULL;
+
+  gtk_label_set_text (self->work_label, what);
+  gtk_progress_bar_set_fraction (self->work_progress, 0.0);
+  gtk_revealer_set_reveal_child (self->work_revealer, running);
+  gtk_widget_action_set_enabled (GTK_WIDGET (self), "win.cancel-work", running);
+  for (guint i = 0; work_actions[i]; i++)
+    gtk_widget_action_set_enabled (GTK_WIDGET (self), work_actions[i], !running && self->path != NULL);
+}
+
+static void
+on_work_done (GObject *source, GAsyncResult *result, gpointer user_data)
+{
+  SlWindow *self = SL_WINDOW (source);
+  WorkClosure *closure = user_data;
+
+  self->busy--;
+  g_clear_object (&self->work_cancel);
+  show_work (self, NULL);
+  closure->done (source, result, closure->done_data);
+  g_free (closure);
+}
+
+gboolean
+sl_window_run_work (SlWindow *self, const char *what, GTaskThreadFunc thread, gpointer task_data,
+                    GDestroyNotify task_data_free, GAsyncReadyCallback done, gpointer done_data)
+{
+  g_autoptr (GTask) task = NULL;
+  WorkClosure *closure;
+
+  g_return_val_if_fail (SL_IS_WINDOW (self), FALSE);
+  if (self->work_cancel != NULL)
+    {
+      if (task_data_free)
+        task_data_free (task_data);
+      toast (self, _("Wait for the running job to finish, or cancel it"));
+      return FALSE;
+    }
+  closure = g_new (WorkClosure, 1);
+  closure->done = done;
+  closure->done_data = done_data;
+  self->busy++;
+  self->work_cancel = g_cancellable_new ();
+  show_work (self, what);
+  task = g_task_new (self, self->work_cancel, on_work_done, closure);
+  g_task_set_task_data (task, task_data, task_data_free);
+  g_task_run_in_thread (task, thread);
+  return TRUE;
+}
+
+gboolean
+sl_window_is_working (SlWindow *self)
+{
+  g_return_val_if_fail (SL_IS_WINDOW (self), FALSE);
+  return self->work_cancel != NULL;
 }
 
 static void
@@ -551,22 +628,14 @@ derive_thread (GTask *task, gpointer source, gpointer task_data, GCancellable *c
 
   sl_derive_params_init (&params);
   project = sl_project_open (task_data, &error);
-  if (project && sl_derivation_run (project, &params, FALSE, cancellable, report_progress, source, report, &error))
+  if (project
+      && sl_derivation_run (project, &params, FALSE, cancellable, sl_window_report_progress, source, report, &error))
     g_task_return_pointer (task, report, g_free);
   else
     {
       g_free (report);
       g_task_return_error (task, error);
     }
-}
-
-static void
-show_work (SlWindow *self, const char *what)
-{
-  gtk_label_set_text (self->work_label, what);
-  gtk_progress_bar_set_fraction (self->work_progress, 0.0);
-  gtk_revealer_set_reveal_child (self->work_revealer, what != NULL);
-  gtk_widget_action_set_enabled (GTK_WIDGET (self), "win.cancel-work", what != NULL);
 }
 
 static void
@@ -578,10 +647,6 @@ on_derived (GObject *source, GAsyncResult *result, gpointer user_data)
   g_autofree char *message = NULL;
   g_autofree char *count = NULL;
 
-  self->busy--;
-  g_clear_object (&self->derive_cancel);
-  show_work (self, NULL);
-  gtk_widget_action_set_enabled (GTK_WIDGET (self), "win.derive", TRUE);
   if (report == NULL)
     {
       toast (self, g_error_matches (error, G_IO_ERROR, G_IO_ERROR_CANCELLED)
@@ -600,17 +665,10 @@ static void
 derive_action (GtkWidget *widget, const char *action, GVariant *parameter)
 {
   SlWindow *self = SL_WINDOW (widget);
-  g_autoptr (GTask) task = NULL;
 
   if (self->path == NULL)
     return;
-  gtk_widget_action_set_enabled (widget, "win.derive", FALSE);
-  self->busy++;
-  self->derive_cancel = g_cancellable_new ();
-  show_work (self, _("Deriving…"));
-  task = g_task_new (self, self->derive_cancel, on_derived, NULL);
-  g_task_set_task_data (task, g_strdup (self->path), g_free);
-  g_task_run_in_thread (task, derive_thread);
+  sl_window_run_work (self, _("Deriving…"), derive_thread, g_strdup (self->path), g_free, on_derived, NULL);
 }
 
 static void
@@ -618,8 +676,123 @@ cancel_work_action (GtkWidget *widget, const char *action, GVariant *parameter)
 {
   SlWindow *self = SL_WINDOW (widget);
 
-  if (self->derive_cancel)
-    g_cancellable_cancel (self->derive_cancel);
+  if (self->work_cancel)
+    g_cancellable_cancel (self->work_cancel);
+}
+
+/* Import: a CSV file into the open project, with the importer's defaults
+ * (the delimiter detected, columns mapped by their names). */
+
+typedef struct {
+  char *project;
+  char *file;
+} ImportJob;
+
+static void
+import_job_free (gpointer data)
+{
+  ImportJob *job = data;
+
+  g_free (job->project);
+  g_free (job->file);
+  g_free (job);
+}
+
+static void
+import_thread (GTask *task, gpointer source, gpointer task_data, GCancellable *cancellable)
+{
+  ImportJob *job = task_data;
+  g_autoptr (SlProject) project = NULL;
+  SlImportReport *report = NULL;
+  SlImportOptions options;
+  GError *error = NULL;
+
+  sl_import_options_init (&options);
+  options.cancellable = cancellable;
+  options.progress = sl_window_report_progress;
+  options.progress_data = source;
+  project = sl_project_open (job->project, &error);
+  if (project)
+    report = sl_import_csv (project, job->file, &options, &error);
+  if (report)
+    g_task_return_pointer (task, report, (GDestroyNotify) sl_import_report_free);
+  else
+    g_task_return_error (task, error);
+}
+
+static void
+on_imported (GObject *source, GAsyncResult *result, gpointer user_data)
+{
+  SlWindow *self = SL_WINDOW (source);
+  g_autoptr (GError) error = NULL;
+  g_autoptr (SlImportReport) report = g_task_propagate_pointer (G_TASK (result), &error);
+  g_autofree char *accepted = NULL;
+  g_autofree char *rows = NULL;
+  g_autofree char *message = NULL;
+
+  if (report == NULL)
+    {
+      toast (self, g_error_matches (error, G_IO_ERROR, G_IO_ERROR_CANCELLED)
+                     ? _("Import cancelled: the project is as it was")
+                     : error->message);
+      return;
+    }
+  accepted = g_strdup_printf ("%" G_GUINT64_FORMAT, report->rows_accepted);
+  rows = g_strdup_printf (g_dngettext (GETTEXT_PACKAGE, "Imported %s row", "Imported %s rows",
+                                       report->rows_accepted), accepted);
+  message = g_strdup_printf (g_dngettext (GETTEXT_PACKAGE, "%s, rejected %u", "%s, rejected %u",
+                                          report->rejections->len), rows, report->rejections->len);
+  toast (self, message);
+  reload (self);
+}
+
+gboolean
+sl_window_import_file (SlWindow *self, const char *path)
+{
+  ImportJob *job;
+  g_autofree char *what = NULL;
+  g_autofree char *name = NULL;
+
+  g_return_val_if_fail (SL_IS_WINDOW (self), FALSE);
+  if (self->path == NULL)
+    return FALSE;
+  job = g_new (ImportJob, 1);
+  job->project = g_strdup (self->path);
+  job->file = g_strdup (path);
+  name = g_path_get_basename (path);
+  what = g_strdup_printf (_("Importing %s…"), name);
+  return sl_window_run_work (self, what, import_thread, job, import_job_free, on_imported, NULL);
+}
+
+static void
+on_import_response (GtkNativeDialog *dialog, int response, SlWindow *self)
+{
+  if (response == GTK_RESPONSE_ACCEPT)
+    {
+      g_autoptr (GFile) file = gtk_file_chooser_get_file (GTK_FILE_CHOOSER (dialog));
+      g_autofree char *path = g_file_get_path (file);
+
+      if (path)
+        sl_window_import_file (self, path);
+    }
+  g_object_unref (dialog);
+}
+
+static void
+import_action (GtkWidget *widget, const char *action, GVariant *parameter)
+{
+  SlWindow *self = SL_WINDOW (widget);
+  GtkFileChooserNative *dialog = gtk_file_chooser_native_new (_("Import Measurements"), GTK_WINDOW (self),
+                                                              GTK_FILE_CHOOSER_ACTION_OPEN, _("_Import"),
+                                                              _("_Cancel"));
+  g_autoptr (GtkFileFilter) filter = gtk_file_filter_new ();
+
+  gtk_file_filter_set_name (filter, _("CSV files"));
+  gtk_file_filter_add_pattern (filter, "*.csv");
+  gtk_file_filter_add_mime_type (filter, "text/csv");
+  gtk_file_chooser_add_filter (GTK_FILE_CHOOSER (dialog), filter);
+  g_signal_connect (dialog, "response", G_CALLBACK (on_import_response), self);
+  gtk_native_dialog_show (GTK_NATIVE_DIALOG (dialog));
 }
 
 /* The hand-set value dialog: value, optional 68% bounds, and the reason
@@ -744,28 +917,8 @@ on_drop (GtkDropTarget *target, const GValue *value, double x, double y, SlWindo
   if (path == NULL)
     return FALSE;
   if (g_str_has_suffix (path, ".csv") && self->path)
-    {
-      g_autoptr (SlProject) project = sl_project_open (self->path, &error);
-      g_autoptr (SlImportReport) report = NULL;
-      SlImportOptions options;
-
-      sl_import_options_init (&options);
-      report = project ? sl_import_csv (project, path, &options, &error) : NULL;
-      if (report)
-        {
-          g_autofree char *message = g_strdup_printf (g_dngettext (GETTEXT_PACKAGE,
-                                                                   "Imported %" G_GUINT64_FORMAT " row, rejected %u",
-                                                                   "Imported %" G_GUINT64_FORMAT " rows, rejected %u",
-                                                                   report->rows_accepted),
-                                                      report->rows_accepted, report->rejections->len);
-
-          toast (self, message);
-          reload (self);
-        }
-    }
-  else
-    sl_window_open_project (self, path, &error);
-  if (error)
+    return sl_window_import_file (self, path);
+  if (!sl_window_open_project (self, path, &error))
     toast (self, error->message);
   return error == NULL;
 }
@@ -791,9 +944,9 @@ sl_window_dispose (GObject *object)
 
   g_cancellable_cancel (self->work);
   g_clear_object (&self->work);
-  if (self->derive_cancel)
-    g_cancellable_cancel (self->derive_cancel);
-  g_clear_object (&self->derive_cancel);
+  if (self->work_cancel)
+    g_cancellable_cancel (self->work_cancel);
+  g_clear_object (&self->work_cancel);
   for (guint i = 0; i < G_N_ELEMENTS (self->views); i++)
     if (self->views[i])
       sl_plot_view_set_stars (self->views[i], NULL);
@@ -842,12 +995,14 @@ sl_window_class_init (SlWindowClass *klass)
   gtk_widget_class_install_action (widget_class, "win.new", NULL, new_action);
   gtk_widget_class_install_action (widget_class, "win.open-demo", NULL, open_demo_action);
   gtk_widget_class_install_action (widget_class, "win.derive", NULL, derive_action);
+  gtk_widget_class_install_action (widget_class, "win.import", NULL, import_action);
   gtk_widget_class_install_action (widget_class, "win.cancel-work", NULL, cancel_work_action);
   gtk_widget_class_install_action (widget_class, "win.override", NULL, override_action);
   gtk_widget_class_install_action (widget_class, "win.clear-override", NULL, clear_override_action);
   gtk_widget_class_add_binding_action (widget_class, GDK_KEY_o, GDK_CONTROL_MASK, "win.open", NULL);
   gtk_widget_class_add_binding_action (widget_class, GDK_KEY_n, GDK_CONTROL_MASK, "win.new", NULL);
   gtk_widget_class_add_binding_action (widget_class, GDK_KEY_d, GDK_CONTROL_MASK, "win.derive", NULL);
+  gtk_widget_class_add_binding_action (widget_class, GDK_KEY_i, GDK_CONTROL_MASK, "win.import", NULL);
 }
 
 static void
@@ -893,10 +1048,9 @@ sl_window_init (SlWindow *self)
 
   gtk_window_set_default_size (GTK_WINDOW (self), 1280, 820);
   bind_settings (self);
-  gtk_widget_action_set_enabled (GTK_WIDGET (self), "win.derive", FALSE);
+  show_work (self, NULL);
   gtk_widget_action_set_enabled (GTK_WIDGET (self), "win.override", FALSE);
   gtk_widget_action_set_enabled (GTK_WIDGET (self), "win.clear-override", FALSE);
-  gtk_widget_action_set_enabled (GTK_WIDGET (self), "win.cancel-work", FALSE);
 }
 
 SlWindow *
@@ -935,4 +1089,29 @@ sl_window_get_selection (SlWindow *self)
 {
   g_return_val_if_fail (SL_IS_WINDOW (self), NULL);
   return (const char *const *) self->selection;
+}
+
+/* ------------------------------------------------------------------ */
+/* For the window's dialogs and panels                                */
+
+const char *
+sl_window_get_project_path (SlWindow *self)
+{
+  g_return_val_if_fail (SL_IS_WINDOW (self), NULL);
+  return self->path;
+}
+
+void
+sl_window_toast (SlWindow *self, const char *message)
+{
+  g_return_if_fail (SL_IS_WINDOW (self));
+  toast (self, message);
+}
+
+void
+sl_window_reload (SlWindow *self)
+{
+  g_return_if_fail (SL_IS_WINDOW (self));
+  if (self->path)
+    reload (self);
 }

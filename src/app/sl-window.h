@@ -21,6 +21,27 @@ gboolean  sl_window_open_project (SlWindow *window, const char *path, GError **e
 /* Makes a fresh demo project in the user's cache directory and opens it. */
 gboolean  sl_window_open_demo (SlWindow *window, GError **error);
 
+/* Imports the CSV file at PATH into the open project in a thread, with the
+ * importer's defaults; FALSE if no project is open or a job is running. */
+gboolean  sl_window_import_file (SlWindow *window, const char *path);
+
+/* For the window's dialogs and panels.
+ * Long work: runs THREAD in a GTask (source object: the window; cancellable:
+ * the Cancel button's) while the progress bar shows WHAT; DONE runs on the
+ * main thread after the bar is gone.  One job at a time: FALSE (and a toast)
+ * if one is running, TASK_DATA freed.  sl_window_report_progress is an
+ * SlProgressFunc for the thread, with the window as its data. */
+gboolean  sl_window_run_work (SlWindow *window, const char *what, GTaskThreadFunc thread,
+                              gpointer task_data, GDestroyNotify task_data_free,
+                              GAsyncReadyCallback done, gpointer done_data);
+void      sl_window_report_progress (double fraction, gpointer window);
+gboolean  sl_window_is_working (SlWindow *window);
+/* The open project's path (borrowed; NULL: none); a toast; reading the
+ * project again after it changed (table, views, Trail, Ledger). */
+const char *sl_window_get_project_path (SlWindow *window);
+void      sl_window_toast (SlWindow *window, const char *message);
+void      sl_window_reload (SlWindow *window);
+
 /* For tests only (tests/test-gui.c); the window itself does not use them.
  * The Catalogue and the view of KIND (borrowed); whether a background job
  * (loading the views' stars, a derivation) is still running; the selected
