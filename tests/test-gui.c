@@ -733,8 +733,8 @@ drop_target (GtkWidget *widget)
   return NULL;
 }
 
-/* A CSV file dropped on the window is imported into the project: one new
- * star in the table and on the sky. */
+/* A CSV file dropped on the window is imported into the project in a
+ * thread: one new star in the table and on the sky. */
 static void
 test_actions_import_by_drop (void)
 {
@@ -761,11 +761,12 @@ test_actions_import_by_drop (void)
   g_value_set_object (&value, gfile);
   g_signal_emit_by_name (target, "drop", &value, 100.0, 100.0, &accepted);
   g_assert_true (accepted);
-  newest = newest_entry (path, &n_entries);
-  g_assert_cmpstr (newest->action, ==, "import");
-
+  /* The import runs in a thread, with the progress bar and Cancel. */
+  g_assert_true (sl_window_is_working (demo));
   WAIT_UNTIL (!sl_window_is_loading (demo) && catalogue_rows () == rows + 1, LOAD_TIMEOUT_S,
               "the table to show the imported star");
+  newest = newest_entry (path, &n_entries);
+  g_assert_cmpstr (newest->action, ==, "import");
   PAINT (demo);
   g_assert_cmpuint (drawn (SL_PLOT_KIND_SKY), ==, sky + 1);
   g_assert_true (ledger_view_starts_with (newest->at, "import"));
