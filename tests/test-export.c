@@ -167,6 +167,38 @@ test_locale_independent (SlTestProject *f, gconstpointer data)
   g_assert_nonnull (strstr (in_c, "12.25"));
 }
 
+/* Text cells that a spreadsheet would run as a formula get a leading
+ * apostrophe (common practice: the OWASP advice on CSV injection); numbers
+ * with a sign and ordinary text are written as they are. */
+static void
+test_formula_neutralised (SlTestProject *f, gconstpointer data)
+{
+  static const char csv[] =
+    "id,ra,dec,sptype\n"
+    "\"=HYPERLINK(\"\"http://x\"\")\",10,10,+1\n"
+    "@SUM(A1),11,11,-3.5\n"
+    "-LHO 1,12,12,+G2 V\n";
+  const char *columns[] = { "sptype", NULL };
+  g_autofree char *input = sl_test_write_file (f->dir, "hostile.csv", csv, -1);
+  g_autofree char *path = g_build_filename (f->dir, "hostile-out.csv", NULL);
+  g_autofree char *text = NULL;
+  g_autoptr (SlImportReport) report = NULL;
+  g_autoptr (GError) error = NULL;
+  SlExportOptions export_options = { SL_EXPORT_CSV, columns, NULL };
+  SlImportOptions options;
+
+  sl_import_options_init (&options);
+  report = sl_import_csv (f->project, input, &options, &error);
+  g_assert_no_error (error);
+  g_assert_cmpuint (report->rows_accepted, ==, 3);
+  g_assert_cmpint (sl_export (f->project, path, &export_options, &error), ==, 5);
+  g_assert_no_error (error);
+  g_assert_true (g_file_get_contents (path, &text, NULL, NULL));
+  g_assert_nonnull (strstr (text, "\n\"'=HYPERLINK(\"\"http://x\"\")\",+1\n"));
+  g_assert_nonnull (strstr (text, "\n'@SUM(A1),-3.5\n"));
+  g_assert_nonnull (strstr (text, "\n'-LHO 1,'+G2 V\n"));
+}
+
 int
 main (int argc, char **argv)
 {
@@ -181,6 +213,7 @@ main (int argc, char **argv)
   ADD ("/export/csv/unknown-column", test_unknown_column);
   ADD ("/export/csv/atomic-write", test_atomic_write);
   ADD ("/export/csv/locale-independent", test_locale_independent);
+  ADD ("/export/csv/formula-neutralised", test_formula_neutralised);
 #undef ADD
 
   return g_test_run ();

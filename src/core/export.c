@@ -17,6 +17,7 @@
 #include "lists.h"
 #include "rounding.h"
 #include "sl-error.h"
+#include "units.h"
 #include "util.h"
 #include "vocabulary.h"
 
@@ -218,11 +219,32 @@ column_text (const Column *c, const StarRow *row, char **free_me)
 /* ------------------------------------------------------------------ */
 /* CSV                                                                */
 
+/* A spreadsheet runs a cell that starts with = + - @ (or a tab or carriage
+ * return, which some strip first) as a formula: a hostile designation in a
+ * catalogue extract could then run commands on a colleague's machine.  As
+ * common practice (the OWASP advice on CSV injection) recommends, such a
+ * text cell, unless it is a plain number, is written with a leading
+ * apostrophe, which spreadsheets show as text and do not evaluate. */
+static gboolean
+csv_text_needs_neutralising (const char *text)
+{
+  const char *problem;
+  double number;
+
+  if (strchr ("=+-@\t\r", text[0]) == NULL || text[0] == '\0')
+    return FALSE;
+  return !sl_parse_number (text, &number, &problem);
+}
+
 static void
 write_csv_text (FILE *out, const char *text)
 {
+  g_autofree char *neutral = NULL;
+
   if (text == NULL)
     return;
+  if (csv_text_needs_neutralising (text))
+    text = neutral = g_strconcat ("'", text, NULL);
   if (strpbrk (text, ",\"\r\n") == NULL && text[0] != ' '
       && (text[0] == '\0' || text[strlen (text) - 1] != ' '))
     {
