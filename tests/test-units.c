@@ -120,6 +120,100 @@ test_number_out_of_range (void)
   parse_number_fails ("-1e400");
 }
 
+/* sl_parse_number takes an exact fast path for short decimals and leaves
+ * the rest to strtod; either way the double must be the one the C
+ * library's strtod (glibc: correctly rounded) gives, bit for bit.  The
+ * strings are random decimals of every shape and the hard cases: integers
+ * around 2^53, the shortest and longest round-trip forms of random doubles,
+ * the halfway points between neighbouring doubles, powers of ten at the
+ * edge of the fast path, long runs of zeros.  Two million strings here;
+ * `test-units -m slow` tries a hundred million. */
+
+static void
+random_decimal (GRand *rand, GString *out)
+{
+  int leading_zeros = g_rand_int_range (rand, 0, 4) == 0 ? g_rand_int_range (rand, 1, 6) : 0;
+  int digits = g_rand_int_range (rand, 1, 26);
+  int point = g_rand_int_range (rand, -1, digits + 1);   /* -1: no point */
+
+  g_string_truncate (out, 0);
+  if (g_rand_boolean (rand))
+    g_string_append_c (out, g_rand_boolean (rand) ? '-' : '+');
+  for (int i = 0; i < leading_zeros; i++)
+    g_string_append_c (out, '0');
+  for (int i = 0; i < digits; i++)
+    {
+      if (i == point)
+        g_string_append_c (out, '.');
+      g_string_append_c (out, '0' + g_rand_int_range (rand, 0, 10));
+    }
+  if (point == digits)
+    g_string_append (out, ".5");
+  if (g_rand_int_range (rand, 0, 3) == 0)
+    g_string_append_printf (out, "%c%d", g_rand_boolean (rand) ? 'e' : 'E', g_rand_int_range (rand, -40, 41));
+}
+
+/* Halfway between a random double and its successor, written with enough
+ * digits to be exact: strtod must round it to even. */
+static void
+adversarial_decimal (GRand *rand, guint kind, GString *out)
+{
+  double x = g_rand_double_range (rand, -1e6, 1e6) * pow (10.0, g_rand_int_range (rand, -25, 26));
+
+  g_string_truncate (out, 0);
+  switch (kind % 6)
+    {
+    case 0:
+      g_string_printf (out, "%" G_GUINT64_FORMAT,
+                       (G_GUINT64_CONSTANT (1) << 53) + (guint64) g_rand_int_range (rand, -64, 65));
+      break;
+    case 1:
+      g_string_printf (out, "%.17g", x);
+      break;
+    case 2:
+      g_string_printf (out, "%.15g", x);
+      break;
+    case 3:
+      g_string_printf (out, "%.40g", x + (nextafter (x, INFINITY) - x) / 2.0);
+      break;
+    case 4:
+      g_string_printf (out, "%de%d", g_rand_int_range (rand, 1, 10000), g_rand_int_range (rand, -24, 25));
+      break;
+    default:
+      g_string_printf (out, "0.%0*d%d", g_rand_int_range (rand, 0, 30), 0, g_rand_int_range (rand, 1, 1000000));
+      break;
+    }
+}
+
+static void
+assert_same_as_strtod (const char *text)
+{
+  const char *reason = NULL;
+  double ours = NAN, theirs = strtod (text, NULL);
+
+  if (!isfinite (theirs))
+    return;
+  if (!sl_parse_number (text, &ours, &reason) || memcmp (&ours, &theirs, sizeof ours) != 0)
+    g_error ("'%s': sl_parse_number gives %.17g (%s), strtod %.17g", text, ours, reason ? reason : "ok", theirs);
+}
+
+static void
+test_number_bit_identical_to_strtod (void)
+{
+  g_autoptr (GRand) rand = g_rand_new_with_seed (20261202);
+  g_autoptr (GString) text = g_string_new (NULL);
+  guint n = g_test_slow () ? 50000000 : 1000000;
+
+  setlocale (LC_NUMERIC, "C");
+  for (guint i = 0; i < n; i++)
+    {
+      random_decimal (rand, text);
+      assert_same_as_strtod (text->str);
+      adversarial_decimal (rand, i, text);
+      assert_same_as_strtod (text->str);
+    }
+}
+
 /* The numbers in a file do not change with the user's locale (common
  * practice: CSV numbers are written with '.' whatever the locale). */
 static void
@@ -593,6 +687,7 @@ main (int argc, char **argv)
   g_test_add_func ("/units/number/decimal-comma-hint", test_number_decimal_comma_hint);
   g_test_add_func ("/units/number/out-of-range", test_number_out_of_range);
   g_test_add_func ("/units/number/locale-independent", test_number_locale_independent);
+  g_test_add_func ("/units/number/bit-identical-to-strtod", test_number_bit_identical_to_strtod);
 
   g_test_add_func ("/units/sexagesimal/hours-forms", test_sexa_hours_forms);
   g_test_add_func ("/units/sexagesimal/degrees-forms", test_sexa_degrees_forms);
