@@ -1,5 +1,5 @@
 #!/usr/bin/python3
-"""Counts the test cases of a meson test run and prints the closing line.
+"""Counts the test cases of meson test runs and prints the closing line.
 
 Most test programs speak TAP, so one program holds many cases: this reads
 meson's testlog.json and counts the TAP lines of each program.  A program
@@ -54,7 +54,11 @@ def count(log_path):
 
 
 def main():
-    passed, failed, skipped = count(sys.argv[1])
+    # One log or several (the main build's and the fuzz build's).
+    passed = failed = skipped = 0
+    for log_path in sys.argv[1:]:
+        p, f, s = count(log_path)
+        passed, failed, skipped = passed + p, failed + f, skipped + s
     line = f"tests: {passed} passed, {failed} failed"
     if skipped:
         line += f", {skipped} skipped"

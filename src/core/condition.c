@@ -477,7 +477,6 @@ parse_comparison (Parser *p)
   if (is_keyword (&p->token, "is"))
     {
       gboolean negated = FALSE;
-      g_autofree char *after = NULL;
 
       if (!next_token (p))
         return FALSE;
@@ -668,13 +667,16 @@ sl_condition_compile (const char *text, GError **error)
 {
   g_autoptr (SlCondition) condition = NULL;
   Parser p = { 0 };
+  const char *invalid;
   gboolean ok;
 
   g_return_val_if_fail (text != NULL, NULL);
 
-  if (!g_utf8_validate (text, -1, NULL))
+  if (!g_utf8_validate (text, -1, &invalid))
     {
-      g_set_error (error, SL_ERROR, SL_ERROR_BAD_INPUT, _("the condition is not valid UTF-8"));
+      /* The valid text before the bad byte counts the column. */
+      g_set_error (error, SL_ERROR, SL_ERROR_BAD_INPUT, _("at %ld: the condition is not valid UTF-8 here"),
+                   g_utf8_pointer_to_offset (text, invalid) + 1);
       return NULL;
     }
 
