@@ -40,6 +40,7 @@ gboolean  sl_window_is_working (SlWindow *window);
  * project again after it changed (table, views, Trail, Ledger). */
 const char *sl_window_get_project_path (SlWindow *window);
 void      sl_window_toast (SlWindow *window, const char *message);
+void      sl_window_add_toast (SlWindow *window, AdwToast *toast);   /* takes TOAST */
 void      sl_window_reload (SlWindow *window);
 
 /* For tests only (tests/test-gui.c); the window itself does not use them.
