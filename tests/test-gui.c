@@ -870,6 +870,8 @@ test_import_assistant (void)
     }
   g_assert_nonnull (sl_import_dialog_get_problem (assistant));
   g_assert_nonnull (strstr (sl_import_dialog_get_problem (assistant), "id"));
+  PAINT (assistant);
+  save_window_png (GTK_WIDGET (assistant), "gui-import-guess.png");
 
   /* The choices, through the choosers. */
   choose (sl_import_dialog_get_field_chooser (assistant, 0), "id");
@@ -929,8 +931,26 @@ test_import_assistant (void)
   sl_test_scratch_free (g_steal_pointer (&dir));
 }
 
+/* The entry row under WIDGET whose title starts with TITLE. */
+static GtkWidget *
+find_entry_row (GtkWidget *widget, const char *title)
+{
+  if (ADW_IS_ENTRY_ROW (widget)
+      && g_str_has_prefix (adw_preferences_row_get_title (ADW_PREFERENCES_ROW (widget)), title))
+    return widget;
+  for (GtkWidget *child = gtk_widget_get_first_child (widget); child; child = gtk_widget_get_next_sibling (child))
+    {
+      GtkWidget *found = find_entry_row (child, title);
+
+      if (found)
+        return found;
+    }
+  return NULL;
+}
+
 /* A change of delimiter reads the file again: with a comma the semicolon
- * file is one column, and nothing is mapped; Cancel writes nothing. */
+ * file is one column, and nothing is mapped; a bad epoch is named;
+ * closing the assistant writes nothing. */
 static void
 test_import_assistant_delimiter (void)
 {
@@ -941,6 +961,7 @@ test_import_assistant_delimiter (void)
   SlImportDialog *assistant;
   const SlImportPreview *preview;
   AdwComboRow *delimiter = NULL;
+  GtkWidget *epoch;
   gint64 sources;
 
   ENSURE_DEMO ();
@@ -962,6 +983,15 @@ test_import_assistant_delimiter (void)
   g_assert_nonnull (sl_import_dialog_get_problem (assistant));
   adw_combo_row_set_selected (delimiter, 1);   /* semicolon again */
   g_assert_cmpuint (sl_import_dialog_get_preview (assistant)->columns->len, ==, 2);
+  g_assert_null (sl_import_dialog_get_problem (assistant));
+
+  /* The epoch entry takes a Julian year or nothing. */
+  epoch = find_entry_row (GTK_WIDGET (assistant), "Epoch");
+  g_assert_nonnull (epoch);
+  gtk_editable_set_text (GTK_EDITABLE (epoch), "2016,5");
+  g_assert_nonnull (sl_import_dialog_get_problem (assistant));
+  g_assert_nonnull (strstr (sl_import_dialog_get_problem (assistant), "Epoch"));
+  gtk_editable_set_text (GTK_EDITABLE (epoch), "2016.5");
   g_assert_null (sl_import_dialog_get_problem (assistant));
 
   gtk_window_close (GTK_WINDOW (assistant));

@@ -235,12 +235,14 @@ report_summary (const SlImportReport *report)
   g_autofree char *n_new = g_strdup_printf ("%" G_GUINT64_FORMAT, report->new_stars);
   g_autofree char *n_read = g_strdup_printf ("%" G_GUINT64_FORMAT, report->rows_read);
   GString *text = g_string_new (NULL);
+  g_autofree char *new_stars = g_strdup_printf (g_dngettext (GETTEXT_PACKAGE, "%s new star", "%s new stars",
+                                                             report->new_stars), n_new);
 
   g_string_append_printf (text, g_dngettext (GETTEXT_PACKAGE,
-                                             "Of %s row read, %s would be imported and %u rejected; %s new stars.",
-                                             "Of %s rows read, %s would be imported and %u rejected; %s new stars.",
+                                             "Of %s row read, %s would be imported and %u rejected; %s.",
+                                             "Of %s rows read, %s would be imported and %u rejected; %s.",
                                              report->rows_read),
-                          n_read, n_accepted, report->rejections->len, n_new);
+                          n_read, n_accepted, report->rejections->len, new_stars);
   g_string_append (text, _(" Nothing was written."));
   if (report->ignored_columns->len > 0)
     {
@@ -919,6 +921,15 @@ sl_import_dialog_init (SlImportDialog *self)
   adw_header_bar_pack_start (ADW_HEADER_BAR (header), cancel);
   adw_header_bar_pack_end (ADW_HEADER_BAR (header), import);
   gtk_box_append (GTK_BOX (content), header);
+  /* Why Import is off, above the scrolling part: always in sight. */
+  self->problem_label = GTK_LABEL (gtk_label_new (NULL));
+  gtk_label_set_wrap (self->problem_label, TRUE);
+  gtk_widget_set_margin_top (GTK_WIDGET (self->problem_label), 8);
+  gtk_widget_set_margin_bottom (GTK_WIDGET (self->problem_label), 8);
+  gtk_widget_set_margin_start (GTK_WIDGET (self->problem_label), 18);
+  gtk_widget_set_margin_end (GTK_WIDGET (self->problem_label), 18);
+  gtk_widget_add_css_class (GTK_WIDGET (self->problem_label), "error");
+  gtk_box_append (GTK_BOX (content), GTK_WIDGET (self->problem_label));
 
   scroller = gtk_scrolled_window_new ();
   gtk_scrolled_window_set_policy (GTK_SCROLLED_WINDOW (scroller), GTK_POLICY_NEVER, GTK_POLICY_AUTOMATIC);
@@ -971,12 +982,6 @@ sl_import_dialog_init (SlImportDialog *self)
                                                             "written in. Columns named like a field are found by "
                                                             "their name.")));
   gtk_box_append (GTK_BOX (box), GTK_WIDGET (self->columns_group));
-
-  self->problem_label = GTK_LABEL (gtk_label_new (NULL));
-  gtk_label_set_wrap (self->problem_label, TRUE);
-  gtk_label_set_xalign (self->problem_label, 0.0);
-  gtk_widget_add_css_class (GTK_WIDGET (self->problem_label), "error");
-  gtk_box_append (GTK_BOX (box), GTK_WIDGET (self->problem_label));
 
   /* The check. */
   group = group_new (_("Check"), NULL);
