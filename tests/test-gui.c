@@ -824,25 +824,27 @@ save_window_png (GtkWidget *window, const char *name)
 }
 
 /* The assistant on a semicolon file whose id column is called 'name',
- * whose parallaxes are in arcsec, and with one bad row: the preview guesses
+ * whose parallaxes are in arcsec, and with one bad row (and markup-like
+ * text in its name, a header and a cell, shown as written): the preview guesses
  * the columns named like fields, the check reports without writing, and
  * the import stores the parallaxes converted to mas and the rejected row. */
 static void
 test_import_assistant (void)
 {
   static const char csv[] =
-    "name;ra;dec;parallax;vmag\n"
-    "GUI B001;151.25;21.5;0.0412;8.75\n"
-    "GUI B002;152.5;22.25;0.0105;9.5\n"
-    "GUI B003;153.0;23.0;0,02;10.25\n";
+    "name;ra;dec;parallax;vmag;seeing & <b>notes</b>\n"
+    "GUI B001;151.25;21.5;0.0412;8.75;good <i>& calm\n"
+    "GUI B002;152.5;22.25;0.0105;9.5;\n"
+    "GUI B003;153.0;23.0;0,02;10.25;\n";
   g_autofree char *path = demo_path ();
   g_autofree char *dir = sl_test_scratch_new ();
-  g_autofree char *file = sl_test_write_file (dir, "gui-assistant.csv", csv, -1);
+  g_autofree char *file = sl_test_write_file (dir, "gui <assistant> & co.csv", csv, -1);
   const SlImportPreview *preview;
   SlImportDialog *assistant;
   AdwMessageDialog *reasons;
   gint64 sources, measurements, ledger, stars;
-  const SlField guessed[] = { SL_FIELD_NONE, SL_FIELD_RA, SL_FIELD_DEC, SL_FIELD_PARALLAX, SL_FIELD_VMAG };
+  const SlField guessed[] = { SL_FIELD_NONE, SL_FIELD_RA, SL_FIELD_DEC, SL_FIELD_PARALLAX, SL_FIELD_VMAG,
+                              SL_FIELD_NONE };
 
   ENSURE_DEMO ();
   WAIT_UNTIL (!sl_window_is_working (demo) && !sl_window_is_loading (demo), LOAD_TIMEOUT_S,
@@ -917,9 +919,9 @@ test_import_assistant (void)
                                             "JOIN stars s ON s.id = m.star_id WHERE s.designation = 'GUI B001'"),
                    41200.0, 0.0, "0.0412 arcsec stored as 41.2 mas");
   g_assert_cmpint (count_in (path, "SELECT count(*) FROM rejected_rows r JOIN sources s ON s.id = r.source_id "
-                                   "WHERE s.file_name = 'gui-assistant.csv' AND r.line = 4 "
+                                   "WHERE s.file_name = 'gui <assistant> & co.csv' AND r.line = 4 "
                                    "AND r.column_name = 'parallax'"), ==, 1);
-  g_assert_cmpint (count_in (path, "SELECT count(*) FROM sources WHERE file_name = 'gui-assistant.csv' "
+  g_assert_cmpint (count_in (path, "SELECT count(*) FROM sources WHERE file_name = 'gui <assistant> & co.csv' "
                                    "AND json_extract (mapping, '$[0].column') = 'name'"), ==, 1);
 
   /* The toast's button: the rejected row with its reason. */
