@@ -1002,6 +1002,45 @@ test_import_assistant_delimiter (void)
   sl_test_scratch_free (g_steal_pointer (&dir));
 }
 
+/* A long check can be stopped: nothing found is shown, nothing written,
+ * and the next check runs to the end. */
+static void
+test_import_assistant_stop (void)
+{
+  g_autofree char *path = demo_path ();
+  g_autofree char *dir = sl_test_scratch_new ();
+  g_autoptr (GString) csv = g_string_new ("id,parallax,parallax_err\n");
+  g_autofree char *file = NULL;
+  SlImportDialog *assistant;
+  gint64 sources, ledger;
+
+  for (int i = 0; i < 20000; i++)
+    g_string_append_printf (csv, "GUI D%05d,%d.5,0.1\n", i, i % 100);
+  file = sl_test_write_file (dir, "gui-long.csv", csv->str, -1);
+  ENSURE_DEMO ();
+  WAIT_UNTIL (!sl_window_is_working (demo) && !sl_window_is_loading (demo), LOAD_TIMEOUT_S,
+              "earlier work to finish");
+  sources = count_in (path, "SELECT count(*) FROM sources");
+  ledger = count_in (path, "SELECT count(*) FROM ledger");
+  assistant = sl_import_dialog_open (demo, file);
+  g_assert_nonnull (assistant);
+  g_assert_true (gtk_widget_activate_action (GTK_WIDGET (assistant), "assistant.check", NULL));
+  g_assert_true (sl_import_dialog_is_checking (assistant));
+  g_assert_true (gtk_widget_activate_action (GTK_WIDGET (assistant), "assistant.stop-check", NULL));
+  g_assert_false (sl_import_dialog_is_checking (assistant));
+  g_assert_cmpstr (sl_import_dialog_get_check_summary (assistant), ==, "");
+
+  g_assert_true (gtk_widget_activate_action (GTK_WIDGET (assistant), "assistant.check", NULL));
+  WAIT_UNTIL (!sl_import_dialog_is_checking (assistant), LOAD_TIMEOUT_S, "the second check");
+  g_assert_nonnull (strstr (sl_import_dialog_get_check_summary (assistant),
+                            "Of 20000 rows read, 20000 would be imported and 0 rejected; 20000 new stars."));
+  gtk_window_close (GTK_WINDOW (assistant));
+  WAIT_UNTIL (find_toplevel (SL_TYPE_IMPORT_DIALOG) == NULL, FRAME_TIMEOUT_S, "the assistant to close");
+  g_assert_cmpint (count_in (path, "SELECT count(*) FROM ledger"), ==, ledger);
+  g_assert_cmpint (count_in (path, "SELECT count(*) FROM sources"), ==, sources);
+  sl_test_scratch_free (g_steal_pointer (&dir));
+}
+
 /* The window as a picture: not blank; the table's text on the left; the
  * HR diagram in colour; with two stars selected, their parallax paths.
  * Saved as gui-snapshot.png and gui-selected.png. */
@@ -1258,6 +1297,7 @@ main (int argc, char **argv)
   g_test_add_func ("/gui/shortcuts", test_shortcuts);
   g_test_add_func ("/gui/import/assistant", test_import_assistant);
   g_test_add_func ("/gui/import/assistant-delimiter", test_import_assistant_delimiter);
+  g_test_add_func ("/gui/import/assistant-stop-check", test_import_assistant_stop);
   status = g_test_run ();
 
   if (demo)

@@ -63,7 +63,8 @@ struct _SlImportDialog {
   GtkLabel        *check_label;
   GtkLabel        *rejections_label;
   GtkButton       *check_button;
-  GtkSpinner      *check_spinner;
+  GtkButton       *stop_button;
+  GtkProgressBar  *check_progress;
 };
 
 G_DEFINE_FINAL_TYPE (SlImportDialog, sl_import_dialog, ADW_TYPE_WINDOW)
@@ -183,17 +184,59 @@ current_choices (SlImportDialog *self, gboolean maps_only, char **problem)
 /* ------------------------------------------------------------------ */
 /* The check: a dry run                                               */
 
+/* Forgets the last check, and stops the one running: its result, when it
+ * comes, is for choices no longer shown. */
 static void
 clear_check (SlImportDialog *self)
 {
   if (self->check_cancel)
     g_cancellable_cancel (self->check_cancel);
+  g_clear_object (&self->check_cancel);
   g_clear_pointer (&self->check_summary, g_free);
   self->check_summary = g_strdup ("");
   gtk_label_set_text (self->check_label, _("Check reads the whole file as the import would, "
                                            "and writes nothing."));
   gtk_widget_remove_css_class (GTK_WIDGET (self->check_label), "error");
   gtk_widget_set_visible (GTK_WIDGET (self->rejections_label), FALSE);
+}
+
+/* The dry run's progress, from its thread to the dialog's bar. */
+typedef struct {
+  SlImportDialog *dialog;
+  GCancellable   *check;      /* the run it is about */
+  double          fraction;
+} CheckProgress;
+
+static gboolean
+apply_check_progress (gpointer data)
+{
+  CheckProgress *progress = data;
+
+  /* Only for the run still going: not after a stop, a change or a close. */
+  if (progress->dialog->window && progress->dialog->check_cancel == progress->check)
+    gtk_progress_bar_set_fraction (progress->dialog->check_progress, progress->fraction);
+  return G_SOURCE_REMOVE;
+}
+
+static void
+check_progress_free (gpointer data)
+{
+  CheckProgress *progress = data;
+
+  g_object_unref (progress->dialog);
+  g_object_unref (progress->check);
+  g_free (progress);
+}
+
+static void
+report_check_progress (double fraction, gpointer task)
+{
+  CheckProgress *progress = g_new (CheckProgress, 1);
+
+  progress->dialog = g_object_ref (g_task_get_source_object (task));
+  progress->check = g_object_ref (g_task_get_cancellable (task));
+  progress->fraction = fraction;
+  g_idle_add_full (G_PRIORITY_DEFAULT, apply_check_progress, progress, check_progress_free);
 }
 
 static void
@@ -208,6 +251,8 @@ check_thread (GTask *task, gpointer source, gpointer task_data, GCancellable *ca
   import_choices_fill_options (choices, &options);
   options.dry_run = TRUE;
   options.cancellable = cancellable;
+  options.progress = report_check_progress;
+  options.progress_data = task;
   project = sl_project_open (choices->project, &error);
   if (project)
     report = sl_import_csv (project, choices->path, &options, &error);
@@ -265,18 +310,10 @@ on_checked (GObject *source, GAsyncResult *result, gpointer user_data)
   g_autoptr (GError) error = NULL;
   g_autoptr (SlImportReport) report = g_task_propagate_pointer (G_TASK (result), &error);
 
-  /* Closed while checking: the widgets are gone. */
-  if (self->window == NULL)
+  /* Closed while checking (the widgets are gone), or a check stopped
+   * (clear_check has said so). */
+  if (self->window == NULL || g_task_get_cancellable (G_TASK (result)) != self->check_cancel)
     return;
-  /* Cancelled: the choices changed or the dialog closed; clear_check has
-   * already said so. */
-  if (g_error_matches (error, G_IO_ERROR, G_IO_ERROR_CANCELLED))
-    {
-      if (g_task_get_cancellable (G_TASK (result)) == self->check_cancel)
-        g_clear_object (&self->check_cancel);
-      update_state (self);
-      return;
-    }
   g_clear_object (&self->check_cancel);
   g_free (self->check_summary);
   if (report == NULL)
@@ -319,10 +356,23 @@ check_action (GtkWidget *widget, const char *action, GVariant *parameter)
     return;
   clear_check (self);
   gtk_label_set_text (self->check_label, _("Checking every row…"));
+  gtk_progress_bar_set_fraction (self->check_progress, 0.0);
   self->check_cancel = g_cancellable_new ();
   task = g_task_new (self, self->check_cancel, on_checked, NULL);
   g_task_set_task_data (task, choices, import_choices_free);
   g_task_run_in_thread (task, check_thread);
+  update_state (self);
+}
+
+static void
+stop_check_action (GtkWidget *widget, const char *action, GVariant *parameter)
+{
+  SlImportDialog *self = SL_IMPORT_DIALOG (widget);
+
+  if (self->check_cancel == NULL)
+    return;
+  clear_check (self);
+  gtk_label_set_text (self->check_label, _("Check stopped; nothing was written."));
   update_state (self);
 }
 
@@ -767,8 +817,10 @@ update_state (SlImportDialog *self)
   gtk_widget_set_visible (GTK_WIDGET (self->problem_label), self->problem != NULL);
   gtk_widget_action_set_enabled (GTK_WIDGET (self), "assistant.check", self->problem == NULL && !checking);
   gtk_widget_action_set_enabled (GTK_WIDGET (self), "assistant.import", self->problem == NULL);
-  gtk_widget_set_visible (GTK_WIDGET (self->check_spinner), checking);
-  gtk_spinner_set_spinning (self->check_spinner, checking);
+  gtk_widget_action_set_enabled (GTK_WIDGET (self), "assistant.stop-check", checking);
+  gtk_widget_set_visible (GTK_WIDGET (self->check_button), !checking);
+  gtk_widget_set_visible (GTK_WIDGET (self->stop_button), checking);
+  gtk_widget_set_visible (GTK_WIDGET (self->check_progress), checking);
 }
 
 /* Reads the file's start again: with the maps as chosen (FROM_CHOICES), or
@@ -869,6 +921,7 @@ sl_import_dialog_class_init (SlImportDialogClass *klass)
   object_class->dispose = sl_import_dialog_dispose;
   object_class->finalize = sl_import_dialog_finalize;
   gtk_widget_class_install_action (widget_class, "assistant.check", NULL, check_action);
+  gtk_widget_class_install_action (widget_class, "assistant.stop-check", NULL, stop_check_action);
   gtk_widget_class_install_action (widget_class, "assistant.import", NULL, import_action);
   gtk_widget_class_add_binding_action (widget_class, GDK_KEY_Escape, 0, "window.close", NULL);
 }
@@ -989,13 +1042,18 @@ sl_import_dialog_init (SlImportDialog *self)
   /* The check. */
   group = group_new (_("Check"), NULL);
   check_box = gtk_box_new (GTK_ORIENTATION_HORIZONTAL, 6);
-  self->check_spinner = GTK_SPINNER (gtk_spinner_new ());
+  self->check_progress = GTK_PROGRESS_BAR (gtk_progress_bar_new ());
+  gtk_widget_set_valign (GTK_WIDGET (self->check_progress), GTK_ALIGN_CENTER);
+  gtk_widget_set_size_request (GTK_WIDGET (self->check_progress), 160, -1);
   self->check_button = GTK_BUTTON (gtk_button_new_with_mnemonic (_("C_heck")));
   gtk_actionable_set_action_name (GTK_ACTIONABLE (self->check_button), "assistant.check");
   gtk_widget_set_tooltip_text (GTK_WIDGET (self->check_button),
                                _("Import every row as chosen, report, and write nothing"));
-  gtk_box_append (GTK_BOX (check_box), GTK_WIDGET (self->check_spinner));
+  self->stop_button = GTK_BUTTON (gtk_button_new_with_mnemonic (_("_Stop")));
+  gtk_actionable_set_action_name (GTK_ACTIONABLE (self->stop_button), "assistant.stop-check");
+  gtk_box_append (GTK_BOX (check_box), GTK_WIDGET (self->check_progress));
   gtk_box_append (GTK_BOX (check_box), GTK_WIDGET (self->check_button));
+  gtk_box_append (GTK_BOX (check_box), GTK_WIDGET (self->stop_button));
   adw_preferences_group_set_header_suffix (ADW_PREFERENCES_GROUP (group), check_box);
   self->check_label = GTK_LABEL (gtk_label_new (NULL));
   gtk_label_set_wrap (self->check_label, TRUE);
