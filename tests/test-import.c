@@ -579,6 +579,26 @@ test_dry_run_refusals (SlTestProject *f, gconstpointer data)
   g_assert_cmpstr (project_content (f), ==, before);
 }
 
+/* explicit_only: a column named like a field stays out unless mapped. */
+static void
+test_explicit_only (SlTestProject *f, gconstpointer data)
+{
+  const char *const maps[] = { "id=id", "parallax=parallax", NULL };
+  g_autoptr (SlImportReport) report = NULL;
+  g_autoptr (GError) error = NULL;
+  SlImportOptions options;
+
+  sl_import_options_init (&options);
+  options.explicit_only = TRUE;
+  report = import_with (f, "input.csv", "id,parallax,vmag\nA,12.5,9.25\n", -1, maps, &options, &error);
+  g_assert_no_error (error);
+  sl_assert_close (stored (f, "A", "parallax"), 12.5, 0, "a mapped column");
+  g_assert_true (isnan (stored (f, "A", "vmag")));
+  g_assert_cmpuint (report->ignored_columns->len, ==, 1);
+  g_assert_cmpstr (report->ignored_columns->pdata[0], ==, "vmag");
+  g_assert_cmpint (sl_test_query_int (f->db, "SELECT json_array_length (mapping) FROM sources"), ==, 2);
+}
+
 /* -------------------------------------------------------------- preview */
 
 static const SlPreviewColumn *
@@ -757,6 +777,7 @@ main (int argc, char **argv)
   ADD ("/import/locale/comma-decimal-locale", test_locale_independent);
   ADD ("/import/dry-run/same-report-nothing-written", test_dry_run);
   ADD ("/import/dry-run/refusals", test_dry_run_refusals);
+  ADD ("/import/mapping/explicit-only", test_explicit_only);
   ADD ("/import/preview/mapping-and-rows", test_preview);
   ADD ("/import/preview/refusals", test_preview_refusals);
 #undef ADD
