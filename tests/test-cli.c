@@ -71,6 +71,42 @@ test_demo_import (void)
   sl_test_scratch_free (g_steal_pointer (&dir));
 }
 
+/* import --dry-run: the report of the import (counts and every rejection,
+ * word for word) and nothing written: no source, no star, no ledger entry,
+ * and the real import afterwards is not refused as a second one. */
+static void
+test_import_dry_run (void)
+{
+  g_autofree char *dir = sl_test_scratch_new ();
+  g_autofree char *project = g_build_filename (dir, "dry.starledger", NULL);
+  g_autofree char *a = demo_file ("astrometry.csv");
+  g_auto (CliResult) created = { 0 };
+  g_auto (CliResult) dry = { 0 };
+  g_auto (CliResult) summary = { 0 };
+  g_auto (CliResult) ledger = { 0 };
+  g_auto (CliResult) real = { 0 };
+
+  run_cli (&created, "new", project, NULL);
+  g_assert_cmpint (created.status, ==, 0);
+  run_cli (&dry, "import", project, a, "--dry-run", NULL);
+  g_assert_cmpint (dry.status, ==, 0);
+  assert_prefix (dry.out, "dry run: would import 317 rows, reject 5; nothing was written\n");
+  assert_contains (dry.out, "comma-delimited");
+  assert_contains (dry.err, ":138: parallax: not a number: '12.7.1'\n");
+
+  run_cli (&summary, "summary", project, NULL);
+  g_assert_cmpint (summary.status, ==, 0);
+  assert_contains (summary.out, "0 stars, 0 measurements from 0 sources");
+  run_cli (&ledger, "ledger", project, NULL);
+  assert_lacks (ledger.out, "import");
+
+  run_cli (&real, "import", project, a, NULL);
+  g_assert_cmpint (real.status, ==, 0);
+  assert_prefix (real.out, "imported 317 rows, rejected 5\n");
+  g_assert_cmpstr (real.err, ==, dry.err);
+  sl_test_scratch_free (g_steal_pointer (&dir));
+}
+
 static void
 test_demo_export_ledger_summary (void)
 {
@@ -181,6 +217,7 @@ main (int argc, char **argv)
   g_test_add_func ("/cli/usage", test_usage);
   g_test_add_func ("/cli/new/refuses-existing", test_new_refuses_existing);
   g_test_add_func ("/cli/demo/import-report", test_demo_import);
+  g_test_add_func ("/cli/import/dry-run", test_import_dry_run);
   g_test_add_func ("/cli/demo/export-ledger-summary", test_demo_export_ledger_summary);
   g_test_add_func ("/cli/errors-are-one-line", test_errors_are_one_line);
   g_test_add_func ("/cli/locale/comma-decimal-locale", test_locale_independent);

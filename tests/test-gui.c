@@ -20,6 +20,7 @@
 #include "sl-application.h"
 #include "sl-catalogue-row.h"
 #include "sl-catalogue-view.h"
+#include "sl-import-dialog.h"
 #include "sl-plot-view.h"
 #include "sl-window.h"
 #include "summary.h"
@@ -99,6 +100,8 @@ wait_for_paint (GtkWidget *toplevel)
     if (!wait_for_paint (GTK_WIDGET (widget)))               \
       return;                                                \
   } G_STMT_END
+
+static GtkWindow *find_toplevel (GType type);
 
 static SlPlotView *
 view (SlPlotKind kind)
@@ -733,8 +736,8 @@ drop_target (GtkWidget *widget)
   return NULL;
 }
 
-/* A CSV file dropped on the window is imported into the project in a
- * thread: one new star in the table and on the sky. */
+/* A CSV file dropped on the window opens the import assistant, whose
+ * Import imports it in a thread: one new star in the table and on the sky. */
 static void
 test_actions_import_by_drop (void)
 {
@@ -748,6 +751,7 @@ test_actions_import_by_drop (void)
   g_autoptr (SlLedgerEntry) newest = NULL;
   g_auto (GValue) value = G_VALUE_INIT;
   GtkDropTarget *target;
+  SlImportDialog *assistant;
   guint rows, sky, n_entries;
   gboolean accepted = FALSE;
 
@@ -761,7 +765,11 @@ test_actions_import_by_drop (void)
   g_value_set_object (&value, gfile);
   g_signal_emit_by_name (target, "drop", &value, 100.0, 100.0, &accepted);
   g_assert_true (accepted);
-  /* The import runs in a thread, with the progress bar and Cancel. */
+  /* The drop opens the import assistant; its Import runs the import in a
+   * thread, with the window's progress bar and Cancel. */
+  assistant = SL_IMPORT_DIALOG (find_toplevel (SL_TYPE_IMPORT_DIALOG));
+  g_assert_nonnull (assistant);
+  g_assert_true (gtk_widget_activate_action (GTK_WIDGET (assistant), "assistant.import", NULL));
   g_assert_true (sl_window_is_working (demo));
   WAIT_UNTIL (!sl_window_is_loading (demo) && catalogue_rows () == rows + 1, LOAD_TIMEOUT_S,
               "the table to show the imported star");
@@ -770,6 +778,266 @@ test_actions_import_by_drop (void)
   PAINT (demo);
   g_assert_cmpuint (drawn (SL_PLOT_KIND_SKY), ==, sky + 1);
   g_assert_true (ledger_view_starts_with (newest->at, "import"));
+  sl_test_scratch_free (g_steal_pointer (&dir));
+}
+
+/* ------------------------------------------------------------------ */
+/* The import assistant                                               */
+
+/* The row count SQL gives in the project at PATH. */
+static gint64
+count_in (const char *path, const char *sql)
+{
+  g_autoptr (GError) error = NULL;
+  g_autoptr (SlProject) project = sl_project_open (path, &error);
+
+  g_assert_no_error (error);
+  return sl_test_query_int (sl_project_db (project), sql);
+}
+
+/* Selects the item of CHOOSER whose text is TEXT, as a click would. */
+static void
+choose (GtkDropDown *chooser, const char *text)
+{
+  GListModel *model = gtk_drop_down_get_model (chooser);
+
+  for (guint i = 0; i < g_list_model_get_n_items (model); i++)
+    if (g_strcmp0 (gtk_string_list_get_string (GTK_STRING_LIST (model), i), text) == 0)
+      {
+        gtk_drop_down_set_selected (chooser, i);
+        return;
+      }
+  g_test_fail_printf ("no item '%s' in the chooser", text);
+}
+
+static void
+save_window_png (GtkWidget *window, const char *name)
+{
+  cairo_surface_t *picture;
+  Census c;
+
+  picture = render_widget (window);
+  save_png (picture, name);
+  c = census (picture, 0, 0, G_MAXINT, G_MAXINT);
+  g_assert_cmpuint (c.dark, >, 500);   /* text, not a blank window */
+  cairo_surface_destroy (picture);
+}
+
+/* The assistant on a semicolon file whose id column is called 'name',
+ * whose parallaxes are in arcsec, and with one bad row (and markup-like
+ * text in its name, a header and a cell, shown as written): the preview guesses
+ * the columns named like fields, the check reports without writing, and
+ * the import stores the parallaxes converted to mas and the rejected row. */
+static void
+test_import_assistant (void)
+{
+  static const char csv[] =
+    "name;ra;dec;parallax;vmag;seeing & <b>notes</b>\n"
+    "GUI B001;151.25;21.5;0.0412;8.75;good <i>& calm\n"
+    "GUI B002;152.5;22.25;0.0105;9.5;\n"
+    "GUI B003;153.0;23.0;0,02;10.25;\n";
+  g_autofree char *path = demo_path ();
+  g_autofree char *dir = sl_test_scratch_new ();
+  g_autofree char *file = sl_test_write_file (dir, "gui <assistant> & co.csv", csv, -1);
+  const SlImportPreview *preview;
+  SlImportDialog *assistant;
+  AdwMessageDialog *reasons;
+  gint64 sources, measurements, ledger, stars;
+  const SlField guessed[] = { SL_FIELD_NONE, SL_FIELD_RA, SL_FIELD_DEC, SL_FIELD_PARALLAX, SL_FIELD_VMAG,
+                              SL_FIELD_NONE };
+
+  ENSURE_DEMO ();
+  WAIT_UNTIL (!sl_window_is_working (demo) && !sl_window_is_loading (demo), LOAD_TIMEOUT_S,
+              "earlier work to finish");
+  sources = count_in (path, "SELECT count(*) FROM sources");
+  measurements = count_in (path, "SELECT count(*) FROM measurements");
+  ledger = count_in (path, "SELECT count(*) FROM ledger");
+  stars = count_in (path, "SELECT count(*) FROM stars");
+
+  assistant = sl_import_dialog_open (demo, file);
+  g_assert_nonnull (assistant);
+  g_assert_true (gtk_window_get_transient_for (GTK_WINDOW (assistant)) == GTK_WINDOW (demo));
+  g_assert_true (gtk_window_get_modal (GTK_WINDOW (assistant)));
+
+  /* The preview: delimiter detected, known columns found by name, no id. */
+  preview = sl_import_dialog_get_preview (assistant);
+  g_assert_cmpint (preview->delimiter, ==, ';');
+  g_assert_cmpuint (preview->columns->len, ==, G_N_ELEMENTS (guessed));
+  g_assert_cmpuint (preview->rows->len, ==, 3);
+  for (guint c = 0; c < G_N_ELEMENTS (guessed); c++)
+    {
+      g_assert_cmpint (g_array_index (preview->columns, SlPreviewColumn, c).automatic, ==, guessed[c]);
+      g_assert_cmpuint (gtk_drop_down_get_selected (sl_import_dialog_get_field_chooser (assistant, c)), ==,
+                        guessed[c] == SL_FIELD_NONE ? 0 : guessed[c] + 1);
+    }
+  g_assert_nonnull (sl_import_dialog_get_problem (assistant));
+  g_assert_nonnull (strstr (sl_import_dialog_get_problem (assistant), "id"));
+  PAINT (assistant);
+  save_window_png (GTK_WIDGET (assistant), "gui-import-guess.png");
+
+  /* The choices, through the choosers. */
+  choose (sl_import_dialog_get_field_chooser (assistant, 0), "id");
+  choose (sl_import_dialog_get_unit_chooser (assistant, 3), "arcsec");
+  g_assert_null (sl_import_dialog_get_problem (assistant));
+  preview = sl_import_dialog_get_preview (assistant);
+  g_assert_cmpint (g_array_index (preview->columns, SlPreviewColumn, 0).field, ==, SL_FIELD_ID);
+  g_assert_cmpint (g_array_index (preview->columns, SlPreviewColumn, 3).unit, ==, SL_UNIT_ARCSEC);
+
+  /* The check: a dry run in a thread; counts and the bad row shown, the
+   * project as it was. */
+  g_assert_true (gtk_widget_activate_action (GTK_WIDGET (assistant), "assistant.check", NULL));
+  g_assert_true (sl_import_dialog_is_checking (assistant));
+  WAIT_UNTIL (!sl_import_dialog_is_checking (assistant), LOAD_TIMEOUT_S, "the check");
+  g_test_message ("check: %s", sl_import_dialog_get_check_summary (assistant));
+  g_assert_nonnull (strstr (sl_import_dialog_get_check_summary (assistant),
+                            "Of 3 rows read, 2 would be imported and 1 rejected; 2 new stars."));
+  g_assert_cmpint (count_in (path, "SELECT count(*) FROM sources"), ==, sources);
+  g_assert_cmpint (count_in (path, "SELECT count(*) FROM measurements"), ==, measurements);
+  g_assert_cmpint (count_in (path, "SELECT count(*) FROM ledger"), ==, ledger);
+  g_assert_cmpint (count_in (path, "SELECT count(*) FROM stars"), ==, stars);
+  PAINT (assistant);
+  save_window_png (GTK_WIDGET (assistant), "gui-import-assistant.png");
+  {
+    /* The lower half: the columns' choosers and the check's findings. */
+    GtkScrolledWindow *scroller = GTK_SCROLLED_WINDOW (find_descendant (GTK_WIDGET (assistant),
+                                                                        GTK_TYPE_SCROLLED_WINDOW));
+    GtkAdjustment *adjustment = gtk_scrolled_window_get_vadjustment (scroller);
+
+    gtk_adjustment_set_value (adjustment, gtk_adjustment_get_upper (adjustment));
+    PAINT (assistant);
+    save_window_png (GTK_WIDGET (assistant), "gui-import-check.png");
+  }
+
+  /* Import: the dialog closes, the window imports with those choices. */
+  g_assert_true (gtk_widget_activate_action (GTK_WIDGET (assistant), "assistant.import", NULL));
+  g_assert_null (find_toplevel (SL_TYPE_IMPORT_DIALOG));
+  WAIT_UNTIL (!sl_window_is_working (demo) && !sl_window_is_loading (demo)
+              && count_in (path, "SELECT count(*) FROM sources") == sources + 1,
+              LOAD_TIMEOUT_S, "the import");
+  g_assert_cmpint (count_in (path, "SELECT count(*) FROM measurements"), ==, measurements + 2);
+  sl_assert_close ((double) count_in (path, "SELECT round (m.parallax * 1000) FROM measurements m "
+                                            "JOIN stars s ON s.id = m.star_id WHERE s.designation = 'GUI B001'"),
+                   41200.0, 0.0, "0.0412 arcsec stored as 41.2 mas");
+  g_assert_cmpint (count_in (path, "SELECT count(*) FROM rejected_rows r JOIN sources s ON s.id = r.source_id "
+                                   "WHERE s.file_name = 'gui <assistant> & co.csv' AND r.line = 4 "
+                                   "AND r.column_name = 'parallax'"), ==, 1);
+  g_assert_cmpint (count_in (path, "SELECT count(*) FROM sources WHERE file_name = 'gui <assistant> & co.csv' "
+                                   "AND json_extract (mapping, '$[0].column') = 'name'"), ==, 1);
+
+  /* The toast's button: the rejected row with its reason. */
+  g_assert_true (gtk_widget_activate_action (GTK_WIDGET (demo), "import-result.show-rejections", NULL));
+  WAIT_UNTIL ((reasons = open_message_dialog ()) != NULL, FRAME_TIMEOUT_S, "the reasons");
+  PAINT (reasons);
+  save_window_png (GTK_WIDGET (reasons), "gui-import-reasons.png");
+  gtk_window_close (GTK_WINDOW (reasons));
+  sl_test_scratch_free (g_steal_pointer (&dir));
+}
+
+/* The entry row under WIDGET whose title starts with TITLE. */
+static GtkWidget *
+find_entry_row (GtkWidget *widget, const char *title)
+{
+  if (ADW_IS_ENTRY_ROW (widget)
+      && g_str_has_prefix (adw_preferences_row_get_title (ADW_PREFERENCES_ROW (widget)), title))
+    return widget;
+  for (GtkWidget *child = gtk_widget_get_first_child (widget); child; child = gtk_widget_get_next_sibling (child))
+    {
+      GtkWidget *found = find_entry_row (child, title);
+
+      if (found)
+        return found;
+    }
+  return NULL;
+}
+
+/* A change of delimiter reads the file again: with a comma the semicolon
+ * file is one column, and nothing is mapped; a bad epoch is named;
+ * closing the assistant writes nothing. */
+static void
+test_import_assistant_delimiter (void)
+{
+  static const char csv[] = "id;parallax\nGUI C001;12.5\n";
+  g_autofree char *path = demo_path ();
+  g_autofree char *dir = sl_test_scratch_new ();
+  g_autofree char *file = sl_test_write_file (dir, "gui-delimiter.csv", csv, -1);
+  SlImportDialog *assistant;
+  const SlImportPreview *preview;
+  AdwComboRow *delimiter = NULL;
+  GtkWidget *epoch;
+  gint64 sources;
+
+  ENSURE_DEMO ();
+  WAIT_UNTIL (!sl_window_is_working (demo) && !sl_window_is_loading (demo), LOAD_TIMEOUT_S,
+              "earlier work to finish");
+  sources = count_in (path, "SELECT count(*) FROM sources");
+  assistant = sl_import_dialog_open (demo, file);
+  g_assert_nonnull (assistant);
+  g_assert_null (sl_import_dialog_get_problem (assistant));
+  g_assert_cmpuint (sl_import_dialog_get_preview (assistant)->columns->len, ==, 2);
+
+  delimiter = ADW_COMBO_ROW (find_descendant (GTK_WIDGET (assistant), ADW_TYPE_COMBO_ROW));
+  g_assert_nonnull (delimiter);
+  adw_combo_row_set_selected (delimiter, 0);   /* comma */
+  preview = sl_import_dialog_get_preview (assistant);
+  g_assert_cmpint (preview->delimiter, ==, ',');
+  g_assert_true (preview->delimiter_given);
+  g_assert_cmpuint (preview->columns->len, ==, 1);
+  g_assert_nonnull (sl_import_dialog_get_problem (assistant));
+  adw_combo_row_set_selected (delimiter, 1);   /* semicolon again */
+  g_assert_cmpuint (sl_import_dialog_get_preview (assistant)->columns->len, ==, 2);
+  g_assert_null (sl_import_dialog_get_problem (assistant));
+
+  /* The epoch entry takes a Julian year or nothing. */
+  epoch = find_entry_row (GTK_WIDGET (assistant), "Epoch");
+  g_assert_nonnull (epoch);
+  gtk_editable_set_text (GTK_EDITABLE (epoch), "2016,5");
+  g_assert_nonnull (sl_import_dialog_get_problem (assistant));
+  g_assert_nonnull (strstr (sl_import_dialog_get_problem (assistant), "Epoch"));
+  gtk_editable_set_text (GTK_EDITABLE (epoch), "2016.5");
+  g_assert_null (sl_import_dialog_get_problem (assistant));
+
+  gtk_window_close (GTK_WINDOW (assistant));
+  WAIT_UNTIL (find_toplevel (SL_TYPE_IMPORT_DIALOG) == NULL, FRAME_TIMEOUT_S, "the assistant to close");
+  g_assert_cmpint (count_in (path, "SELECT count(*) FROM sources"), ==, sources);
+  sl_test_scratch_free (g_steal_pointer (&dir));
+}
+
+/* A long check can be stopped: nothing found is shown, nothing written,
+ * and the next check runs to the end. */
+static void
+test_import_assistant_stop (void)
+{
+  g_autofree char *path = demo_path ();
+  g_autofree char *dir = sl_test_scratch_new ();
+  g_autoptr (GString) csv = g_string_new ("id,parallax,parallax_err\n");
+  g_autofree char *file = NULL;
+  SlImportDialog *assistant;
+  gint64 sources, ledger;
+
+  for (int i = 0; i < 20000; i++)
+    g_string_append_printf (csv, "GUI D%05d,%d.5,0.1\n", i, i % 100);
+  file = sl_test_write_file (dir, "gui-long.csv", csv->str, -1);
+  ENSURE_DEMO ();
+  WAIT_UNTIL (!sl_window_is_working (demo) && !sl_window_is_loading (demo), LOAD_TIMEOUT_S,
+              "earlier work to finish");
+  sources = count_in (path, "SELECT count(*) FROM sources");
+  ledger = count_in (path, "SELECT count(*) FROM ledger");
+  assistant = sl_import_dialog_open (demo, file);
+  g_assert_nonnull (assistant);
+  g_assert_true (gtk_widget_activate_action (GTK_WIDGET (assistant), "assistant.check", NULL));
+  g_assert_true (sl_import_dialog_is_checking (assistant));
+  g_assert_true (gtk_widget_activate_action (GTK_WIDGET (assistant), "assistant.stop-check", NULL));
+  g_assert_false (sl_import_dialog_is_checking (assistant));
+  g_assert_cmpstr (sl_import_dialog_get_check_summary (assistant), ==, "");
+
+  g_assert_true (gtk_widget_activate_action (GTK_WIDGET (assistant), "assistant.check", NULL));
+  WAIT_UNTIL (!sl_import_dialog_is_checking (assistant), LOAD_TIMEOUT_S, "the second check");
+  g_assert_nonnull (strstr (sl_import_dialog_get_check_summary (assistant),
+                            "Of 20000 rows read, 20000 would be imported and 0 rejected; 20000 new stars."));
+  gtk_window_close (GTK_WINDOW (assistant));
+  WAIT_UNTIL (find_toplevel (SL_TYPE_IMPORT_DIALOG) == NULL, FRAME_TIMEOUT_S, "the assistant to close");
+  g_assert_cmpint (count_in (path, "SELECT count(*) FROM ledger"), ==, ledger);
+  g_assert_cmpint (count_in (path, "SELECT count(*) FROM sources"), ==, sources);
   sl_test_scratch_free (g_steal_pointer (&dir));
 }
 
@@ -1027,6 +1295,9 @@ main (int argc, char **argv)
   g_test_add_func ("/gui/snapshot", test_snapshot);
   g_test_add_func ("/gui/about", test_about);
   g_test_add_func ("/gui/shortcuts", test_shortcuts);
+  g_test_add_func ("/gui/import/assistant", test_import_assistant);
+  g_test_add_func ("/gui/import/assistant-delimiter", test_import_assistant_delimiter);
+  g_test_add_func ("/gui/import/assistant-stop-check", test_import_assistant_stop);
   status = g_test_run ();
 
   if (demo)

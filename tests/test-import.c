@@ -1,6 +1,6 @@
 /* test-import.c: CSV import: dialects, units, missing values, every
  * rejection reason, the one-transaction rule, the re-import guard,
- * provenance and locale independence. */
+ * provenance and locale independence, the dry run and the preview. */
 #include <locale.h>
 #include <sqlite3.h>
 #include <string.h>
@@ -472,6 +472,249 @@ test_note_missing_epoch (SlTestProject *f, gconstpointer data)
   g_assert_nonnull (strstr (report->notes->pdata[0], "no epoch"));
 }
 
+/* -------------------------------------------------------------- dry run */
+
+/* What a project holds, as one comparable text: the row counts of every
+ * table an import writes, and the ledger entry by entry. */
+static char *
+project_content (SlTestProject *f)
+{
+  static const char *const tables[] = { "sources", "stars", "measurements", "rejected_rows",
+                                        "ledger", "derived", NULL };
+  GString *content = g_string_new (NULL);
+  sqlite3_stmt *stmt;
+
+  for (guint i = 0; tables[i]; i++)
+    {
+      g_autofree char *sql = g_strdup_printf ("SELECT count(*) FROM %s", tables[i]);
+
+      g_string_append_printf (content, "%s %" G_GINT64_FORMAT "\n", tables[i],
+                              sl_test_query_int (f->db, sql));
+    }
+  g_assert_cmpint (sqlite3_prepare_v2 (f->db, "SELECT id, at, who, action, summary, details "
+                                       "FROM ledger ORDER BY id", -1, &stmt, NULL), ==, SQLITE_OK);
+  while (sqlite3_step (stmt) == SQLITE_ROW)
+    for (int c = 0; c < 6; c++)
+      g_string_append_printf (content, "%s%s", sqlite3_column_text (stmt, c), c == 5 ? "\n" : "|");
+  sqlite3_finalize (stmt);
+  return g_string_free (content, FALSE);
+}
+
+/* A dry run leaves the project as it was and reports what the import of
+ * the same file then does: the same counts, rejections and notes. */
+static void
+test_dry_run (SlTestProject *f, gconstpointer data)
+{
+  const char *contents = "id,ra,dec,plx\n"
+                         "A,10,20,0.0412\n"
+                         "B,11,91,0.02\n"
+                         "C,12,22,x\n"
+                         "A,13,23,0.01\n"
+                         "D,14,24,0.005\n";
+  const char *const maps[] = { "parallax=plx:arcsec", NULL };
+  g_autoptr (SlImportReport) earlier = import_ok (f, "id,vmag\nD,9.5\n", NULL);
+  g_autoptr (SlImportReport) dry = NULL;
+  g_autoptr (SlImportReport) real = NULL;
+  g_autoptr (GError) error = NULL;
+  g_autofree char *before = project_content (f);
+  g_autofree char *after_dry = NULL;
+  SlImportOptions options;
+
+  sl_import_options_init (&options);
+  options.dry_run = TRUE;
+  dry = import_with (f, "run.csv", contents, -1, maps, &options, &error);
+  g_assert_no_error (error);
+  after_dry = project_content (f);
+  g_assert_cmpstr (after_dry, ==, before);
+
+  real = import_with (f, "run.csv", contents, -1, maps, NULL, &error);
+  g_assert_no_error (error);
+  g_assert_cmpstr (project_content (f), !=, before);
+
+  g_assert_cmpuint (dry->rows_read, ==, 5);
+  g_assert_cmpuint (dry->rows_accepted, ==, 2);
+  g_assert_cmpuint (dry->new_stars, ==, 1);   /* A; D was there */
+  g_assert_cmpuint (dry->rows_read, ==, real->rows_read);
+  g_assert_cmpuint (dry->rows_accepted, ==, real->rows_accepted);
+  g_assert_cmpuint (dry->new_stars, ==, real->new_stars);
+  g_assert_cmpint (dry->source_id, ==, real->source_id);
+  g_assert_cmpint (dry->delimiter, ==, real->delimiter);
+  g_assert_cmpstr (dry->sha256, ==, real->sha256);
+  g_assert_cmpuint (dry->rejections->len, ==, 3);
+  g_assert_cmpuint (dry->rejections->len, ==, real->rejections->len);
+  for (guint i = 0; i < dry->rejections->len; i++)
+    {
+      const SlRejection *d = &g_array_index (dry->rejections, SlRejection, i);
+      const SlRejection *r = &g_array_index (real->rejections, SlRejection, i);
+
+      g_assert_cmpuint (d->line, ==, r->line);
+      g_assert_cmpstr (d->column, ==, r->column);
+      g_assert_cmpstr (d->reason, ==, r->reason);
+    }
+  g_assert_cmpuint (g_array_index (dry->rejections, SlRejection, 0).line, ==, 3);
+  g_assert_cmpstr (g_array_index (dry->rejections, SlRejection, 1).column, ==, "plx");
+  g_assert_nonnull (strstr (g_array_index (dry->rejections, SlRejection, 2).reason, "appears twice"));
+  g_assert_cmpuint (dry->notes->len, ==, real->notes->len);
+  g_assert_cmpuint (dry->ignored_columns->len, ==, real->ignored_columns->len);
+  sl_assert_close (stored (f, "A", "parallax"), 41.2, 1e-12, "0.0412 arcsec in mas");
+}
+
+/* A dry run of a file already imported refuses as the import would, and
+ * one that fails as a whole fails the same way. */
+static void
+test_dry_run_refusals (SlTestProject *f, gconstpointer data)
+{
+  g_autoptr (SlImportReport) first = import_ok (f, "id,parallax\nA,1\n", NULL);
+  g_autoptr (GError) error = NULL;
+  g_autofree char *before = project_content (f);
+  SlImportOptions options;
+
+  sl_import_options_init (&options);
+  options.dry_run = TRUE;
+  g_assert_null (import_with (f, "again.csv", "id,parallax\nA,1\n", -1, NULL, &options, &error));
+  g_assert_error (error, SL_ERROR, SL_ERROR_ALREADY_IMPORTED);
+  g_clear_error (&error);
+  g_assert_null (import_with (f, "bad.csv", "id,parallax\nB,x\n", -1, NULL, &options, &error));
+  g_assert_error (error, SL_ERROR, SL_ERROR_NOTHING_ACCEPTED);
+  g_assert_cmpstr (project_content (f), ==, before);
+}
+
+/* explicit_only: a column named like a field stays out unless mapped. */
+static void
+test_explicit_only (SlTestProject *f, gconstpointer data)
+{
+  const char *const maps[] = { "id=id", "parallax=parallax", NULL };
+  g_autoptr (SlImportReport) report = NULL;
+  g_autoptr (GError) error = NULL;
+  SlImportOptions options;
+
+  sl_import_options_init (&options);
+  options.explicit_only = TRUE;
+  report = import_with (f, "input.csv", "id,parallax,vmag\nA,12.5,9.25\n", -1, maps, &options, &error);
+  g_assert_no_error (error);
+  sl_assert_close (stored (f, "A", "parallax"), 12.5, 0, "a mapped column");
+  g_assert_true (isnan (stored (f, "A", "vmag")));
+  g_assert_cmpuint (report->ignored_columns->len, ==, 1);
+  g_assert_cmpstr (report->ignored_columns->pdata[0], ==, "vmag");
+  g_assert_cmpint (sl_test_query_int (f->db, "SELECT json_array_length (mapping) FROM sources"), ==, 2);
+}
+
+/* -------------------------------------------------------------- preview */
+
+static const SlPreviewColumn *
+preview_column (const SlImportPreview *preview, guint i)
+{
+  g_assert_cmpuint (i, <, preview->columns->len);
+  return &g_array_index (preview->columns, SlPreviewColumn, i);
+}
+
+/* The preview maps the columns as the import does: names that are fields
+ * by themselves, in their stored unit; the rest not imported; explicit
+ * maps win and say so; the delimiter detected; the first rows as split. */
+static void
+test_preview (SlTestProject *f, gconstpointer data)
+{
+  const char *contents = "# observing run 7\n"
+                         "name;RA;dec;plx;Vmag\n"
+                         "S1;10.5;20;0.0412;9.1\n"
+                         "S2;11;\"-21\";0.02;\n"
+                         "S3;12;22;x;8\n";
+  g_autofree char *path = sl_test_write_file (f->dir, "run7.csv", contents, -1);
+  g_autoptr (SlImportPreview) automatic = NULL;
+  g_autoptr (SlImportPreview) mapped = NULL;
+  g_autoptr (SlImportPreview) only = NULL;
+  g_autoptr (SlImportPreview) short_preview = NULL;
+  g_autoptr (GError) error = NULL;
+  SlColumnMap maps[2];
+  SlImportOptions options;
+  const SlPreviewRow *row;
+
+  sl_import_options_init (&options);
+  automatic = sl_import_preview (path, &options, 20, &error);
+  g_assert_no_error (error);
+  g_assert_cmpstr (automatic->file_name, ==, "run7.csv");
+  g_assert_cmpint (automatic->delimiter, ==, ';');
+  g_assert_false (automatic->delimiter_given);
+  g_assert_cmpuint (automatic->header_line, ==, 2);
+  g_assert_cmpuint (automatic->columns->len, ==, 5);
+  g_assert_cmpstr (preview_column (automatic, 0)->name, ==, "name");
+  g_assert_cmpint (preview_column (automatic, 0)->automatic, ==, SL_FIELD_NONE);
+  g_assert_cmpint (preview_column (automatic, 1)->automatic, ==, SL_FIELD_RA);
+  g_assert_cmpint (preview_column (automatic, 2)->automatic, ==, SL_FIELD_DEC);
+  g_assert_cmpint (preview_column (automatic, 3)->automatic, ==, SL_FIELD_NONE);
+  g_assert_cmpint (preview_column (automatic, 4)->automatic, ==, SL_FIELD_VMAG);
+  /* No id column: the import would stop, so nothing is mapped. */
+  g_assert_nonnull (automatic->mapping_problem);
+  g_assert_nonnull (strstr (automatic->mapping_problem, "no id column"));
+  g_assert_cmpint (preview_column (automatic, 1)->field, ==, SL_FIELD_NONE);
+  g_assert_cmpuint (automatic->rows->len, ==, 3);
+  g_assert_false (automatic->more_rows);
+  row = automatic->rows->pdata[1];
+  g_assert_cmpuint (row->line, ==, 4);
+  g_assert_cmpuint (g_strv_length (row->cells), ==, 5);
+  g_assert_cmpstr (row->cells[2], ==, "-21");
+  g_assert_cmpstr (row->cells[4], ==, "");
+
+  g_assert_true (sl_column_map_parse ("id=name", &maps[0], NULL));
+  g_assert_true (sl_column_map_parse ("parallax=plx:arcsec", &maps[1], NULL));
+  options.maps = maps;
+  options.n_maps = 2;
+  mapped = sl_import_preview (path, &options, 20, &error);
+  g_assert_no_error (error);
+  g_assert_null (mapped->mapping_problem);
+  g_assert_cmpint (preview_column (mapped, 0)->field, ==, SL_FIELD_ID);
+  g_assert_true (preview_column (mapped, 0)->explicit_map);
+  g_assert_cmpint (preview_column (mapped, 1)->field, ==, SL_FIELD_RA);
+  g_assert_cmpint (preview_column (mapped, 1)->unit, ==, SL_UNIT_DEG);
+  g_assert_false (preview_column (mapped, 1)->explicit_map);
+  g_assert_cmpint (preview_column (mapped, 3)->field, ==, SL_FIELD_PARALLAX);
+  g_assert_cmpint (preview_column (mapped, 3)->unit, ==, SL_UNIT_ARCSEC);
+  g_assert_cmpint (preview_column (mapped, 4)->field, ==, SL_FIELD_VMAG);
+
+  /* Only what is mapped: RA, Dec and V stay out. */
+  options.explicit_only = TRUE;
+  only = sl_import_preview (path, &options, 2, &error);
+  g_assert_no_error (error);
+  g_assert_cmpint (preview_column (only, 1)->field, ==, SL_FIELD_NONE);
+  g_assert_cmpint (preview_column (only, 1)->automatic, ==, SL_FIELD_RA);
+  g_assert_cmpint (preview_column (only, 3)->field, ==, SL_FIELD_PARALLAX);
+  g_assert_cmpuint (only->rows->len, ==, 2);
+  g_assert_true (only->more_rows);
+
+  /* A delimiter given is used as given: one column. */
+  options.delimiter = ',';
+  short_preview = sl_import_preview (path, &options, 20, &error);
+  g_assert_no_error (error);
+  g_assert_true (short_preview->delimiter_given);
+  g_assert_cmpuint (short_preview->columns->len, ==, 1);
+  g_assert_nonnull (short_preview->mapping_problem);
+
+  sl_column_map_clear (&maps[0]);
+  sl_column_map_clear (&maps[1]);
+}
+
+/* A file that is no CSV at all has no preview; the message names it. */
+static void
+test_preview_refusals (SlTestProject *f, gconstpointer data)
+{
+  g_autofree char *empty = sl_test_write_file (f->dir, "empty.csv", "", 0);
+  g_autofree char *comments = sl_test_write_file (f->dir, "comments.csv", "# nothing\n\n", -1);
+  g_autofree char *missing = g_build_filename (f->dir, "missing.csv", NULL);
+  g_autoptr (GError) error = NULL;
+  SlImportOptions options;
+
+  sl_import_options_init (&options);
+  g_assert_null (sl_import_preview (empty, &options, 20, &error));
+  g_assert_error (error, SL_ERROR, SL_ERROR_BAD_INPUT);
+  g_assert_nonnull (strstr (error->message, "empty.csv: the file is empty"));
+  g_clear_error (&error);
+  g_assert_null (sl_import_preview (comments, &options, 20, &error));
+  g_assert_nonnull (strstr (error->message, "no header row"));
+  g_clear_error (&error);
+  g_assert_null (sl_import_preview (missing, &options, 20, &error));
+  g_assert_error (error, SL_ERROR, SL_ERROR_IO);
+}
+
 /* ---------------------------------------------------------------- locale */
 
 /* A German locale writes 12,5; the file says 12.5 and must still be read
@@ -532,6 +775,11 @@ main (int argc, char **argv)
   ADD ("/import/provenance", test_provenance);
   ADD ("/import/note/missing-epoch", test_note_missing_epoch);
   ADD ("/import/locale/comma-decimal-locale", test_locale_independent);
+  ADD ("/import/dry-run/same-report-nothing-written", test_dry_run);
+  ADD ("/import/dry-run/refusals", test_dry_run_refusals);
+  ADD ("/import/mapping/explicit-only", test_explicit_only);
+  ADD ("/import/preview/mapping-and-rows", test_preview);
+  ADD ("/import/preview/refusals", test_preview_refusals);
 #undef ADD
 
   return g_test_run ();

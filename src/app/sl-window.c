@@ -7,7 +7,7 @@
  *   actions ............... open, new, open-demo
  *   long work ............. sl_window_run_work: derive, import (GTask threads,
  *                           progress bar, Cancel)
- *   drag and drop ......... a project opens, a CSV file is imported
+ *   drag and drop ......... a project opens, a CSV file opens the import assistant
  *   settings .............. window size and pane positions (GSettings)
  *
  * The window computes nothing: it calls src/core and src/plot.
@@ -25,6 +25,7 @@
 #include "ledger.h"
 #include "sl-application.h"
 #include "sl-catalogue-view.h"
+#include "sl-import-dialog.h"
 #include "sl-plot-view.h"
 #include "starset.h"
 #include "units.h"
@@ -773,7 +774,7 @@ on_import_response (GtkNativeDialog *dialog, int response, SlWindow *self)
       g_autofree char *path = g_file_get_path (file);
 
       if (path)
-        sl_window_import_file (self, path);
+        sl_import_dialog_open (self, path);
     }
   g_object_unref (dialog);
 }
@@ -917,7 +918,7 @@ on_drop (GtkDropTarget *target, const GValue *value, double x, double y, SlWindo
   if (path == NULL)
     return FALSE;
   if (g_str_has_suffix (path, ".csv") && self->path)
-    return sl_window_import_file (self, path);
+    return sl_import_dialog_open (self, path) != NULL;
   if (!sl_window_open_project (self, path, &error))
     toast (self, error->message);
   return error == NULL;
@@ -1106,6 +1107,13 @@ sl_window_toast (SlWindow *self, const char *message)
 {
   g_return_if_fail (SL_IS_WINDOW (self));
   toast (self, message);
+}
+
+void
+sl_window_add_toast (SlWindow *self, AdwToast *toast)
+{
+  g_return_if_fail (SL_IS_WINDOW (self));
+  adw_toast_overlay_add_toast (self->toasts, toast);
 }
 
 void

@@ -22,7 +22,9 @@ gboolean  sl_window_open_project (SlWindow *window, const char *path, GError **e
 gboolean  sl_window_open_demo (SlWindow *window, GError **error);
 
 /* Imports the CSV file at PATH into the open project in a thread, with the
- * importer's defaults; FALSE if no project is open or a job is running. */
+ * importer's defaults; FALSE if no project is open or a job is running.
+ * Not interactive: Import Measurements… and a dropped CSV file open the
+ * import assistant (sl-import-dialog.h) instead. */
 gboolean  sl_window_import_file (SlWindow *window, const char *path);
 
 /* For the window's dialogs and panels.
@@ -40,6 +42,7 @@ gboolean  sl_window_is_working (SlWindow *window);
  * project again after it changed (table, views, Trail, Ledger). */
 const char *sl_window_get_project_path (SlWindow *window);
 void      sl_window_toast (SlWindow *window, const char *message);
+void      sl_window_add_toast (SlWindow *window, AdwToast *toast);   /* takes TOAST */
 void      sl_window_reload (SlWindow *window);
 
 /* For tests only (tests/test-gui.c); the window itself does not use them.

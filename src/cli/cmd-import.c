@@ -1,4 +1,5 @@
-/* cmd-import.c: starledger-cli import PROJECT FILE [options] */
+/* cmd-import.c: starledger-cli import PROJECT FILE [options], and with --dry-run
+ * the same report of an import that writes nothing. */
 #include <glib/gi18n.h>
 #include <math.h>
 #include <stdio.h>
@@ -50,14 +51,26 @@ fields_help (void)
 }
 
 static void
-print_report (const SlImportReport *report, const char *path)
+print_report (const SlImportReport *report, const char *path, gboolean dry_run)
 {
-  printf (_("imported %" G_GUINT64_FORMAT " rows, rejected %u\n"),
-          report->rows_accepted, report->rejections->len);
-  printf (_("source %" G_GINT64_FORMAT ": %s, %s-delimited, SHA-256 %.16s…, %" G_GUINT64_FORMAT
-            " new stars\n"),
-          report->source_id, report->file_name, sl_csv_delimiter_name (report->delimiter),
-          report->sha256, report->new_stars);
+  if (dry_run)
+    {
+      /* The same report, worded as what would happen: nothing was written. */
+      printf (_("dry run: would import %" G_GUINT64_FORMAT " rows, reject %u; nothing was written\n"),
+              report->rows_accepted, report->rejections->len);
+      printf (_("file %s, %s-delimited, SHA-256 %.16s…, %" G_GUINT64_FORMAT " new stars\n"),
+              report->file_name, sl_csv_delimiter_name (report->delimiter), report->sha256,
+              report->new_stars);
+    }
+  else
+    {
+      printf (_("imported %" G_GUINT64_FORMAT " rows, rejected %u\n"),
+              report->rows_accepted, report->rejections->len);
+      printf (_("source %" G_GINT64_FORMAT ": %s, %s-delimited, SHA-256 %.16s…, %" G_GUINT64_FORMAT
+                " new stars\n"),
+              report->source_id, report->file_name, sl_csv_delimiter_name (report->delimiter),
+              report->sha256, report->new_stars);
+    }
   if (report->ignored_columns->len > 0)
     {
       g_autofree char *names = NULL;
@@ -90,6 +103,7 @@ sl_cli_import (int argc, char **argv)
   g_autofree char *epoch_text = NULL;
   g_autofree char *source_name = NULL;
   gboolean again = FALSE;
+  gboolean dry_run = FALSE;
   const GOptionEntry entries[] = {
     { "map", 'm', 0, G_OPTION_ARG_STRING_ARRAY, &map_specs,
       N_("Take FIELD from COLUMN, written in UNIT (repeatable)"), N_("FIELD=COLUMN[:UNIT]") },
@@ -103,6 +117,8 @@ sl_cli_import (int argc, char **argv)
       N_("Name of the source (default: the file's name)"), N_("NAME") },
     { "again", 0, 0, G_OPTION_ARG_NONE, &again,
       N_("Import a file even if the same file was imported before"), NULL },
+    { "dry-run", 'n', 0, G_OPTION_ARG_NONE, &dry_run,
+      N_("Check the whole file and report as an import would, but write nothing"), NULL },
     { NULL }
   };
   g_autofree char *description = fields_help ();
@@ -151,6 +167,7 @@ sl_cli_import (int argc, char **argv)
   options.missing = (const char *const *) missing;
   options.source_name = source_name;
   options.again = again;
+  options.dry_run = dry_run;
 
   project = sl_cli_open_project (argv[1]);
   if (project == NULL)
@@ -158,6 +175,6 @@ sl_cli_import (int argc, char **argv)
   report = sl_import_csv (project, argv[2], &options, &error);
   if (report == NULL)
     return sl_cli_fail (error);
-  print_report (report, argv[2]);
+  print_report (report, argv[2], dry_run);
   return SL_EXIT_OK;
 }

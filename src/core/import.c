@@ -4,7 +4,8 @@
  *   column mappings ........ sl_column_map_parse, resolve_columns
  *   cell conversion ........ convert_cell
  *   database writes ........ ImportStatements, store_measurement, store_rejection
- *   the import ............. sl_import_csv
+ *   the import ............. sl_import_csv (a dry run rolls back at the end)
+ *   the preview ............ sl_import_preview
  */
 #include "import.h"
 
@@ -153,11 +154,13 @@ assign_column (ColumnPlan *plan, SlField field, int column, SlUnit unit,
   return TRUE;
 }
 
-/* Explicit mappings first, then header names equal to vocabulary names. */
+/* Explicit mappings first, then (unless explicit_only) header names equal
+ * to vocabulary names.  The one mapping rule: the import and the preview
+ * both come here.  REPORT, if not NULL, gets the columns left out. */
 static gboolean
-resolve_columns (ColumnPlan *plan, const SlCsvRecord *header,
-                 const SlImportOptions *options, const char *file_name,
-                 SlImportReport *report, GError **error)
+map_columns (ColumnPlan *plan, const SlCsvRecord *header,
+             const SlImportOptions *options, const char *file_name,
+             SlImportReport *report, GError **error)
 {
   for (SlField f = 0; f < SL_N_FIELDS; f++)
     plan->column[f] = -1;
@@ -208,15 +211,24 @@ resolve_columns (ColumnPlan *plan, const SlCsvRecord *header,
         used |= plan->column[f] == (int) i;
       if (used)
         continue;
-      if (sl_field_from_name (header->fields[i], &field) && plan->column[field] < 0)
+      if (!options->explicit_only && sl_field_from_name (header->fields[i], &field)
+          && plan->column[field] < 0)
         {
           if (!assign_column (plan, field, (int) i, SL_UNIT_NONE, header, file_name, error))
             return FALSE;
         }
-      else
+      else if (report)
         g_ptr_array_add (report->ignored_columns, g_strdup (header->fields[i]));
     }
+  return TRUE;
+}
 
+/* Rows join stars by designation: without an id column nothing can be
+ * imported. */
+static gboolean
+require_id_column (const ColumnPlan *plan, const SlCsvRecord *header, const char *file_name,
+                   GError **error)
+{
   if (plan->column[SL_FIELD_ID] < 0)
     {
       g_autofree char *names = list_header (header);
@@ -228,6 +240,15 @@ resolve_columns (ColumnPlan *plan, const SlCsvRecord *header,
       return FALSE;
     }
   return TRUE;
+}
+
+static gboolean
+resolve_columns (ColumnPlan *plan, const SlCsvRecord *header,
+                 const SlImportOptions *options, const char *file_name,
+                 SlImportReport *report, GError **error)
+{
+  return map_columns (plan, header, options, file_name, report, error)
+         && require_id_column (plan, header, file_name, error);
 }
 
 /* The mapping as recorded with the source: JSON [{field, column, unit}]. */
@@ -843,6 +864,16 @@ fail_if_nothing_accepted (Import *im, GError **error)
   return FALSE;
 }
 
+/* Commits, or for a dry run rolls back what was done in the transaction. */
+static gboolean
+end_import (SlProject *project, const SlImportOptions *options, GError **error)
+{
+  if (!options->dry_run)
+    return sl_project_commit (project, error);
+  sl_project_rollback (project);
+  return TRUE;
+}
+
 SlImportReport *
 sl_import_csv (SlProject *project, const char *path, const SlImportOptions *options,
                GError **error)
@@ -921,7 +952,7 @@ sl_import_csv (SlProject *project, const char *path, const SlImportOptions *opti
         || !import_records (&im, reader, length, error)
         || !fail_if_nothing_accepted (&im, error)
         || !finish_source (&im, error)
-        || !sl_project_commit (project, error))
+        || !end_import (project, options, error))
       {
         finalize_statements (&im.st);
         sl_project_rollback (project);
@@ -930,4 +961,161 @@ sl_import_csv (SlProject *project, const char *path, const SlImportOptions *opti
     finalize_statements (&im.st);
   }
   return g_steal_pointer (&report);
+}
+
+/* ------------------------------------------------------------------ */
+/* The preview                                                        */
+
+static void
+preview_row_free (gpointer data)
+{
+  SlPreviewRow *row = data;
+
+  g_strfreev (row->cells);
+  g_free (row->malformed);
+  g_free (row);
+}
+
+static void
+preview_column_clear (gpointer data)
+{
+  SlPreviewColumn *column = data;
+
+  g_free (column->name);
+}
+
+void
+sl_import_preview_free (SlImportPreview *preview)
+{
+  if (preview == NULL)
+    return;
+  g_free (preview->file_name);
+  g_array_unref (preview->columns);
+  g_ptr_array_unref (preview->rows);
+  g_free (preview->mapping_problem);
+  g_free (preview);
+}
+
+/* The columns as OPTIONS map them, and as the names alone would. */
+static void
+preview_mapping (SlImportPreview *preview, const SlCsvRecord *header,
+                 const SlImportOptions *options)
+{
+  SlImportOptions automatic_options = *options;
+  g_autoptr (GError) error = NULL;
+  ColumnPlan plan, automatic;
+
+  /* The names alone: the import with no maps.  A failure there (say, two
+   * columns named alike) leaves the columns it did not reach unmapped; the
+   * mapping as asked reports it. */
+  automatic_options.maps = NULL;
+  automatic_options.n_maps = 0;
+  automatic_options.explicit_only = FALSE;
+  map_columns (&automatic, header, &automatic_options, preview->file_name, NULL, NULL);
+
+  if (!resolve_columns (&plan, header, options, preview->file_name, NULL, &error))
+    preview->mapping_problem = g_strdup (error->message);
+
+  for (guint i = 0; i < header->n_fields; i++)
+    {
+      SlPreviewColumn column = { g_strdup (header->fields[i]), SL_FIELD_NONE, SL_UNIT_NONE,
+                                 FALSE, SL_FIELD_NONE };
+
+      for (SlField f = 0; f < SL_N_FIELDS; f++)
+        {
+          if (automatic.column[f] == (int) i)
+            column.automatic = f;
+          if (preview->mapping_problem == NULL && plan.column[f] == (int) i)
+            {
+              column.field = f;
+              column.unit = plan.unit[f];
+            }
+        }
+      if (column.field != SL_FIELD_NONE)
+        for (guint m = 0; m < options->n_maps; m++)
+          column.explicit_map |= options->maps[m].field == column.field;
+      g_array_append_val (preview->columns, column);
+    }
+}
+
+SlImportPreview *
+sl_import_preview (const char *path, const SlImportOptions *options, guint max_rows,
+                   GError **error)
+{
+  g_autoptr (SlImportPreview) preview = NULL;
+  g_autoptr (GMappedFile) mapped = NULL;
+  g_autoptr (SlCsvReader) reader = NULL;
+  g_autoptr (GError) local_error = NULL;
+  g_auto (GStrv) names = NULL;
+  SlCsvRecord header, record;
+  gsize length;
+
+  g_return_val_if_fail (path != NULL && options != NULL, NULL);
+
+  preview = g_new0 (SlImportPreview, 1);
+  preview->file_name = g_path_get_basename (path);
+  preview->columns = g_array_new (FALSE, FALSE, sizeof (SlPreviewColumn));
+  g_array_set_clear_func (preview->columns, preview_column_clear);
+  preview->rows = g_ptr_array_new_with_free_func (preview_row_free);
+
+  mapped = g_mapped_file_new (path, FALSE, &local_error);
+  if (mapped == NULL)
+    {
+      g_set_error (error, SL_ERROR, SL_ERROR_IO, _("%s: cannot read: %s"), path,
+                   local_error->message);
+      return NULL;
+    }
+  length = g_mapped_file_get_length (mapped);
+  if (length == 0)
+    {
+      g_set_error (error, SL_ERROR, SL_ERROR_BAD_INPUT, _("%s: the file is empty"),
+                   preview->file_name);
+      return NULL;
+    }
+  reader = sl_csv_reader_new (g_mapped_file_get_contents (mapped), length, options->delimiter,
+                              preview->file_name, error);
+  if (reader == NULL)
+    return NULL;
+  preview->delimiter = sl_csv_reader_get_delimiter (reader);
+  preview->delimiter_given = options->delimiter != 0;
+
+  if (!sl_csv_reader_next (reader, &header))
+    {
+      g_set_error (error, SL_ERROR, SL_ERROR_BAD_INPUT,
+                   _("%s: no header row (the file holds only comments or blank lines)"),
+                   preview->file_name);
+      return NULL;
+    }
+  if (header.malformed)
+    {
+      g_set_error (error, SL_ERROR, SL_ERROR_BAD_INPUT, _("%s:%u: the header row: %s"),
+                   preview->file_name, header.line, _(header.malformed));
+      return NULL;
+    }
+  preview->header_line = header.line;
+  /* As the import does: a stripped copy outlives the reader's buffer. */
+  names = g_new0 (char *, header.n_fields + 1);
+  for (guint i = 0; i < header.n_fields; i++)
+    names[i] = g_strdup (g_strstrip (header.fields[i]));
+  header.fields = names;
+  preview_mapping (preview, &header, options);
+
+  while (sl_csv_reader_next (reader, &record))
+    {
+      SlPreviewRow *row;
+
+      if (preview->rows->len == max_rows)
+        {
+          preview->more_rows = TRUE;
+          break;
+        }
+      row = g_new0 (SlPreviewRow, 1);
+      row->line = record.line;
+      row->cells = g_new0 (char *, record.n_fields + 1);
+      for (guint i = 0; i < record.n_fields; i++)
+        row->cells[i] = g_utf8_make_valid (record.fields[i], -1);
+      row->malformed = record.malformed ? g_strdup (_(record.malformed)) : NULL;
+      g_ptr_array_add (preview->rows, row);
+    }
+  return g_steal_pointer (&preview);
 }

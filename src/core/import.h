@@ -5,6 +5,10 @@
  * A row with a bad value is rejected with its line, column and reason and
  * kept in rejected_rows; the import goes on.  The whole import is one
  * transaction: a failure or a cancel leaves the project as it was.
+ *
+ * sl_import_preview reads only the header and the first rows and says how
+ * the import would map the columns (the import's own mapping code); a dry
+ * run (options.dry_run) is the whole import, rolled back at the end.
  */
 #pragma once
 
@@ -37,6 +41,9 @@ typedef struct {
   double         epoch;         /* Julian year for rows without an epoch column; NAN: none */
   const char    *source_name;   /* NULL: the file's base name */
   gboolean       again;         /* import a file whose SHA-256 was imported before */
+  gboolean       explicit_only; /* take only the columns in MAPS; no header name maps itself */
+  gboolean       dry_run;       /* do everything, then roll back: the report of an import
+                                 * that writes nothing (source_id is the one it would get) */
   GCancellable  *cancellable;
   SlProgressFunc progress;      /* called now and then with the fraction read */
   gpointer       progress_data;
@@ -69,5 +76,44 @@ SlImportReport *sl_import_csv (SlProject *project, const char *path,
 void sl_import_report_free (SlImportReport *report);
 
 G_DEFINE_AUTOPTR_CLEANUP_FUNC (SlImportReport, sl_import_report_free)
+
+/* One header column as an import with given options would take it. */
+typedef struct {
+  char     *name;          /* the header text, blanks stripped */
+  SlField   field;         /* the field it is imported as; SL_FIELD_NONE: not imported */
+  SlUnit    unit;          /* the unit it is read in (the field's canonical one unless mapped) */
+  gboolean  explicit_map;  /* FIELD comes from options->maps, not from the name */
+  SlField   automatic;     /* what the import maps it to with no maps; SL_FIELD_NONE: nothing */
+} SlPreviewColumn;
+
+/* One data record of the file's start, as split (quotes removed, blanks kept). */
+typedef struct {
+  guint  line;             /* first physical line, 1-based */
+  GStrv  cells;
+  char  *malformed;        /* NULL, or why the record could not be split */
+} SlPreviewRow;
+
+typedef struct {
+  char      *file_name;        /* base name */
+  char       delimiter;        /* as detected, or as given */
+  gboolean   delimiter_given;  /* options->delimiter was not 0 */
+  guint      header_line;
+  GArray    *columns;          /* SlPreviewColumn, in header order */
+  GPtrArray *rows;             /* SlPreviewRow *, the first max_rows data records */
+  gboolean   more_rows;        /* the file holds more records than ROWS */
+  char      *mapping_problem;  /* why the import would stop before reading a row
+                                * (no id column, a map naming no column, ...); NULL: none */
+} SlImportPreview;
+
+/* The delimiter, header, first MAX_ROWS records and column mapping of the
+ * CSV file at PATH under OPTIONS (delimiter, maps, explicit_only).  Fails
+ * only when the file cannot be read as CSV at all (unreadable, empty,
+ * binary, no header); a mapping that would stop the import is
+ * mapping_problem. */
+SlImportPreview *sl_import_preview (const char *path, const SlImportOptions *options,
+                                    guint max_rows, GError **error);
+void             sl_import_preview_free (SlImportPreview *preview);
+
+G_DEFINE_AUTOPTR_CLEANUP_FUNC (SlImportPreview, sl_import_preview_free)
 
 G_END_DECLS
