@@ -757,6 +757,7 @@ build_preview (SlFigureDialog *self)
   gtk_widget_add_css_class (GTK_WIDGET (self->command), "monospace");
   gtk_scrolled_window_set_policy (GTK_SCROLLED_WINDOW (scroller), GTK_POLICY_NEVER, GTK_POLICY_AUTOMATIC);
   gtk_scrolled_window_set_propagate_natural_height (GTK_SCROLLED_WINDOW (scroller), TRUE);
+  gtk_scrolled_window_set_min_content_height (GTK_SCROLLED_WINDOW (scroller), 84);
   gtk_scrolled_window_set_max_content_height (GTK_SCROLLED_WINDOW (scroller), 110);
   gtk_scrolled_window_set_child (GTK_SCROLLED_WINDOW (scroller), GTK_WIDGET (self->command));
   gtk_box_append (GTK_BOX (box), scroller);
