@@ -616,10 +616,11 @@ add_kind_options (SlFigureDialog *self, AdwPreferencesPage *page)
     {
     case SL_FIGURE_KIND_HR:
       {
-        const char *const planes[] = { _("Theoretical: log Teff, log L"), _("Observational: (B−V)₀, M_V"), NULL };
+        const char *const planes[] = { _("Theoretical"), _("Observational"), NULL };
 
         group = add_group (page, _("Diagram"));
         self->plane = choice_row (self, group, _("Plane"), "plane", planes, 0);
+        adw_action_row_set_subtitle (ADW_ACTION_ROW (self->plane), _("log Teff and log L, or (B−V)₀ and M_V"));
         self->errors = switch_row (self, group, _("Error ellipses"), _("Or bars, from the 68% intervals"), "errors",
                                    self->job.hrd.errors);
         break;
@@ -689,13 +690,14 @@ add_star_options (SlFigureDialog *self, AdwPreferencesPage *page)
 static GtkWidget *
 build_options (SlFigureDialog *self)
 {
-  const char *const sizes[] = { _("Single column, 88 × 70 mm"), _("Double column, 180 × 110 mm"), _("Custom"), NULL };
+  const char *const sizes[] = { _("Single column"), _("Double column"), _("Custom"), NULL };
   const char *const formats[] = { _("PDF"), _("SVG"), _("PNG"), NULL };
   GtkWidget *page = adw_preferences_page_new ();
   AdwPreferencesGroup *group;
 
   group = add_group (ADW_PREFERENCES_PAGE (page), _("Page"));
   self->size = choice_row (self, group, _("Size"), "size", sizes, SIZE_SINGLE);
+  adw_action_row_set_subtitle (ADW_ACTION_ROW (self->size), _("A journal's column: 88 × 70 mm or 180 × 110 mm"));
   g_signal_handlers_disconnect_by_func (self->size, options_changed, self);
   g_signal_connect_swapped (self->size, "notify::selected", G_CALLBACK (on_size_changed), self);
   self->width = spin_row (self, group, _("Width"), _("Millimetres"), "width", 10, 1000, 1, 1,

@@ -277,7 +277,7 @@ load_stars_thread (GTask *task, gpointer source, gpointer task_data, GCancellabl
 
   project = sl_project_open (path, &error);
   if (project)
-    stars = sl_star_set_load (project, NULL, &error);
+    stars = sl_star_set_load_full (project, NULL, cancellable, &error);
   if (stars)
     g_task_return_pointer (task, stars, (GDestroyNotify) sl_star_set_free);
   else
