@@ -116,6 +116,7 @@ spin_row (SlFigureDialog *self, AdwPreferencesGroup *group, const char *title, c
   gtk_spin_button_set_value (GTK_SPIN_BUTTON (spin), value);
   gtk_widget_set_valign (spin, GTK_ALIGN_CENTER);
   gtk_widget_set_name (spin, name);
+  gtk_accessible_update_property (GTK_ACCESSIBLE (spin), GTK_ACCESSIBLE_PROPERTY_LABEL, title, -1);
   adw_action_row_add_suffix (ADW_ACTION_ROW (row), spin);
   g_signal_connect_swapped (spin, "value-changed", G_CALLBACK (options_changed), self);
   if (row_out)
@@ -133,6 +134,7 @@ switch_row (SlFigureDialog *self, AdwPreferencesGroup *group, const char *title,
   gtk_switch_set_active (GTK_SWITCH (toggle), active);
   gtk_widget_set_valign (toggle, GTK_ALIGN_CENTER);
   gtk_widget_set_name (toggle, name);
+  gtk_accessible_update_property (GTK_ACCESSIBLE (toggle), GTK_ACCESSIBLE_PROPERTY_LABEL, title, -1);
   adw_action_row_add_suffix (ADW_ACTION_ROW (row), toggle);
   adw_action_row_set_activatable_widget (ADW_ACTION_ROW (row), toggle);
   g_signal_connect_swapped (toggle, "notify::active", G_CALLBACK (options_changed), self);
@@ -459,6 +461,9 @@ export_thread (GTask *task, gpointer source, gpointer task_data, GCancellable *c
   GPtrArray *notes = g_ptr_array_new_with_free_func (g_free);
   GError *error = NULL;
 
+  /* A Cancel that comes after the file is written must not report that no
+   * file was: this thread says itself whether it was cancelled. */
+  g_task_set_check_cancellable (task, FALSE);
   sl_window_report_progress (0.05, source);
   project = sl_project_open (d->project, &error);
   if (project)
