@@ -1208,6 +1208,12 @@ test_figure_export (void)
         return;
       g_assert_cmpint (sl_figure_dialog_get_job (dialog)->kind, ==, i == 1 ? 1 : i == 2 ? 2 : 0);
       cases[i].set_options (dialog);
+      {
+        SlFigureFormat want;
+
+        g_assert_true (sl_figure_format_from_path (cases[i].file, &want));
+        g_assert_cmpint (sl_figure_dialog_get_format (dialog), ==, want);
+      }
       WAIT_UNTIL (sl_figure_dialog_is_ready (dialog), LOAD_TIMEOUT_S, "the list's stars");
       g_test_message ("%s: %s", cases[i].file, sl_figure_dialog_get_command_line (dialog));
       if (i == 1)

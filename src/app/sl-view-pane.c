@@ -17,6 +17,11 @@ struct _SlViewPane {
 
 G_DEFINE_FINAL_TYPE (SlViewPane, sl_view_pane, GTK_TYPE_WIDGET)
 
+/* A view's kind names its figure: the two enumerations agree. */
+G_STATIC_ASSERT ((int) SL_PLOT_KIND_HRD == (int) SL_FIGURE_KIND_HR);
+G_STATIC_ASSERT ((int) SL_PLOT_KIND_SKY == (int) SL_FIGURE_KIND_SKY);
+G_STATIC_ASSERT ((int) SL_PLOT_KIND_PARALLAX == (int) SL_FIGURE_KIND_PARALLAX);
+
 static void
 update_maximize_button (SlViewPane *self)
 {
@@ -58,7 +63,6 @@ SlViewPane *
 sl_view_pane_new (SlPlotView *view, const char *title)
 {
   SlViewPane *self = g_object_new (SL_TYPE_VIEW_PANE, NULL);
-  /* SlPlotKind and SlFigureKind list the kinds in the same order. */
   const char *kind = sl_figure_kind_name ((SlFigureKind) sl_plot_view_get_kind (view));
   GtkWidget *strip = gtk_box_new (GTK_ORIENTATION_HORIZONTAL, 0);
   GtkWidget *label = gtk_label_new (title);
