@@ -17,10 +17,12 @@
 
 #include "derivation.h"
 #include "ledger.h"
+#include "lists.h"
 #include "sl-application.h"
 #include "sl-catalogue-row.h"
 #include "sl-catalogue-view.h"
 #include "sl-import-dialog.h"
+#include "sl-figure-dialog.h"
 #include "sl-plot-view.h"
 #include "sl-window.h"
 #include "summary.h"
@@ -1255,6 +1257,383 @@ test_shortcuts (void)
   gtk_widget_set_visible (GTK_WIDGET (overlay), FALSE);
 }
 
+/* ------------------------------------------------------------------ */
+/* Figure export and maximised views                                  */
+
+/* The widget below ROOT named NAME (the Export Figure dialog names its
+ * option widgets), or NULL. */
+static GtkWidget *
+find_named (GtkWidget *root, const char *name)
+{
+  if (g_strcmp0 (gtk_widget_get_name (root), name) == 0)
+    return root;
+  for (GtkWidget *child = gtk_widget_get_first_child (root); child; child = gtk_widget_get_next_sibling (child))
+    {
+      GtkWidget *found = find_named (child, name);
+
+      if (found)
+        return found;
+    }
+  return NULL;
+}
+
+static void
+set_spin (SlFigureDialog *dialog, const char *name, double value)
+{
+  GtkWidget *spin = find_named (GTK_WIDGET (dialog), name);
+
+  g_assert_true (GTK_IS_SPIN_BUTTON (spin));
+  gtk_spin_button_set_value (GTK_SPIN_BUTTON (spin), value);
+}
+
+static void
+set_choice (SlFigureDialog *dialog, const char *name, guint selected)
+{
+  GtkWidget *row = find_named (GTK_WIDGET (dialog), name);
+
+  g_assert_true (ADW_IS_COMBO_ROW (row));
+  adw_combo_row_set_selected (ADW_COMBO_ROW (row), selected);
+}
+
+static void
+set_switch (SlFigureDialog *dialog, const char *name, gboolean active)
+{
+  GtkWidget *toggle = find_named (GTK_WIDGET (dialog), name);
+
+  g_assert_true (GTK_IS_SWITCH (toggle));
+  gtk_switch_set_active (GTK_SWITCH (toggle), active);
+}
+
+/* Opens Export Figure from the view of KIND (its header strip's action)
+ * and waits for its preview's stars; NULL if that failed (the test has
+ * failed then). */
+static SlFigureDialog *
+open_figure_dialog (const char *kind)
+{
+  gint64 end = g_get_monotonic_time () + (gint64) (LOAD_TIMEOUT_S * G_USEC_PER_SEC);
+  SlFigureDialog *dialog = NULL;
+
+  g_assert_true (gtk_widget_activate_action (GTK_WIDGET (demo), "win.export-figure", "s", kind));
+  while (dialog == NULL || !sl_figure_dialog_is_ready (dialog))
+    {
+      if (g_get_monotonic_time () > end)
+        {
+          g_test_fail_printf ("the Export Figure dialog for %s did not open and load", kind);
+          return NULL;
+        }
+      dialog = SL_FIGURE_DIALOG (find_toplevel (SL_TYPE_FIGURE_DIALOG));
+      g_main_context_iteration (NULL, TRUE);
+    }
+  return dialog;
+}
+
+/* Runs starledger-cli ($STARLEDGER_CLI) with ARGS (NULL-terminated, no
+ * program name); fails the test unless it exits 0. */
+static void
+run_cli_args (const char *const *args)
+{
+  g_autoptr (GPtrArray) argv = g_ptr_array_new ();
+  g_autofree char *err = NULL;
+  g_autoptr (GError) error = NULL;
+  const char *cli = g_getenv ("STARLEDGER_CLI");
+  int status = -1;
+
+  g_assert_nonnull (cli);
+  g_ptr_array_add (argv, (gpointer) cli);
+  for (guint i = 0; args[i]; i++)
+    g_ptr_array_add (argv, (gpointer) args[i]);
+  g_ptr_array_add (argv, NULL);
+  g_assert_true (g_spawn_sync (NULL, (char **) argv->pdata, NULL, G_SPAWN_STDOUT_TO_DEV_NULL, NULL, NULL, NULL,
+                               &err, &status, &error));
+  g_assert_no_error (error);
+  if (!g_spawn_check_wait_status (status, NULL))
+    g_test_fail_printf ("starledger-cli failed: %s", err);
+}
+
+/* The command line the dialog shows, run with its -o replaced by OUTPUT. */
+static void
+run_shown_command (SlFigureDialog *dialog, const char *output)
+{
+  g_auto (GStrv) words = NULL;
+  g_autoptr (GError) error = NULL;
+
+  g_assert_true (g_shell_parse_argv (sl_figure_dialog_get_command_line (dialog), NULL, &words, &error));
+  g_assert_no_error (error);
+  g_assert_cmpstr (words[0], ==, "starledger-cli");
+  for (guint i = 1; words[i]; i++)
+    if (strcmp (words[i], "-o") == 0 && words[i + 1])
+      {
+        g_free (words[i + 1]);
+        words[i + 1] = g_strdup (output);
+      }
+  run_cli_args ((const char *const *) words + 1);
+}
+
+static void
+assert_same_file (const char *a, const char *b)
+{
+  g_autofree char *ca = NULL, *cb = NULL;
+  gsize na = 0, nb = 0;
+
+  g_assert_true (g_file_get_contents (a, &ca, &na, NULL));
+  g_assert_true (g_file_get_contents (b, &cb, &nb, NULL));
+  g_assert_cmpuint (na, >, 1000);
+  if (na != nb || memcmp (ca, cb, na) != 0)
+    g_test_fail_printf ("%s (%" G_GSIZE_FORMAT " bytes) and %s (%" G_GSIZE_FORMAT " bytes) differ", a, na, b, nb);
+}
+
+typedef struct {
+  const char *kind;
+  const char *file;                        /* the extension gives the format */
+  void (*set_options) (SlFigureDialog *);  /* as a user would in the dialog */
+  const char *cli[16];                     /* the same as starledger-cli options */
+} ExportCase;
+
+static void
+hr_png_options (SlFigureDialog *d)
+{
+  set_choice (d, "size", 1);          /* double column */
+  set_choice (d, "format", 2);        /* PNG */
+  set_spin (d, "dpi", 150);
+  set_switch (d, "grayscale", TRUE);
+  set_choice (d, "plane", 1);         /* observational */
+}
+
+static void
+sky_svg_options (SlFigureDialog *d)
+{
+  set_choice (d, "format", 1);        /* SVG */
+  set_spin (d, "width", 120);
+  set_spin (d, "height", 90);
+  set_spin (d, "font", 8);
+  set_choice (d, "coordinates", 1);   /* galactic */
+  set_spin (d, "ellipses", 3000);
+  set_choice (d, "list", 1);          /* the list the test made */
+}
+
+static void
+parallax_png_options (SlFigureDialog *d)
+{
+  set_choice (d, "format", 2);
+  set_spin (d, "dpi", 120);
+  set_spin (d, "start", 2026.5);
+  set_spin (d, "years", 2);
+  set_switch (d, "proper-motion", TRUE);
+  set_switch (d, "common-scale", TRUE);
+}
+
+static void
+hr_svg_options (SlFigureDialog *d)
+{
+  set_choice (d, "format", 1);
+  set_switch (d, "errors", FALSE);
+}
+
+/* Export Figure from each view writes, byte for byte, what
+ * starledger-cli figure writes with the same options, and what the
+ * command line the dialog shows writes; the preview is drawn (saved as
+ * gui-figure-dialog.png). */
+static void
+test_figure_export (void)
+{
+  static const char *const selection[] = { "LHO 0004", "LHO 0010", NULL };
+  static const char *const members[] = { "LHO 0004", "LHO 0010", "LHO 0012", "LHO 0020", NULL };
+  g_autofree char *path = demo_path ();
+  g_autofree char *dir = sl_test_scratch_new ();
+  g_autoptr (SlProject) project = NULL;
+  g_autoptr (GError) error = NULL;
+  const ExportCase cases[] = {
+    { "hr", "hr.png", hr_png_options,
+      { "--size", "double", "--dpi", "150", "--grayscale", "--plane", "observational", NULL } },
+    { "sky", "sky.svg", sky_svg_options,
+      { "--width-mm", "120", "--height-mm", "90", "--font-pt", "8", "--coordinates", "galactic",
+        "--ellipses", "3000", "--list", "figure test", NULL } },
+    { "parallax", "parallax.png", parallax_png_options,
+      { "--dpi", "120", "--start", "2026.5", "--years", "2", "--proper-motion", "--common-scale", NULL } },
+    { "hr", "hr.svg", hr_svg_options, { "--no-errors", NULL } },
+  };
+
+  ENSURE_DEMO ();
+  /* A target list, for the dialog's "only the stars of list". */
+  project = sl_project_open (path, &error);
+  g_assert_no_error (error);
+  if (!sl_list_create (project, "figure test", NULL, NULL))
+    g_test_message ("the list was there already");
+  g_assert_cmpint (sl_list_add_stars (project, "figure test", members, &error), >=, 0);
+  g_assert_no_error (error);
+  g_clear_pointer (&project, sl_project_close);
+  sl_window_set_selection (demo, selection);
+
+  for (guint i = 0; i < G_N_ELEMENTS (cases); i++)
+    {
+      g_autofree char *by_window = g_build_filename (dir, cases[i].file, NULL);
+      g_autofree char *cli_name = g_strconcat ("cli-", cases[i].file, NULL);
+      g_autofree char *by_cli = g_build_filename (dir, cli_name, NULL);
+      g_autoptr (GPtrArray) args = g_ptr_array_new ();
+      SlFigureDialog *dialog = open_figure_dialog (cases[i].kind);
+
+      if (dialog == NULL)
+        return;
+      g_assert_cmpint (sl_figure_dialog_get_job (dialog)->kind, ==, i == 1 ? 1 : i == 2 ? 2 : 0);
+      cases[i].set_options (dialog);
+      {
+        SlFigureFormat want;
+
+        g_assert_true (sl_figure_format_from_path (cases[i].file, &want));
+        g_assert_cmpint (sl_figure_dialog_get_format (dialog), ==, want);
+      }
+      WAIT_UNTIL (sl_figure_dialog_is_ready (dialog), LOAD_TIMEOUT_S, "the list's stars");
+      g_test_message ("%s: %s", cases[i].file, sl_figure_dialog_get_command_line (dialog));
+      if (i == 1)
+        {
+          cairo_surface_t *picture;
+          Census c;
+
+          PAINT (dialog);
+          picture = render_widget (GTK_WIDGET (dialog));
+          save_png (picture, "gui-figure-dialog.png");
+          {
+            graphene_rect_t bounds;
+
+            g_assert_true (gtk_widget_compute_bounds (find_named (GTK_WIDGET (dialog), "preview"),
+                                                      GTK_WIDGET (dialog), &bounds));
+            c = census (picture, bounds.origin.x, bounds.origin.y, bounds.origin.x + bounds.size.width,
+                        bounds.origin.y + bounds.size.height);
+          }
+          g_assert_cmpuint (c.coloured, >, 100);
+          cairo_surface_destroy (picture);
+        }
+
+      g_assert_true (sl_figure_dialog_export_to (dialog, by_window));
+      WAIT_UNTIL (!sl_window_is_working (demo), LOAD_TIMEOUT_S, "the export");
+      g_assert_null (find_toplevel (SL_TYPE_FIGURE_DIALOG));
+
+      g_ptr_array_add (args, "figure");
+      g_ptr_array_add (args, path);
+      g_ptr_array_add (args, (gpointer) cases[i].kind);
+      g_ptr_array_add (args, "-o");
+      g_ptr_array_add (args, by_cli);
+      for (guint j = 0; selection[j]; j++)
+        {
+          g_ptr_array_add (args, "--star");
+          g_ptr_array_add (args, (gpointer) selection[j]);
+        }
+      for (guint j = 0; cases[i].cli[j]; j++)
+        g_ptr_array_add (args, (gpointer) cases[i].cli[j]);
+      g_ptr_array_add (args, NULL);
+      run_cli_args ((const char *const *) args->pdata);
+      assert_same_file (by_window, by_cli);
+    }
+
+  /* The command line shown, run: the same bytes (the last case's dialog
+   * is gone; one more, left as it opens). */
+  {
+    g_autofree char *by_window = g_build_filename (dir, "plain-sky.png", NULL);
+    g_autofree char *by_shown = g_build_filename (dir, "shown-sky.png", NULL);
+    SlFigureDialog *dialog = open_figure_dialog ("sky");
+
+    if (dialog == NULL)
+      return;
+    set_choice (dialog, "format", 2);
+    set_spin (dialog, "dpi", 100);
+    run_shown_command (dialog, by_shown);
+    g_assert_true (sl_figure_dialog_export_to (dialog, by_window));
+    WAIT_UNTIL (!sl_window_is_working (demo), LOAD_TIMEOUT_S, "the export");
+    assert_same_file (by_window, by_shown);
+  }
+  sl_test_scratch_free (g_steal_pointer (&dir));
+}
+
+/* A star of the selection outside the list chosen: the dialog says so and
+ * will not export. */
+static void
+test_figure_export_refused (void)
+{
+  static const char *const outside[] = { "LHO 0001", NULL };
+  g_autofree char *dir = sl_test_scratch_new ();
+  g_autofree char *out = g_build_filename (dir, "never.pdf", NULL);
+  SlFigureDialog *dialog;
+
+  ENSURE_DEMO ();
+  sl_window_set_selection (demo, outside);
+  dialog = open_figure_dialog ("hr");
+  if (dialog == NULL)
+    return;
+  set_choice (dialog, "list", 1);
+  WAIT_UNTIL (sl_figure_dialog_is_ready (dialog), LOAD_TIMEOUT_S, "the list's stars");
+  g_assert_false (sl_figure_dialog_export_to (dialog, out));
+  g_assert_false (sl_window_is_working (demo));
+  g_assert_false (g_file_test (out, G_FILE_TEST_EXISTS));
+  gtk_window_close (GTK_WINDOW (dialog));
+  sl_test_scratch_free (g_steal_pointer (&dir));
+}
+
+/* Maximising a view hides the other two and gives it the whole area right
+ * of the table; its button again, or Escape's action, brings them back
+ * with the panes where they were.  Saved as gui-maximized.png. */
+static void
+test_maximize_view (void)
+{
+  GtkWidget *hrd, *sky, *parallax;
+  GtkPaned *upper, *lower;
+  int upper_position, lower_position, sky_width, sky_height;
+  cairo_surface_t *picture;
+
+  ENSURE_DEMO ();
+  hrd = GTK_WIDGET (view (SL_PLOT_KIND_HRD));
+  sky = GTK_WIDGET (view (SL_PLOT_KIND_SKY));
+  parallax = GTK_WIDGET (view (SL_PLOT_KIND_PARALLAX));
+  upper = GTK_PANED (gtk_widget_get_ancestor (hrd, GTK_TYPE_PANED));
+  lower = GTK_PANED (gtk_widget_get_ancestor (sky, GTK_TYPE_PANED));
+  g_assert_true (upper != lower);
+  PAINT (demo);
+  upper_position = gtk_paned_get_position (upper);
+  lower_position = gtk_paned_get_position (lower);
+  sky_width = gtk_widget_get_width (sky);
+  sky_height = gtk_widget_get_height (sky);
+
+  for (SlPlotKind kind = 0; kind < 3; kind++)
+    {
+      const char *name = kind == SL_PLOT_KIND_HRD ? "hr" : kind == SL_PLOT_KIND_SKY ? "sky" : "parallax";
+      GtkWidget *views[3] = { hrd, sky, parallax };
+
+      g_assert_true (gtk_widget_activate_action (GTK_WIDGET (demo), "win.maximize-view", "s", name));
+      PAINT (demo);
+      for (guint i = 0; i < 3; i++)
+        g_assert_cmpint (gtk_widget_is_visible (views[i]), ==, i == kind);
+      if (kind == SL_PLOT_KIND_SKY)
+        {
+          g_assert_cmpint (gtk_widget_get_width (sky), >, sky_width + 100);
+          g_assert_cmpint (gtk_widget_get_height (sky), >, sky_height + 100);
+          picture = render_widget (GTK_WIDGET (demo));
+          save_png (picture, "gui-maximized.png");
+          cairo_surface_destroy (picture);
+        }
+      /* Its own button again for the first two, Escape's action for the last. */
+      if (kind == SL_PLOT_KIND_PARALLAX)
+        g_assert_true (gtk_widget_activate_action (GTK_WIDGET (demo), "win.restore-views", NULL));
+      else
+        g_assert_true (gtk_widget_activate_action (GTK_WIDGET (demo), "win.maximize-view", "s", name));
+      PAINT (demo);
+      for (guint i = 0; i < 3; i++)
+        g_assert_true (gtk_widget_is_visible (views[i]));
+      g_assert_cmpint (gtk_paned_get_position (upper), ==, upper_position);
+      g_assert_cmpint (gtk_paned_get_position (lower), ==, lower_position);
+      g_assert_cmpint (gtk_widget_get_width (sky), ==, sky_width);
+    }
+
+  /* One maximised view, then another: straight there; show all restores. */
+  g_assert_true (gtk_widget_activate_action (GTK_WIDGET (demo), "win.maximize-view", "s", "hr"));
+  g_assert_true (gtk_widget_activate_action (GTK_WIDGET (demo), "win.maximize-view", "s", "parallax"));
+  PAINT (demo);
+  g_assert_false (gtk_widget_is_visible (hrd));
+  g_assert_true (gtk_widget_is_visible (parallax));
+  g_assert_true (gtk_widget_activate_action (GTK_WIDGET (demo), "win.restore-views", NULL));
+  PAINT (demo);
+  g_assert_cmpint (gtk_paned_get_position (upper), ==, upper_position);
+  g_assert_cmpint (gtk_paned_get_position (lower), ==, lower_position);
+}
+
 int
 main (int argc, char **argv)
 {
@@ -1298,6 +1677,9 @@ main (int argc, char **argv)
   g_test_add_func ("/gui/import/assistant", test_import_assistant);
   g_test_add_func ("/gui/import/assistant-delimiter", test_import_assistant_delimiter);
   g_test_add_func ("/gui/import/assistant-stop-check", test_import_assistant_stop);
+  g_test_add_func ("/gui/figure/export", test_figure_export);
+  g_test_add_func ("/gui/figure/export-refused", test_figure_export_refused);
+  g_test_add_func ("/gui/views/maximize", test_maximize_view);
   status = g_test_run ();
 
   if (demo)

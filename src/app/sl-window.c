@@ -7,6 +7,7 @@
  *   actions ............... open, new, open-demo
  *   long work ............. sl_window_run_work: derive, import (GTask threads,
  *                           progress bar, Cancel)
+ *   the views ............. Export Figure… (sl-figure-dialog.c), maximise one view
  *   drag and drop ......... a project opens, a CSV file opens the import assistant
  *   settings .............. window size and pane positions (GSettings)
  *
@@ -26,7 +27,9 @@
 #include "sl-application.h"
 #include "sl-catalogue-view.h"
 #include "sl-import-dialog.h"
+#include "sl-figure-dialog.h"
 #include "sl-plot-view.h"
+#include "sl-view-pane.h"
 #include "starset.h"
 #include "units.h"
 
@@ -61,6 +64,10 @@ struct _SlWindow {
   GCancellable    *work;              /* the running star load, if any */
   guint            busy;              /* star loads and derivations running */
   GSettings       *settings;
+
+  SlViewPane      *panes[3];          /* each view under its header strip, by SlPlotKind */
+  int              maximized;         /* the maximised view's SlPlotKind + 1; 0: none */
+  int              saved_positions[2];  /* views_paned, lower_views_paned before maximising */
 };
 
 G_DEFINE_FINAL_TYPE (SlWindow, sl_window, ADW_TYPE_APPLICATION_WINDOW)
@@ -271,7 +278,7 @@ load_stars_thread (GTask *task, gpointer source, gpointer task_data, GCancellabl
 
   project = sl_project_open (path, &error);
   if (project)
-    stars = sl_star_set_load (project, NULL, &error);
+    stars = sl_star_set_load_full (project, NULL, cancellable, &error);
   if (stars)
     g_task_return_pointer (task, stars, (GDestroyNotify) sl_star_set_free);
   else
@@ -925,15 +932,101 @@ on_drop (GtkDropTarget *target, const GValue *value, double x, double y, SlWindo
 }
 
 /* ------------------------------------------------------------------ */
+/* The views: export a figure, maximise one                           */
+
+static const char *
+view_title (SlPlotKind kind)
+{
+  switch (kind)
+    {
+    case SL_PLOT_KIND_HRD:
+      return _("HR Diagram");
+    case SL_PLOT_KIND_SKY:
+      return _("Sky");
+    default:
+      return _("Parallax");
+    }
+}
+
+/* PARAMETER: the kind's name as the command line has it ("hr", "sky",
+ * "parallax"); SlPlotKind and SlFigureKind list the kinds alike. */
+static gboolean
+kind_of (GVariant *parameter, SlPlotKind *kind)
+{
+  SlFigureKind figure;
+
+  if (!sl_figure_kind_from_name (g_variant_get_string (parameter, NULL), &figure))
+    return FALSE;
+  *kind = (SlPlotKind) figure;
+  return TRUE;
+}
+
+static void
+export_figure_action (GtkWidget *widget, const char *action, GVariant *parameter)
+{
+  SlWindow *self = SL_WINDOW (widget);
+  SlPlotKind kind;
+
+  if (self->path == NULL || !kind_of (parameter, &kind))
+    return;
+  gtk_window_present (GTK_WINDOW (sl_figure_dialog_new (self, (SlFigureKind) kind)));
+}
+
+/* One view fills the area right of the table; the others are hidden and
+ * the panes' positions kept for when they come back. */
+static void
+show_views (SlWindow *self, int maximized)
+{
+  GtkWidget *hrd = GTK_WIDGET (self->hrd_box), *sky = GTK_WIDGET (self->sky_box);
+  GtkWidget *parallax = GTK_WIDGET (self->parallax_box), *lower = GTK_WIDGET (self->lower_views_paned);
+
+  if (self->maximized == 0 && maximized != 0)
+    {
+      self->saved_positions[0] = gtk_paned_get_position (self->views_paned);
+      self->saved_positions[1] = gtk_paned_get_position (self->lower_views_paned);
+    }
+  gtk_widget_set_visible (hrd, maximized == 0 || maximized == SL_PLOT_KIND_HRD + 1);
+  gtk_widget_set_visible (lower, maximized != SL_PLOT_KIND_HRD + 1);
+  gtk_widget_set_visible (sky, maximized != SL_PLOT_KIND_PARALLAX + 1);
+  gtk_widget_set_visible (parallax, maximized != SL_PLOT_KIND_SKY + 1);
+  if (self->maximized != 0 && maximized == 0)
+    {
+      gtk_paned_set_position (self->views_paned, self->saved_positions[0]);
+      gtk_paned_set_position (self->lower_views_paned, self->saved_positions[1]);
+    }
+  self->maximized = maximized;
+  for (guint i = 0; i < G_N_ELEMENTS (self->panes); i++)
+    sl_view_pane_set_maximized (self->panes[i], maximized == (int) i + 1);
+  gtk_widget_action_set_enabled (GTK_WIDGET (self), "win.restore-views", maximized != 0);
+}
+
+/* The view's button: maximise it, or, when it is maximised, show all. */
+static void
+maximize_view_action (GtkWidget *widget, const char *action, GVariant *parameter)
+{
+  SlWindow *self = SL_WINDOW (widget);
+  SlPlotKind kind;
+
+  if (!kind_of (parameter, &kind))
+    return;
+  show_views (self, self->maximized == (int) kind + 1 ? 0 : (int) kind + 1);
+}
+
+static void
+restore_views_action (GtkWidget *widget, const char *action, GVariant *parameter)
+{
+  show_views (SL_WINDOW (widget), 0);
+}
+
+/* ------------------------------------------------------------------ */
 /* Construction                                                       */
 
 static void
 add_view (SlWindow *self, SlPlotKind kind, GtkBox *box)
 {
   self->views[kind] = sl_plot_view_new (kind);
-  gtk_widget_set_vexpand (GTK_WIDGET (self->views[kind]), TRUE);
-  gtk_widget_set_hexpand (GTK_WIDGET (self->views[kind]), TRUE);
-  gtk_box_append (box, GTK_WIDGET (self->views[kind]));
+  self->panes[kind] = sl_view_pane_new (self->views[kind], view_title (kind));
+  gtk_box_append (box, GTK_WIDGET (self->panes[kind]));
   g_signal_connect (self->views[kind], "star-selected", G_CALLBACK (on_view_star_selected), self);
   g_signal_connect (self->views[kind], "stars-selected-in-region", G_CALLBACK (on_view_region_selected), self);
 }
@@ -1000,10 +1093,14 @@ sl_window_class_init (SlWindowClass *klass)
   gtk_widget_class_install_action (widget_class, "win.cancel-work", NULL, cancel_work_action);
   gtk_widget_class_install_action (widget_class, "win.override", NULL, override_action);
   gtk_widget_class_install_action (widget_class, "win.clear-override", NULL, clear_override_action);
+  gtk_widget_class_install_action (widget_class, "win.export-figure", "s", export_figure_action);
+  gtk_widget_class_install_action (widget_class, "win.maximize-view", "s", maximize_view_action);
+  gtk_widget_class_install_action (widget_class, "win.restore-views", NULL, restore_views_action);
   gtk_widget_class_add_binding_action (widget_class, GDK_KEY_o, GDK_CONTROL_MASK, "win.open", NULL);
   gtk_widget_class_add_binding_action (widget_class, GDK_KEY_n, GDK_CONTROL_MASK, "win.new", NULL);
   gtk_widget_class_add_binding_action (widget_class, GDK_KEY_d, GDK_CONTROL_MASK, "win.derive", NULL);
   gtk_widget_class_add_binding_action (widget_class, GDK_KEY_i, GDK_CONTROL_MASK, "win.import", NULL);
+  gtk_widget_class_add_binding_action (widget_class, GDK_KEY_Escape, 0, "win.restore-views", NULL);
 }
 
 static void
@@ -1052,6 +1149,7 @@ sl_window_init (SlWindow *self)
   show_work (self, NULL);
   gtk_widget_action_set_enabled (GTK_WIDGET (self), "win.override", FALSE);
   gtk_widget_action_set_enabled (GTK_WIDGET (self), "win.clear-override", FALSE);
+  gtk_widget_action_set_enabled (GTK_WIDGET (self), "win.restore-views", FALSE);
 }
 
 SlWindow *

@@ -1,47 +1,17 @@
-/* cmd-figure.c: starledger-cli figure PROJECT hr|sky|parallax -o FILE [options] */
+/* cmd-figure.c: starledger-cli figure PROJECT hr|sky|parallax -o FILE [options]
+ *
+ * Only the options are read here: the figure itself (which stars, the
+ * drawing, the file) is src/plot/figure-job.c, which the window's Export
+ * Figure dialog uses too. */
 #include <glib/gi18n.h>
 #include <math.h>
 #include <stdio.h>
 #include <string.h>
 
 #include "cli.h"
-#include "hrd.h"
-#include "parallax-path.h"
-#include "sky.h"
+#include "figure-job.h"
 #include "sl-error.h"
 #include "units.h"
-
-typedef enum {
-  KIND_HR,
-  KIND_SKY,
-  KIND_PARALLAX,
-} FigureKind;
-
-/* What the drawing callback needs. */
-typedef struct {
-  FigureKind         kind;
-  const SlStarSet   *stars;
-  SlHrdOptions       hrd;
-  SlSkyOptions       sky;
-  SlParallaxOptions  parallax;
-  GPtrArray         *notes;
-} FigureJob;
-
-static gboolean
-draw_figure (SlFigure *fig, gpointer data, GError **error)
-{
-  FigureJob *job = data;
-
-  switch (job->kind)
-    {
-    case KIND_HR:
-      return sl_hrd_draw (fig, job->stars, &job->hrd, NULL, job->notes, error);
-    case KIND_SKY:
-      return sl_sky_draw (fig, job->stars, &job->sky, job->notes, error);
-    default:
-      return sl_parallax_draw (fig, job->stars, &job->parallax, job->notes, error);
-    }
-}
 
 /* --field RA,DEC,WIDTH with RA and DEC in degrees or sexagesimal. */
 static gboolean
@@ -64,30 +34,6 @@ parse_field (const char *text, SlSkyOptions *sky)
   sky->field = TRUE;
   return sl_parse_number (parts[2], &sky->field_deg, &problem) && sky->field_deg > 0 && sky->field_deg < 90
          && fabs (sky->centre_dec) <= 90.0;
-}
-
-/* An unknown --star (or, with --list, one not in the list) is an error,
- * not a silent no-op. */
-static gboolean
-check_stars_exist (const SlStarSet *stars, char **wanted, const char *project, const char *list,
-                   GError **error)
-{
-  g_autoptr (GHashTable) known = g_hash_table_new (g_str_hash, g_str_equal);
-
-  for (guint i = 0; i < stars->stars->len; i++)
-    g_hash_table_add (known, (gpointer) sl_star_set_get (stars, i)->designation);
-  for (guint i = 0; wanted && wanted[i]; i++)
-    if (!g_hash_table_contains (known, wanted[i]))
-      {
-        if (list)
-          g_set_error (error, SL_ERROR, SL_ERROR_UNKNOWN_NAME, _("%s: star '%s' is not in list '%s'"), project,
-                       wanted[i], list);
-        else
-          g_set_error (error, SL_ERROR, SL_ERROR_UNKNOWN_NAME, _("%s: no star '%s' in the project"), project,
-                       wanted[i]);
-        return FALSE;
-      }
-  return TRUE;
 }
 
 int
@@ -139,24 +85,15 @@ sl_cli_figure (int argc, char **argv)
                           "and lines in points; PDF and SVG carry the project and derivation run."),
                         entries);
   g_autoptr (SlProject) project = NULL;
-  g_autoptr (SlStarSet) stars = NULL;
   g_autoptr (GError) error = NULL;
   g_autoptr (GPtrArray) notes = g_ptr_array_new_with_free_func (g_free);
-  g_autofree char *subject = NULL;
-  SlFigureMetadata meta = { NULL, NULL, "Starledger" };
   SlFigureFormat format;
-  SlFigureStyle style;
-  FigureJob job = { 0 };
+  SlFigureKind kind;
+  g_auto (SlFigureJob) job = { 0 };
 
   if (!sl_cli_parse (context, "figure", &argc, &argv, 2))
     return SL_EXIT_USAGE;
-  if (strcmp (argv[2], "hr") == 0)
-    job.kind = KIND_HR, meta.title = _("Hertzsprung-Russell diagram");
-  else if (strcmp (argv[2], "sky") == 0)
-    job.kind = KIND_SKY, meta.title = _("Sky positions");
-  else if (strcmp (argv[2], "parallax") == 0)
-    job.kind = KIND_PARALLAX, meta.title = _("Annual parallax paths");
-  else
+  if (!sl_figure_kind_from_name (argv[2], &kind))
     return sl_cli_usage_error ("figure", _("'%s' is no figure: hr, sky or parallax"), argv[2]);
   if (output == NULL)
     return sl_cli_usage_error ("figure", _("-o FILE is required"));
@@ -165,19 +102,16 @@ sl_cli_figure (int argc, char **argv)
   else if (!sl_figure_format_from_path (output, &format))
     return sl_cli_usage_error ("figure", _("%s: the file name must end in .pdf, .svg or .png"), output);
 
-  sl_figure_style_init (&style);
-  if (size && !sl_figure_style_preset (&style, size))
+  sl_figure_job_init (&job, kind);
+  if (size && !sl_figure_style_preset (&job.style, size))
     return sl_cli_usage_error ("figure", _("--size %s: expected single or double"), size);
-  if (!sl_cli_parse_number_option (width, &style.width_mm, 10, 1000)
-      || !sl_cli_parse_number_option (height, &style.height_mm, 10, 1000)
-      || !sl_cli_parse_number_option (dpi, &style.dpi, 10, 2400)
-      || !sl_cli_parse_number_option (font, &style.font_pt, 3, 30))
+  if (!sl_cli_parse_number_option (width, &job.style.width_mm, 10, 1000)
+      || !sl_cli_parse_number_option (height, &job.style.height_mm, 10, 1000)
+      || !sl_cli_parse_number_option (dpi, &job.style.dpi, 10, 2400)
+      || !sl_cli_parse_number_option (font, &job.style.font_pt, 3, 30))
     return sl_cli_usage_error ("figure", _("sizes: width and height 10-1000 mm, dpi 10-2400, font 3-30 pt"));
-  style.grayscale = grayscale;
+  job.style.grayscale = grayscale;
 
-  sl_hrd_options_init (&job.hrd);
-  sl_sky_options_init (&job.sky);
-  sl_parallax_options_init (&job.parallax);
   if (plane && strcmp (plane, "theoretical") != 0 && strcmp (plane, "observational") != 0)
     return sl_cli_usage_error ("figure", _("--plane %s: expected theoretical or observational"), plane);
   if (plane && strcmp (plane, "observational") == 0)
@@ -196,51 +130,13 @@ sl_cli_figure (int argc, char **argv)
     return sl_cli_usage_error ("figure", _("a number option is out of range"));
   job.parallax.proper_motion = proper_motion;
   job.parallax.common_scale = common_scale;
-  job.hrd.highlight = job.sky.highlight = (const char *const *) stars_wanted;
+  sl_figure_job_set_stars (&job, (const char *const *) stars_wanted);
+  sl_figure_job_set_list (&job, list);
 
   project = sl_cli_open_project (argv[1]);
   if (project == NULL)
     return SL_EXIT_FAILURE;
-  /* The parallax figure draws only the chosen stars (none: it says how to
-   * choose them); the others draw every star and highlight the chosen.
-   * A list stands for every star, and the chosen must be in it. */
-  if (list != NULL)
-    {
-      stars = sl_star_set_load_list (project, list, &error);
-      if (stars == NULL || !check_stars_exist (stars, stars_wanted, argv[1], list, &error))
-        return sl_cli_fail (error);
-      if (job.kind == KIND_PARALLAX && stars_wanted != NULL)
-        {
-          g_clear_pointer (&stars, sl_star_set_free);
-          stars = sl_star_set_load (project, (const char *const *) stars_wanted, &error);
-        }
-    }
-  else if (job.kind == KIND_PARALLAX && stars_wanted == NULL)
-    {
-      static const char *const none[] = { NULL };
-
-      stars = sl_star_set_load (project, none, &error);
-    }
-  else if (job.kind == KIND_PARALLAX)
-    stars = sl_star_set_load (project, (const char *const *) stars_wanted, &error);
-  else
-    {
-      stars = sl_star_set_load (project, NULL, &error);
-      if (stars && !check_stars_exist (stars, stars_wanted, argv[1], NULL, &error))
-        return sl_cli_fail (error);
-    }
-  if (stars == NULL || error != NULL)
-    return sl_cli_fail (error);
-
-  if (list != NULL)
-    subject = g_strdup_printf (_("project %s, list %s, derivation run %" G_GINT64_FORMAT), argv[1], list,
-                               stars->run_id);
-  else
-    subject = g_strdup_printf (_("project %s, derivation run %" G_GINT64_FORMAT), argv[1], stars->run_id);
-  meta.subject = subject;
-  job.stars = stars;
-  job.notes = notes;
-  if (!sl_figure_write (output, format, &style, &meta, draw_figure, &job, &error))
+  if (!sl_figure_job_run (&job, project, output, format, NULL, notes, &error))
     return sl_cli_fail (error);
   for (guint i = 0; i < notes->len; i++)
     fprintf (stderr, "starledger-cli figure: %s\n", (const char *) notes->pdata[i]);

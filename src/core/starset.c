@@ -9,6 +9,9 @@
 #include "lists.h"
 #include "sl-error.h"
 
+/* Rows between two looks at the cancellable: a few milliseconds of work. */
+#define CANCEL_CHECK_ROWS 4096
+
 static double
 value_or_nan (const SlStarInputs *in, SlField f)
 {
@@ -81,7 +84,8 @@ derived_for (sqlite3_stmt *stmt, gint64 star_id, SlDerivedRow *row, gboolean *pe
 /* WANTED (designations) or MEMBERS (star ids, ascending) restrict the
  * stars loaded when not NULL. */
 static gboolean
-load_all (SlStarSet *set, SlProject *project, GHashTable *wanted, const GArray *members, GError **error)
+load_all (SlStarSet *set, SlProject *project, GHashTable *wanted, const GArray *members,
+          GCancellable *cancellable, GError **error)
 {
   g_autofree char *sql = sl_derived_select_sql ("ORDER BY star_id");
   g_autoptr (SlInputCursor) cursor = sl_input_cursor_new (project, 0, error);
@@ -91,14 +95,19 @@ load_all (SlStarSet *set, SlProject *project, GHashTable *wanted, const GArray *
   SlStarInputs in;
   GError *local = NULL;
   guint next_member = 0;
+  guint64 n_rows = 0;
 
   if (stmt == NULL)
     return FALSE;
   while (sl_input_cursor_next (cursor, &in, &local))
     {
-      const SlDerivedValues *v = derived_for (stmt, in.star_id, &row, &pending, &done);
+      const SlDerivedValues *v;
       SlPlotStar s;
       guint *slot = NULL;
+
+      if (++n_rows % CANCEL_CHECK_ROWS == 0 && g_cancellable_set_error_if_cancelled (cancellable, &local))
+        break;
+      v = derived_for (stmt, in.star_id, &row, &pending, &done);
 
       if (wanted && (slot = g_hash_table_lookup (wanted, in.designation)) == NULL)
         continue;
@@ -136,6 +145,13 @@ load_all (SlStarSet *set, SlProject *project, GHashTable *wanted, const GArray *
 SlStarSet *
 sl_star_set_load (SlProject *project, const char *const *designations, GError **error)
 {
+  return sl_star_set_load_full (project, designations, NULL, error);
+}
+
+SlStarSet *
+sl_star_set_load_full (SlProject *project, const char *const *designations, GCancellable *cancellable,
+                       GError **error)
+{
   g_autoptr (SlStarSet) set = g_new0 (SlStarSet, 1);
   g_autoptr (GHashTable) wanted = NULL;
   g_autofree guint *slots = NULL;
@@ -160,7 +176,7 @@ sl_star_set_load (SlProject *project, const char *const *designations, GError **
 
   if (!sl_project_exec (project, "BEGIN", error))
     return NULL;
-  if (!load_all (set, project, wanted, NULL, error))
+  if (!load_all (set, project, wanted, NULL, cancellable, error))
     {
       sl_project_rollback (project);
       return NULL;
@@ -180,6 +196,12 @@ sl_star_set_load (SlProject *project, const char *const *designations, GError **
 SlStarSet *
 sl_star_set_load_list (SlProject *project, const char *name, GError **error)
 {
+  return sl_star_set_load_list_full (project, name, NULL, error);
+}
+
+SlStarSet *
+sl_star_set_load_list_full (SlProject *project, const char *name, GCancellable *cancellable, GError **error)
+{
   g_autoptr (SlStarSet) set = g_new0 (SlStarSet, 1);
   g_autoptr (GArray) members = NULL;
   gboolean ok;
@@ -191,7 +213,7 @@ sl_star_set_load_list (SlProject *project, const char *name, GError **error)
   if (!sl_project_exec (project, "BEGIN", error))
     return NULL;
   members = sl_list_star_ids (project, name, error);
-  ok = members != NULL && load_all (set, project, NULL, members, error);
+  ok = members != NULL && load_all (set, project, NULL, members, cancellable, error);
   sl_project_rollback (project);
   return ok ? g_steal_pointer (&set) : NULL;
 }

@@ -4,6 +4,8 @@
  */
 #pragma once
 
+#include <gio/gio.h>
+
 #include "project.h"
 
 G_BEGIN_DECLS
@@ -38,6 +40,13 @@ SlStarSet *sl_star_set_load (SlProject *project, const char *const *designations
 /* Loads the stars of list NAME (lists.h), in star order; an unknown list
  * is an error naming the lists there are. */
 SlStarSet *sl_star_set_load_list (SlProject *project, const char *name, GError **error);
+/* The same, stopping with G_IO_ERROR_CANCELLED when CANCELLABLE (may be
+ * NULL) is cancelled: the window's long work checks it every few thousand
+ * rows, so Cancel answers at once even at a million stars. */
+SlStarSet *sl_star_set_load_full (SlProject *project, const char *const *designations,
+                                  GCancellable *cancellable, GError **error);
+SlStarSet *sl_star_set_load_list_full (SlProject *project, const char *name, GCancellable *cancellable,
+                                       GError **error);
 void       sl_star_set_free (SlStarSet *set);
 
 static inline SlPlotStar *

@@ -135,6 +135,65 @@ add_svg_metadata (GString *svg, const SlFigureMetadata *meta)
   g_string_free (insert, TRUE);
 }
 
+/* Cairo names the SVG groups and images of surfaces "surfaceN" and
+ * "imageN" after a counter of every surface the process ever made: the
+ * same figure came out with other names from the window (which draws on
+ * surfaces all the time) than from starledger-cli.  The names are
+ * renumbered 1, 2, ... in the counter's order, so the same figure gives
+ * the same bytes from any program. */
+#define SVG_SURFACE_NAME "(id=\"|href=\"#|url\\(#)(surface|image)([0-9]+)"
+
+static int
+compare_ids (gconstpointer a, gconstpointer b)
+{
+  guint64 x = *(const guint64 *) a, y = *(const guint64 *) b;
+
+  return x < y ? -1 : x > y;
+}
+
+static gboolean
+renumber_one (const GMatchInfo *match, GString *out, gpointer data)
+{
+  GArray *ids = data;
+  g_autofree char *prefix = g_match_info_fetch (match, 1);
+  g_autofree char *kind = g_match_info_fetch (match, 2);
+  g_autofree char *number = g_match_info_fetch (match, 3);
+  guint64 id = g_ascii_strtoull (number, NULL, 10);
+  guint rank = 0;
+
+  g_array_binary_search (ids, &id, compare_ids, &rank);
+  g_string_append_printf (out, "%s%s%u", prefix, kind, rank + 1);
+  return FALSE;
+}
+
+static void
+renumber_svg_surfaces (GString *svg)
+{
+  g_autoptr (GRegex) regex = g_regex_new (SVG_SURFACE_NAME, G_REGEX_OPTIMIZE, 0, NULL);
+  g_autoptr (GArray) ids = g_array_new (FALSE, FALSE, sizeof (guint64));
+  g_autoptr (GMatchInfo) match = NULL;
+  g_autofree char *renumbered = NULL;
+  guint distinct = 0;
+
+  g_regex_match (regex, svg->str, 0, &match);
+  while (g_match_info_matches (match))
+    {
+      g_autofree char *number = g_match_info_fetch (match, 3);
+      guint64 id = g_ascii_strtoull (number, NULL, 10);
+
+      g_array_append_val (ids, id);
+      g_match_info_next (match, NULL);
+    }
+  g_array_sort (ids, compare_ids);
+  for (guint i = 0; i < ids->len; i++)
+    if (distinct == 0 || g_array_index (ids, guint64, i) != g_array_index (ids, guint64, distinct - 1))
+      g_array_index (ids, guint64, distinct++) = g_array_index (ids, guint64, i);
+  g_array_set_size (ids, distinct);
+  renumbered = g_regex_replace_eval (regex, svg->str, svg->len, 0, 0, renumber_one, ids, NULL);
+  if (renumbered)
+    g_string_assign (svg, renumbered);
+}
+
 static cairo_surface_t *
 create_surface (SlFigureFormat format, const SlFigureStyle *style, double width_pt, double height_pt,
                 FILE *out, GString *svg)
@@ -214,6 +273,7 @@ sl_figure_write (const char *path, SlFigureFormat format, const SlFigureStyle *s
   cairo_surface_destroy (surface);
   if (ok && format == SL_FIGURE_FORMAT_SVG && status == CAIRO_STATUS_SUCCESS)
     {
+      renumber_svg_surfaces (svg);
       add_svg_metadata (svg, meta);
       fwrite (svg->str, 1, svg->len, out);
     }
