@@ -88,7 +88,7 @@ sl_cli_derive (int argc, char **argv)
     { "teff", 0, 0, G_OPTION_ARG_STRING, &teff,
       N_("Temperature calibration: flower (default; Flower 1996 with Torres 2010) or ballesteros"), N_("METHOD") },
     { "monte-carlo-below-snr", 0, 0, G_OPTION_ARG_STRING, &mc_below,
-      N_("With --errors linear, draw instead for stars whose parallax S/N is below S (default 5; 0: never)"),
+      N_("With --errors linear, draw instead for stars whose parallax S/N is below S (default 5)"),
       N_("S") },
     { "all", 0, 0, G_OPTION_ARG_NONE, &all, N_("Derive every star, not only those that need it"), NULL },
     { NULL }
