@@ -154,7 +154,7 @@ test_text_out_of_range (void)
     { SL_PARAM_RV, "0", "Extinction ratio R_V: expected a number greater than 0, not “0”" },
     { SL_PARAM_RV_ERR, "-0.1", "Error of R_V: expected a number of 0 or more, not “-0.1”" },
     { SL_PARAM_TEFF, "", "Temperature calibration: expected flower or ballesteros, not “”" },
-    { SL_PARAM_ERRORS, "mc:100", "Uncertainties: expected linear or mc, not “mc:100”" },
+    { SL_PARAM_ERRORS, "mc:100", "Error propagation: expected linear or mc, not “mc:100”" },
     { SL_PARAM_DRAWS, "9", "Monte Carlo draws: expected a whole number from 10 to 10000000, not “9”" },
     { SL_PARAM_DRAWS, "10000001", "Monte Carlo draws: expected a whole number from 10 to 10000000, not “10000001”" },
     { SL_PARAM_SEED, "-1", "Random seed: expected a whole number, not “-1”" },

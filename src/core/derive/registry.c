@@ -268,9 +268,9 @@ static const SlParamInfo param_table[SL_N_PARAMS] = {
       [SL_DISTANCE_INVERSE] = { "inverse", N_("Inverse parallax"),
                                 N_("1000 / parallax; only where the parallax signal-to-noise ratio is 5 or more."),
                                 "Bailer-Jones 2015, PASP 127, 994" },
-      [SL_DISTANCE_EDSD] = { "edsd", N_("Exponentially decreasing space density prior"),
-                             N_("The posterior's mode with its 68% highest-density interval; any parallax with an "
-                                "error."),
+      [SL_DISTANCE_EDSD] = { "edsd", N_("Space density prior"),
+                             N_("An exponentially decreasing space density prior: the posterior's mode with its "
+                                "68% highest-density interval; any parallax with an error."),
                              "Bailer-Jones 2015, PASP 127, 994; Bailer-Jones et al. 2018, AJ 156, 58" },
     } },
   [SL_PARAM_LENGTH_SCALE] = {
@@ -298,15 +298,17 @@ static const SlParamInfo param_table[SL_N_PARAMS] = {
     N_("How the intrinsic colour (B-V)0 becomes an effective temperature."), "",
     .n_choices = 2,
     .choices = {
-      [SL_TEFF_FLOWER_TORRES] = { "flower", N_("Flower (1996) as corrected by Torres (2010)"),
-                                  N_("A polynomial in (B-V)0 for -0.343 to 1.805 (about 2900 to 52 500 K)."),
+      [SL_TEFF_FLOWER_TORRES] = { "flower", N_("Flower–Torres"),
+                                  N_("Flower (1996) as corrected by Torres (2010): a polynomial in (B-V)0 for -0.343 "
+                                     "to 1.805 (about 2900 to 52 500 K)."),
                                   "Flower 1996, ApJ 469, 355; Torres 2010, AJ 140, 1158 (Table 2)" },
-      [SL_TEFF_BALLESTEROS] = { "ballesteros", N_("Ballesteros (2012)"),
-                                N_("From black-body colours, for (B-V)0 of 0.103 to 1.370 (about 9000 to 4000 K)."),
+      [SL_TEFF_BALLESTEROS] = { "ballesteros", N_("Ballesteros"),
+                                N_("Ballesteros (2012), from black-body colours: (B-V)0 of 0.103 to 1.370 (about "
+                                   "9000 to 4000 K)."),
                                 "Ballesteros 2012, EPL 97, 34008" },
     } },
   [SL_PARAM_ERRORS] = {
-    "errors", SL_PARAM_KIND_CHOICE, N_("Uncertainties"), "",
+    "errors", SL_PARAM_KIND_CHOICE, N_("Error propagation"), "",
     N_("How the measurement errors are carried to the derived values."), "",
     .n_choices = 2,
     .choices = {
