@@ -23,6 +23,7 @@
 #include "sl-catalogue-view.h"
 #include "sl-derive-dialog.h"
 #include "sl-plot-view.h"
+#include "sl-recent-projects.h"
 #include "sl-window.h"
 #include "summary.h"
 #include "test-util.h"
@@ -1220,11 +1221,106 @@ test_derive_dialog (void)
   sl_test_scratch_free (g_steal_pointer (&dir));
 }
 
+/* ------------------------------------------------------------------ */
+/* Recent projects                                                    */
+
+/* The titles of the rows under WIDGET, in order. */
+static void
+collect_row_titles (GtkWidget *widget, GPtrArray *titles)
+{
+  if (ADW_IS_ACTION_ROW (widget))
+    g_ptr_array_add (titles, (gpointer) adw_preferences_row_get_title (ADW_PREFERENCES_ROW (widget)));
+  for (GtkWidget *child = gtk_widget_get_first_child (widget); child; child = gtk_widget_get_next_sibling (child))
+    collect_row_titles (child, titles);
+}
+
+static GtkWidget *
+row_titled (GtkWidget *widget, const char *title)
+{
+  if (ADW_IS_ACTION_ROW (widget) && g_strcmp0 (adw_preferences_row_get_title (ADW_PREFERENCES_ROW (widget)), title) == 0)
+    return widget;
+  for (GtkWidget *child = gtk_widget_get_first_child (widget); child; child = gtk_widget_get_next_sibling (child))
+    {
+      GtkWidget *found = row_titled (child, title);
+
+      if (found)
+        return found;
+    }
+  return NULL;
+}
+
+/* Projects opened in one window are listed on the welcome page of the
+ * next, newest first, with their folder and when; one deleted since is
+ * not, nor the demo project; a click opens one.  Saved as
+ * gui-welcome.png. */
+static void
+test_welcome_recent (void)
+{
+  static const char *const names[] = { "north-field.starledger", "southern-targets.starledger", "gone.starledger" };
+  g_autofree char *dir = sl_test_scratch_new ();
+  g_autofree char *folder = g_path_get_basename (dir);
+  g_autoptr (GPtrArray) titles = g_ptr_array_new ();
+  g_autoptr (GError) error = NULL;
+  char *paths[G_N_ELEMENTS (names)];
+  SlWindow *opener, *welcome;
+  GtkWidget *recent, *row;
+
+  for (guint i = 0; i < G_N_ELEMENTS (names); i++)
+    {
+      g_autoptr (SlProject) project = NULL;
+
+      paths[i] = g_build_filename (dir, names[i], NULL);
+      project = sl_project_create (paths[i], &error);
+      g_assert_no_error (error);
+    }
+  opener = sl_window_new (GTK_APPLICATION (app));
+  for (guint i = 0; i < G_N_ELEMENTS (names); i++)
+    {
+      g_assert_true (sl_window_open_project (opener, paths[i], &error));
+      g_assert_no_error (error);
+      WAIT_UNTIL (!sl_window_is_loading (opener), LOAD_TIMEOUT_S, "a project to load");
+      /* The store keeps whole seconds: one each, so "newest" is defined. */
+      g_usleep (G_USEC_PER_SEC + 100000);
+    }
+  gtk_window_destroy (GTK_WINDOW (opener));
+  g_assert_cmpint (g_unlink (paths[2]), ==, 0);
+
+  welcome = sl_window_new (GTK_APPLICATION (app));
+  gtk_window_present (GTK_WINDOW (welcome));
+  PAINT (welcome);
+  g_assert_null (sl_window_get_project_path (welcome));
+  recent = find_descendant (GTK_WIDGET (welcome), SL_TYPE_RECENT_PROJECTS);
+  g_assert_nonnull (recent);
+  g_assert_true (gtk_widget_is_drawable (recent));
+  collect_row_titles (recent, titles);
+  g_assert_cmpuint (titles->len, ==, 2);
+  g_assert_cmpstr (titles->pdata[0], ==, "southern-targets.starledger");
+  g_assert_cmpstr (titles->pdata[1], ==, "north-field.starledger");
+  row = row_titled (recent, "north-field.starledger");
+  g_assert_nonnull (strstr (adw_action_row_get_subtitle (ADW_ACTION_ROW (row)), folder));
+  g_assert_nonnull (strstr (adw_action_row_get_subtitle (ADW_ACTION_ROW (row)), "opened today at "));
+  {
+    cairo_surface_t *picture = render_widget (GTK_WIDGET (welcome));
+
+    save_png (picture, "gui-welcome.png");
+    cairo_surface_destroy (picture);
+  }
+
+  g_signal_emit_by_name (row, "activate");
+  g_assert_cmpstr (sl_window_get_project_path (welcome), ==, paths[0]);
+  WAIT_UNTIL (!sl_window_is_loading (welcome), LOAD_TIMEOUT_S, "the project to load");
+  gtk_window_destroy (GTK_WINDOW (welcome));
+  for (guint i = 0; i < G_N_ELEMENTS (names); i++)
+    g_free (paths[i]);
+  sl_test_scratch_free (g_steal_pointer (&dir));
+}
+
 int
 main (int argc, char **argv)
 {
   g_autoptr (GError) error = NULL;
   char *own_cache;
+  char *own_data;
   int status;
 
   setlocale (LC_ALL, "");
@@ -1241,6 +1337,17 @@ main (int argc, char **argv)
     if (g_mkdtemp (own_cache) == NULL)
       g_error ("cannot make %s: %s", own_cache, g_strerror (errno));
     g_setenv ("XDG_CACHE_HOME", own_cache, TRUE);
+  }
+  /* Its own recent-files store too ($XDG_DATA_HOME/recently-used.xbel):
+   * the welcome page lists what this program opened, nothing else. */
+  {
+    const char *data = g_getenv ("XDG_DATA_HOME");
+
+    own_data = g_build_filename (data && *data ? data : g_get_tmp_dir (), "test-gui-XXXXXX", NULL);
+    g_mkdir_with_parents (data && *data ? data : g_get_tmp_dir (), 0700);
+    if (g_mkdtemp (own_data) == NULL)
+      g_error ("cannot make %s: %s", own_data, g_strerror (errno));
+    g_setenv ("XDG_DATA_HOME", own_data, TRUE);
   }
   /* The AT-SPI registry D-Bus would start for GTK's accessibility tree
    * writes a line to standard output, which is this program's TAP stream. */
@@ -1261,6 +1368,7 @@ main (int argc, char **argv)
   g_test_add_func ("/gui/about", test_about);
   g_test_add_func ("/gui/shortcuts", test_shortcuts);
   g_test_add_func ("/gui/derive/dialog", test_derive_dialog);
+  g_test_add_func ("/gui/welcome/recent-projects", test_welcome_recent);
   status = g_test_run ();
 
   if (demo)
@@ -1269,5 +1377,6 @@ main (int argc, char **argv)
     ;
   g_clear_object (&app);
   sl_test_scratch_free (own_cache);
+  sl_test_scratch_free (own_data);
   return status;
 }

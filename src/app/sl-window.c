@@ -27,6 +27,7 @@
 #include "sl-catalogue-view.h"
 #include "sl-derive-dialog.h"
 #include "sl-plot-view.h"
+#include "sl-recent-projects.h"
 #include "starset.h"
 #include "units.h"
 
@@ -353,12 +354,7 @@ sl_window_open_project (SlWindow *self, const char *path, GError **error)
   show_ledger (self, project);
   if (self->work_cancel == NULL)
     show_work (self, NULL);
-  {
-    g_autofree char *uri = g_filename_to_uri (path, NULL, NULL);
-
-    if (uri)
-      gtk_recent_manager_add_item (gtk_recent_manager_get_default (), uri);
-  }
+  sl_recent_projects_add (path);
   load_stars (self);
   return TRUE;
 }
@@ -501,6 +497,16 @@ new_action (GtkWidget *widget, const char *action, GVariant *parameter)
   gtk_file_chooser_set_current_name (GTK_FILE_CHOOSER (dialog), _("targets.starledger"));
   g_signal_connect (dialog, "response", G_CALLBACK (on_new_response), self);
   gtk_native_dialog_show (GTK_NATIVE_DIALOG (dialog));
+}
+
+/* A row of the welcome page's Recent Projects. */
+static void
+on_recent_project_activated (SlWindow *self, const char *path)
+{
+  g_autoptr (GError) error = NULL;
+
+  if (!sl_window_open_project (self, path, &error))
+    toast (self, error->message);
 }
 
 static void
@@ -1042,6 +1048,8 @@ sl_window_class_init (SlWindowClass *klass)
   gtk_widget_class_bind_template_child (widget_class, SlWindow, ledger_kind);
   gtk_widget_class_bind_template_child (widget_class, SlWindow, ledger_person);
   gtk_widget_class_bind_template_child (widget_class, SlWindow, ledger_view);
+  g_type_ensure (SL_TYPE_RECENT_PROJECTS);
+  gtk_widget_class_bind_template_callback (widget_class, on_recent_project_activated);
 
   /* Everything the window can do, in one place. */
   gtk_widget_class_install_action (widget_class, "win.open", NULL, open_action);
