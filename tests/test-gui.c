@@ -9,7 +9,8 @@
  * Pictures of the window, the About window and the shortcuts window are
  * rendered (GtkWidgetPaintable -> render node -> cairo) into the test
  * build directory: gui-snapshot.png, gui-selected.png, gui-about.png,
- * gui-shortcuts.png.  Look at them after changing what the window shows. */
+ * gui-shortcuts.png, gui-derive.png, gui-derive-lower.png, gui-welcome.png.
+ * Look at them after changing what the window shows. */
 #include <errno.h>
 #include <locale.h>
 #include <stdlib.h>
