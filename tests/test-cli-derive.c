@@ -372,6 +372,22 @@ test_verify_monte_carlo (void)
   sl_test_scratch_free (g_steal_pointer (&dir));
 }
 
+/* derive --help cites each method and the source of each default, from
+ * the same table as the window's Derive dialog (registry.c). */
+static void
+test_derive_help_cites_methods (void)
+{
+  g_auto (CliResult) help = { 0 };
+
+  run_cli (&help, "derive", "--help", NULL);
+  g_assert_cmpint (help.status, ==, 0);
+  assert_contains (help.out, "\nMethods, defaults and their sources:\n");
+  assert_contains (help.out, "\n  Distance method inverse (default): Bailer-Jones 2015, PASP 127, 994\n");
+  assert_contains (help.out, "\n  Temperature calibration ballesteros: Ballesteros 2012, EPL 97, 34008\n");
+  assert_contains (help.out, "\n  Prior length scale L, default 1350 pc: Astraatmadja & Bailer-Jones 2016, ApJ 833, 119\n");
+  assert_contains (help.out, "\n  Monte Carlo draws, default 1000: JCGM 101:2008 (GUM Supplement 1)\n");
+}
+
 /* --monte-carlo-below-snr moves the S/N below which a first-order run
  * draws: 0 only for negative parallaxes, a high one draws for more stars; the run records it. */
 static void
@@ -1099,6 +1115,7 @@ main (int argc, char **argv)
   g_test_add_func ("/cli-derive/verify/tampered-derived-value", test_verify_tampered_derived);
   g_test_add_func ("/cli-derive/verify/monte-carlo-seed", test_verify_monte_carlo);
   g_test_add_func ("/cli-derive/derive/monte-carlo-below-snr", test_derive_monte_carlo_below);
+  g_test_add_func ("/cli-derive/derive/help-cites-methods", test_derive_help_cites_methods);
   g_test_add_func ("/cli-derive/reimport/marks-stale", test_reimport_marks_stale);
   g_test_add_func ("/cli-derive/override/set-derive-clear", test_override_set_and_clear);
   g_test_add_func ("/cli-derive/override/refusals", test_override_refusals);

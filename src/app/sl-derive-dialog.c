@@ -215,6 +215,7 @@ entry_row (SlDeriveDialog *self, SlParam param)
   gtk_editable_set_alignment (GTK_EDITABLE (entry), 1.0);
   gtk_entry_set_input_purpose (GTK_ENTRY (entry), info->kind == SL_PARAM_KIND_COUNT ? GTK_INPUT_PURPOSE_DIGITS
                                                                                     : GTK_INPUT_PURPOSE_NUMBER);
+  gtk_entry_set_activates_default (GTK_ENTRY (entry), TRUE);
   gtk_widget_set_name (entry, info->name);
   g_object_set_data (G_OBJECT (entry), "sl-param", GUINT_TO_POINTER (param));
   g_signal_connect (entry, "changed", G_CALLBACK (on_entry_changed), self);

@@ -16,6 +16,37 @@ parse_number_param (const char *text, SlDeriveParams *params, SlParam param)
   return text == NULL || sl_param_from_text (params, param, text, NULL);
 }
 
+/* The end of --help: each method with its citation and each parameter's
+ * default with its source, from the table the window's Derive dialog
+ * shows (derive.h, SlParamInfo). */
+static char *
+methods_text (void)
+{
+  GString *text = g_string_new (_("Methods, defaults and their sources:"));
+  SlDeriveParams defaults;
+
+  sl_derive_params_init (&defaults);
+  for (SlParam p = 0; p < SL_N_PARAMS; p++)
+    {
+      const SlParamInfo *info = sl_param_info (p);
+      g_autofree char *value = sl_param_to_text (&defaults, p);
+
+      if (info->kind == SL_PARAM_KIND_CHOICE)
+        for (guint c = 0; c < info->n_choices; c++)
+          g_string_append_printf (text, "\n  %s %s%s: %s", _(info->label), info->choices[c].name,
+                                  c == sl_param_get_choice (&defaults, p) ? _(" (default)") : "",
+                                  info->choices[c].citation);
+      else
+        {
+          g_string_append_printf (text, "\n  %s, %s %s%s%s", _(info->label), _("default"), value,
+                                  *info->unit ? " " : "", info->unit);
+          if (*info->citation)
+            g_string_append_printf (text, ": %s", info->citation);
+        }
+    }
+  return g_string_free (text, FALSE);
+}
+
 /* --distance inverse | edsd[:L=PC] */
 static gboolean
 parse_distance (const char *text, SlDeriveParams *params)
@@ -93,13 +124,17 @@ sl_cli_derive (int argc, char **argv)
     { "all", 0, 0, G_OPTION_ARG_NONE, &all, N_("Derive every star, not only those that need it"), NULL },
     { NULL }
   };
+  g_autofree char *methods = methods_text ();
+  g_autofree char *description =
+    g_strdup_printf ("%s\n\n%s",
+                     _("Derives every star that has no derived values yet, whose inputs or hand-set values "
+                       "changed, or that was derived with other parameters (--all: every star). Each run "
+                       "is recorded with its parameters and method versions; 'explain' shows how any value "
+                       "was obtained and 'verify' recomputes them."),
+                     methods);
   g_autoptr (GOptionContext) context =
     sl_cli_context_new ("derive", _("PROJECT"), _("Derive physical quantities with their uncertainties."),
-                        _("Derives every star that has no derived values yet, whose inputs or hand-set values "
-                          "changed, or that was derived with other parameters (--all: every star). Each run "
-                          "is recorded with its parameters and method versions; 'explain' shows how any value "
-                          "was obtained and 'verify' recomputes them."),
-                        entries);
+                        description, entries);
   g_autoptr (SlProject) project = NULL;
   g_autoptr (GError) error = NULL;
   g_autofree char *described = NULL;
