@@ -221,6 +221,7 @@ test_derive_bad_options (void)
     { "--distance", "foo" }, { "--distance", "edsd:L=-5" }, { "--errors", "mc:x" }, { "--errors", "mc:0" },
     { "--seed", "-1" }, { "--seed", "1.5" }, { "--teff", "nope" }, { "--extinction-ratio", "0" },
     { "--extinction-ratio-error", "-0.1" }, { "--parallax-zero-point", "0,02" },
+    { "--monte-carlo-below-snr", "-1" },
   };
   g_autofree char *dir = sl_test_scratch_new ();
   g_autofree char *project = demo_project (dir, NULL, FALSE);
@@ -368,6 +369,55 @@ test_verify_monte_carlo (void)
   g_assert_cmpstr (export5.out, !=, export6.out);
   run_cli (&verify6, "verify", project, NULL);
   g_assert_cmpint (verify6.status, ==, 0);
+  sl_test_scratch_free (g_steal_pointer (&dir));
+}
+
+/* derive --help cites each method and the source of each default, from
+ * the same table as the window's Derive dialog (registry.c). */
+static void
+test_derive_help_cites_methods (void)
+{
+  g_auto (CliResult) help = { 0 };
+
+  run_cli (&help, "derive", "--help", NULL);
+  g_assert_cmpint (help.status, ==, 0);
+  assert_contains (help.out, "\nMethods, defaults and their sources:\n");
+  assert_contains (help.out, "\n  Distance method inverse (default): Bailer-Jones 2015, PASP 127, 994\n");
+  assert_contains (help.out, "\n  Temperature calibration ballesteros: Ballesteros 2012, EPL 97, 34008\n");
+  assert_contains (help.out, "\n  Prior length scale L, default 1350 pc: Astraatmadja & Bailer-Jones 2016, ApJ 833, 119\n");
+  assert_contains (help.out, "\n  Monte Carlo draws, default 1000: JCGM 101:2008 (GUM Supplement 1)\n");
+}
+
+/* --monte-carlo-below-snr moves the S/N below which a first-order run
+ * draws: 0 only for negative parallaxes, a high one draws for more stars; the run records it. */
+static void
+test_derive_monte_carlo_below (void)
+{
+  g_autofree char *dir = sl_test_scratch_new ();
+  g_autofree char *project = demo_project (dir, NULL, FALSE);
+  g_auto (CliResult) edsd = { 0 };
+  g_auto (CliResult) never = { 0 };
+  g_auto (CliResult) more = { 0 };
+  gint64 by_default, at_50;
+
+  /* The prior gives low-S/N stars a distance, so they are drawn. */
+  run_cli (&edsd, "derive", project, "--distance", "edsd", NULL);
+  g_assert_cmpint (edsd.status, ==, 0);
+  by_default = sql_int (project, "SELECT count(*) FROM derived WHERE monte_carlo = 1");
+  g_assert_cmpint (by_default, >, 0);
+  run_cli (&never, "derive", project, "--distance", "edsd", "--monte-carlo-below-snr", "0", NULL);
+  g_assert_cmpint (never.status, ==, 0);
+  assert_contains (never.out, "below parallax S/N 0)");
+  /* Only negative parallaxes are below 0. */
+  g_assert_cmpint (sql_int (project, "SELECT count(*) FROM derived WHERE monte_carlo = 1"), ==,
+                   sql_int (project, "SELECT count(*) FROM derived WHERE plx_snr < 0 AND dist IS NOT NULL"));
+  g_assert_cmpint (sql_int (project, "SELECT count(*) FROM derived WHERE monte_carlo = 1"), <, by_default);
+  run_cli (&more, "derive", project, "--distance", "edsd", "--monte-carlo-below-snr", "50", NULL);
+  g_assert_cmpint (more.status, ==, 0);
+  at_50 = sql_int (project, "SELECT count(*) FROM derived WHERE monte_carlo = 1");
+  g_assert_cmpint (at_50, >, by_default);
+  g_assert_cmpint (sql_int (project, "SELECT count(*) FROM derivation_runs WHERE parameters LIKE '%mc_below_snr=50%'"),
+                   ==, 1);
   sl_test_scratch_free (g_steal_pointer (&dir));
 }
 
@@ -1064,6 +1114,8 @@ main (int argc, char **argv)
   g_test_add_func ("/cli-derive/verify/tampered-measurement", test_verify_tampered_measurement);
   g_test_add_func ("/cli-derive/verify/tampered-derived-value", test_verify_tampered_derived);
   g_test_add_func ("/cli-derive/verify/monte-carlo-seed", test_verify_monte_carlo);
+  g_test_add_func ("/cli-derive/derive/monte-carlo-below-snr", test_derive_monte_carlo_below);
+  g_test_add_func ("/cli-derive/derive/help-cites-methods", test_derive_help_cites_methods);
   g_test_add_func ("/cli-derive/reimport/marks-stale", test_reimport_marks_stale);
   g_test_add_func ("/cli-derive/override/set-derive-clear", test_override_set_and_clear);
   g_test_add_func ("/cli-derive/override/refusals", test_override_refusals);

@@ -9,13 +9,15 @@
  * Pictures of the window, the About window and the shortcuts window are
  * rendered (GtkWidgetPaintable -> render node -> cairo) into the test
  * build directory: gui-snapshot.png, gui-selected.png, gui-about.png,
- * gui-shortcuts.png.  Look at them after changing what the window shows. */
+ * gui-shortcuts.png, gui-derive.png, gui-derive-lower.png, gui-welcome.png.
+ * Look at them after changing what the window shows. */
 #include <errno.h>
 #include <locale.h>
 #include <stdlib.h>
 #include <string.h>
 
 #include "derivation.h"
+#include "export.h"
 #include "ledger.h"
 #include "lists.h"
 #include "sl-application.h"
@@ -23,7 +25,9 @@
 #include "sl-catalogue-view.h"
 #include "sl-import-dialog.h"
 #include "sl-figure-dialog.h"
+#include "sl-derive-dialog.h"
 #include "sl-plot-view.h"
+#include "sl-recent-projects.h"
 #include "sl-window.h"
 #include "summary.h"
 #include "test-util.h"
@@ -558,7 +562,7 @@ test_actions_derive (void)
   g_assert_cmpstr (before->action, ==, "override");
 
   g_assert_true (gtk_widget_get_sensitive (action_button (GTK_WIDGET (demo), "win.derive")));
-  g_assert_true (gtk_widget_activate_action (GTK_WIDGET (demo), "win.derive", NULL));
+  g_assert_true (gtk_widget_activate_action (GTK_WIDGET (demo), "win.derive-now", NULL));
   g_assert_true (sl_window_is_loading (demo));
   /* Long work shows its progress and a way to cancel it. */
   g_assert_true (gtk_revealer_get_reveal_child (GTK_REVEALER (find_descendant (GTK_WIDGET (demo), GTK_TYPE_REVEALER))));
@@ -1260,8 +1264,8 @@ test_shortcuts (void)
 /* ------------------------------------------------------------------ */
 /* Figure export and maximised views                                  */
 
-/* The widget below ROOT named NAME (the Export Figure dialog names its
- * option widgets), or NULL. */
+/* The widget below ROOT named NAME (gtk_widget_set_name; the dialogs name
+ * their option widgets), depth first, or NULL. */
 static GtkWidget *
 find_named (GtkWidget *root, const char *name)
 {
@@ -1634,11 +1638,321 @@ test_maximize_view (void)
   g_assert_cmpint (gtk_paned_get_position (lower), ==, lower_position);
 }
 
+/* ------------------------------------------------------------------ */
+/* The Derive dialog                                                  */
+
+static SlDeriveDialog *
+open_derive_dialog (void)
+{
+  g_assert_true (gtk_widget_activate_action (GTK_WIDGET (demo), "win.derive", NULL));
+  return SL_DERIVE_DIALOG (find_toplevel (SL_TYPE_DERIVE_DIALOG));
+}
+
+static void
+set_entry (SlDeriveDialog *dialog, SlParam param, const char *text)
+{
+  GtkWidget *entry = find_named (GTK_WIDGET (dialog), sl_param_info (param)->name);
+
+  g_assert_true (GTK_IS_ENTRY (entry));
+  gtk_editable_set_text (GTK_EDITABLE (entry), text);
+}
+
+static void
+derive_set_choice (SlDeriveDialog *dialog, SlParam param, guint choice)
+{
+  GtkWidget *row = find_named (GTK_WIDGET (dialog), sl_param_info (param)->name);
+
+  g_assert_true (ADW_IS_COMBO_ROW (row));
+  adw_combo_row_set_selected (ADW_COMBO_ROW (row), choice);
+}
+
+/* Every row of DIALOG shows what PARAMS holds. */
+static void
+assert_dialog_shows (SlDeriveDialog *dialog, const SlDeriveParams *params)
+{
+  for (SlParam p = 0; p < SL_N_PARAMS; p++)
+    {
+      const SlParamInfo *info = sl_param_info (p);
+      GtkWidget *widget = find_named (GTK_WIDGET (dialog), info->name);
+
+      g_assert_nonnull (widget);
+      if (info->kind == SL_PARAM_KIND_CHOICE)
+        g_assert_cmpuint (adw_combo_row_get_selected (ADW_COMBO_ROW (widget)), ==, sl_param_get_choice (params, p));
+      else
+        {
+          g_autofree char *want = sl_param_to_text (params, p);
+
+          g_assert_cmpstr (gtk_editable_get_text (GTK_EDITABLE (widget)), ==, want);
+        }
+    }
+}
+
+static SlDeriveParams
+latest_params (const char *path, gint64 *run_id)
+{
+  g_autoptr (GError) error = NULL;
+  g_autoptr (SlProject) project = sl_project_open (path, &error);
+  SlDeriveParams params;
+
+  g_assert_no_error (error);
+  g_assert_true (sl_derivation_latest_params (project, &params, run_id, &error));
+  g_assert_no_error (error);
+  return params;
+}
+
+/* The whole table (sl_export, every column) of the project at PATH. */
+static char *
+export_table (const char *path, const char *dir, const char *name)
+{
+  g_autoptr (GError) error = NULL;
+  g_autoptr (SlProject) project = sl_project_open (path, &error);
+  g_autofree char *csv = g_build_filename (dir, name, NULL);
+  SlExportOptions options = { SL_EXPORT_CSV, NULL, NULL, NULL };
+  char *text = NULL;
+
+  g_assert_no_error (error);
+  g_assert_cmpint (sl_export (project, csv, &options, &error), >=, DEMO_STARS);
+  g_assert_no_error (error);
+  g_assert_true (g_file_get_contents (csv, &text, NULL, NULL));
+  return text;
+}
+
+/* Ctrl+D's dialog starts from the latest run's parameters; a refused
+ * number holds Derive back and says why; EDSD with L = 800 pc and Monte
+ * Carlo with 200 draws and seed 42 are recorded as the newest run
+ * exactly, give the values the core gives with the same parameters, and
+ * are what the dialog shows when opened again.  Saved as gui-derive.png. */
+static void
+test_derive_dialog (void)
+{
+  g_autofree char *path = demo_path ();
+  g_autofree char *dir = sl_test_scratch_new ();
+  g_autofree char *copy = g_build_filename (dir, "copy.starledger", NULL);
+  g_autofree char *before = NULL;
+  g_autofree char *after = NULL;
+  g_autofree char *by_core = NULL;
+  g_autoptr (GError) error = NULL;
+  SlDeriveParams start, want, got;
+  SlDeriveDialog *dialog;
+  GtkWidget *derive, *length;
+  gint64 run_before, run_after;
+
+  ENSURE_DEMO ();
+  WAIT_UNTIL (!sl_window_is_loading (demo), LOAD_TIMEOUT_S, "the window to be idle");
+  start = latest_params (path, &run_before);
+  g_assert_cmpint (run_before, >, 0);
+  before = export_table (path, dir, "before.csv");
+  {
+    g_autoptr (SlProject) project = sl_project_open (path, &error);
+    g_autofree char *sql = g_strdup_printf ("VACUUM INTO '%s'", copy);
+
+    g_assert_no_error (error);
+    g_assert_cmpint (sqlite3_exec (sl_project_db (project), sql, NULL, NULL, NULL), ==, SQLITE_OK);
+  }
+
+  dialog = open_derive_dialog ();
+  g_assert_nonnull (dialog);
+  g_assert_true (gtk_window_get_modal (GTK_WINDOW (dialog)));
+  g_assert_true (gtk_window_get_transient_for (GTK_WINDOW (dialog)) == GTK_WINDOW (demo));
+  assert_dialog_shows (dialog, &start);
+  derive = find_named (GTK_WIDGET (dialog), "derive");
+  g_assert_true (gtk_widget_get_sensitive (derive));
+
+  /* A number the core refuses: marked, explained, and Derive waits. */
+  derive_set_choice (dialog, SL_PARAM_DISTANCE, SL_DISTANCE_EDSD);
+  set_entry (dialog, SL_PARAM_LENGTH_SCALE, "-5");
+  length = find_named (GTK_WIDGET (dialog), "length_scale_pc");
+  g_assert_true (gtk_widget_has_css_class (length, "error"));
+  g_assert_false (gtk_widget_get_sensitive (derive));
+  {
+    GtkWidget *row = gtk_widget_get_ancestor (length, ADW_TYPE_ACTION_ROW);
+
+    g_assert_cmpstr (adw_action_row_get_subtitle (ADW_ACTION_ROW (row)), ==,
+                     "Prior length scale L: expected a number greater than 0, not “-5”");
+  }
+  set_entry (dialog, SL_PARAM_LENGTH_SCALE, "800");
+  g_assert_false (gtk_widget_has_css_class (length, "error"));
+  g_assert_true (gtk_widget_get_sensitive (derive));
+  derive_set_choice (dialog, SL_PARAM_ERRORS, SL_ERRORS_MONTE_CARLO);
+  set_entry (dialog, SL_PARAM_DRAWS, "200");
+  set_entry (dialog, SL_PARAM_SEED, "42");
+  /* The row of the temperature calibration cites the chosen method. */
+  {
+    GtkWidget *teff = find_named (GTK_WIDGET (dialog), "teff");
+
+    g_assert_nonnull (strstr (adw_action_row_get_subtitle (ADW_ACTION_ROW (teff)), "Torres 2010, AJ 140, 1158"));
+    derive_set_choice (dialog, SL_PARAM_TEFF, SL_TEFF_BALLESTEROS);
+    g_assert_nonnull (strstr (adw_action_row_get_subtitle (ADW_ACTION_ROW (teff)), "Ballesteros 2012, EPL 97, 34008"));
+    derive_set_choice (dialog, SL_PARAM_TEFF, SL_TEFF_FLOWER_TORRES);
+  }
+  PAINT (dialog);
+  {
+    cairo_surface_t *picture = render_widget (GTK_WIDGET (dialog));
+
+    save_png (picture, "gui-derive.png");
+    cairo_surface_destroy (picture);
+  }
+  /* And its lower half: uncertainties, stars, Reset. */
+  {
+    GtkScrolledWindow *scrolled = GTK_SCROLLED_WINDOW (find_descendant (GTK_WIDGET (dialog), GTK_TYPE_SCROLLED_WINDOW));
+    GtkAdjustment *adjustment = gtk_scrolled_window_get_vadjustment (scrolled);
+    cairo_surface_t *picture;
+
+    gtk_adjustment_set_value (adjustment, gtk_adjustment_get_upper (adjustment));
+    PAINT (dialog);
+    picture = render_widget (GTK_WIDGET (dialog));
+    save_png (picture, "gui-derive-lower.png");
+    cairo_surface_destroy (picture);
+  }
+
+  want = start;
+  want.distance = SL_DISTANCE_EDSD;
+  want.length_scale_pc = 800.0;
+  want.errors = SL_ERRORS_MONTE_CARLO;
+  want.draws = 200;
+  want.seed = 42;
+  g_signal_emit_by_name (derive, "clicked");
+  g_assert_null (find_toplevel (SL_TYPE_DERIVE_DIALOG));
+  g_assert_true (sl_window_is_working (demo));
+  WAIT_UNTIL (!sl_window_is_loading (demo), LOAD_TIMEOUT_S, "the derivation and the reload");
+
+  got = latest_params (path, &run_after);
+  g_assert_cmpint (run_after, >, run_before);
+  g_assert_cmpmem (&got, sizeof got, &want, sizeof want);
+  after = export_table (path, dir, "after.csv");
+  g_assert_cmpstr (after, !=, before);
+  {
+    g_autoptr (SlProject) project = sl_project_open (copy, &error);
+    SlDeriveReport report;
+
+    g_assert_no_error (error);
+    g_assert_true (sl_derivation_run (project, &want, FALSE, NULL, NULL, NULL, &report, &error));
+    g_assert_no_error (error);
+    g_assert_cmpuint (report.computed, >=, DEMO_STARS);
+  }
+  by_core = export_table (copy, dir, "core.csv");
+  g_assert_cmpstr (after, ==, by_core);
+
+  /* Opened again: the choices of the run just made; Reset, then Cancel
+   * changes nothing. */
+  dialog = open_derive_dialog ();
+  g_assert_nonnull (dialog);
+  assert_dialog_shows (dialog, &want);
+  g_signal_emit_by_name (find_named (GTK_WIDGET (dialog), "reset"), "clicked");
+  {
+    SlDeriveParams defaults;
+
+    sl_derive_params_init (&defaults);
+    assert_dialog_shows (dialog, &defaults);
+  }
+  gtk_window_close (GTK_WINDOW (dialog));
+  WAIT_UNTIL (find_toplevel (SL_TYPE_DERIVE_DIALOG) == NULL, FRAME_TIMEOUT_S, "the dialog to close");
+  g_assert_false (sl_window_is_working (demo));
+  latest_params (path, &run_before);
+  g_assert_cmpint (run_before, ==, run_after);
+  sl_test_scratch_free (g_steal_pointer (&dir));
+}
+
+/* ------------------------------------------------------------------ */
+/* Recent projects                                                    */
+
+/* The titles of the rows under WIDGET, in order. */
+static void
+collect_row_titles (GtkWidget *widget, GPtrArray *titles)
+{
+  if (ADW_IS_ACTION_ROW (widget))
+    g_ptr_array_add (titles, (gpointer) adw_preferences_row_get_title (ADW_PREFERENCES_ROW (widget)));
+  for (GtkWidget *child = gtk_widget_get_first_child (widget); child; child = gtk_widget_get_next_sibling (child))
+    collect_row_titles (child, titles);
+}
+
+static GtkWidget *
+row_titled (GtkWidget *widget, const char *title)
+{
+  if (ADW_IS_ACTION_ROW (widget) && g_strcmp0 (adw_preferences_row_get_title (ADW_PREFERENCES_ROW (widget)), title) == 0)
+    return widget;
+  for (GtkWidget *child = gtk_widget_get_first_child (widget); child; child = gtk_widget_get_next_sibling (child))
+    {
+      GtkWidget *found = row_titled (child, title);
+
+      if (found)
+        return found;
+    }
+  return NULL;
+}
+
+/* Projects opened in one window are listed on the welcome page of the
+ * next, newest first, with their folder and when; one deleted since is
+ * not, nor the demo project; a click opens one.  Saved as
+ * gui-welcome.png. */
+static void
+test_welcome_recent (void)
+{
+  static const char *const names[] = { "north-field.starledger", "southern-targets.starledger", "gone.starledger" };
+  g_autofree char *dir = sl_test_scratch_new ();
+  g_autofree char *folder = g_path_get_basename (dir);
+  g_autoptr (GPtrArray) titles = g_ptr_array_new ();
+  g_autoptr (GError) error = NULL;
+  char *paths[G_N_ELEMENTS (names)];
+  SlWindow *opener, *welcome;
+  GtkWidget *recent, *row;
+
+  for (guint i = 0; i < G_N_ELEMENTS (names); i++)
+    {
+      g_autoptr (SlProject) project = NULL;
+
+      paths[i] = g_build_filename (dir, names[i], NULL);
+      project = sl_project_create (paths[i], &error);
+      g_assert_no_error (error);
+    }
+  opener = sl_window_new (GTK_APPLICATION (app));
+  for (guint i = 0; i < G_N_ELEMENTS (names); i++)
+    {
+      g_assert_true (sl_window_open_project (opener, paths[i], &error));
+      g_assert_no_error (error);
+      WAIT_UNTIL (!sl_window_is_loading (opener), LOAD_TIMEOUT_S, "a project to load");
+      /* The store keeps whole seconds: one each, so "newest" is defined. */
+      g_usleep (G_USEC_PER_SEC + 100000);
+    }
+  gtk_window_destroy (GTK_WINDOW (opener));
+  g_assert_cmpint (g_unlink (paths[2]), ==, 0);
+
+  welcome = sl_window_new (GTK_APPLICATION (app));
+  gtk_window_present (GTK_WINDOW (welcome));
+  PAINT (welcome);
+  g_assert_null (sl_window_get_project_path (welcome));
+  recent = find_descendant (GTK_WIDGET (welcome), SL_TYPE_RECENT_PROJECTS);
+  g_assert_nonnull (recent);
+  g_assert_true (gtk_widget_is_drawable (recent));
+  collect_row_titles (recent, titles);
+  g_assert_cmpuint (titles->len, ==, 2);
+  g_assert_cmpstr (titles->pdata[0], ==, "southern-targets.starledger");
+  g_assert_cmpstr (titles->pdata[1], ==, "north-field.starledger");
+  row = row_titled (recent, "north-field.starledger");
+  g_assert_nonnull (strstr (adw_action_row_get_subtitle (ADW_ACTION_ROW (row)), folder));
+  g_assert_nonnull (strstr (adw_action_row_get_subtitle (ADW_ACTION_ROW (row)), "opened today at "));
+  {
+    cairo_surface_t *picture = render_widget (GTK_WIDGET (welcome));
+
+    save_png (picture, "gui-welcome.png");
+    cairo_surface_destroy (picture);
+  }
+
+  g_signal_emit_by_name (row, "activate");
+  g_assert_cmpstr (sl_window_get_project_path (welcome), ==, paths[0]);
+  WAIT_UNTIL (!sl_window_is_loading (welcome), LOAD_TIMEOUT_S, "the project to load");
+  gtk_window_destroy (GTK_WINDOW (welcome));
+  for (guint i = 0; i < G_N_ELEMENTS (names); i++)
+    g_free (paths[i]);
+  sl_test_scratch_free (g_steal_pointer (&dir));
+}
+
 int
 main (int argc, char **argv)
 {
   g_autoptr (GError) error = NULL;
   char *own_cache;
+  char *own_data;
   int status;
 
   setlocale (LC_ALL, "");
@@ -1655,6 +1969,17 @@ main (int argc, char **argv)
     if (g_mkdtemp (own_cache) == NULL)
       g_error ("cannot make %s: %s", own_cache, g_strerror (errno));
     g_setenv ("XDG_CACHE_HOME", own_cache, TRUE);
+  }
+  /* Its own recent-files store too ($XDG_DATA_HOME/recently-used.xbel):
+   * the welcome page lists what this program opened, nothing else. */
+  {
+    const char *data = g_getenv ("XDG_DATA_HOME");
+
+    own_data = g_build_filename (data && *data ? data : g_get_tmp_dir (), "test-gui-XXXXXX", NULL);
+    g_mkdir_with_parents (data && *data ? data : g_get_tmp_dir (), 0700);
+    if (g_mkdtemp (own_data) == NULL)
+      g_error ("cannot make %s: %s", own_data, g_strerror (errno));
+    g_setenv ("XDG_DATA_HOME", own_data, TRUE);
   }
   /* The AT-SPI registry D-Bus would start for GTK's accessibility tree
    * writes a line to standard output, which is this program's TAP stream. */
@@ -1680,6 +2005,8 @@ main (int argc, char **argv)
   g_test_add_func ("/gui/figure/export", test_figure_export);
   g_test_add_func ("/gui/figure/export-refused", test_figure_export_refused);
   g_test_add_func ("/gui/views/maximize", test_maximize_view);
+  g_test_add_func ("/gui/derive/dialog", test_derive_dialog);
+  g_test_add_func ("/gui/welcome/recent-projects", test_welcome_recent);
   status = g_test_run ();
 
   if (demo)
@@ -1688,5 +2015,6 @@ main (int argc, char **argv)
     ;
   g_clear_object (&app);
   sl_test_scratch_free (own_cache);
+  sl_test_scratch_free (own_data);
   return status;
 }

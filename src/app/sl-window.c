@@ -26,9 +26,11 @@
 #include "ledger.h"
 #include "sl-application.h"
 #include "sl-catalogue-view.h"
-#include "sl-import-dialog.h"
+#include "sl-derive-dialog.h"
 #include "sl-figure-dialog.h"
+#include "sl-import-dialog.h"
 #include "sl-plot-view.h"
+#include "sl-recent-projects.h"
 #include "sl-view-pane.h"
 #include "starset.h"
 #include "units.h"
@@ -360,12 +362,7 @@ sl_window_open_project (SlWindow *self, const char *path, GError **error)
   show_ledger (self, project);
   if (self->work_cancel == NULL)
     show_work (self, NULL);
-  {
-    g_autofree char *uri = g_filename_to_uri (path, NULL, NULL);
-
-    if (uri)
-      gtk_recent_manager_add_item (gtk_recent_manager_get_default (), uri);
-  }
+  sl_recent_projects_add (path);
   load_stars (self);
   return TRUE;
 }
@@ -510,6 +507,16 @@ new_action (GtkWidget *widget, const char *action, GVariant *parameter)
   gtk_native_dialog_show (GTK_NATIVE_DIALOG (dialog));
 }
 
+/* A row of the welcome page's Recent Projects. */
+static void
+on_recent_project_activated (SlWindow *self, const char *path)
+{
+  g_autoptr (GError) error = NULL;
+
+  if (!sl_window_open_project (self, path, &error))
+    toast (self, error->message);
+}
+
 static void
 open_demo_action (GtkWidget *widget, const char *action, GVariant *parameter)
 {
@@ -564,7 +571,7 @@ sl_window_report_progress (double fraction, gpointer window)
 }
 
 /* While a job runs, nothing else that writes the project may start. */
-static const char *const work_actions[] = { "win.derive", "win.import", NULL };
+static const char *const work_actions[] = { "win.derive", "win.derive-now", "win.import", NULL };
 
 static void
 show_work (SlWindow *self, const char *what)
@@ -626,18 +633,35 @@ sl_window_is_working (SlWindow *self)
   return self->work_cancel != NULL;
 }
 
+/* Derive: the parameters come from the Derive dialog, or (derive-now,
+ * after a value was set by hand) from the project's latest run. */
+typedef struct {
+  char           *project;
+  SlDeriveParams  params;
+  gboolean        all;
+} DeriveJob;
+
+static void
+derive_job_free (gpointer data)
+{
+  DeriveJob *job = data;
+
+  g_free (job->project);
+  g_free (job);
+}
+
 static void
 derive_thread (GTask *task, gpointer source, gpointer task_data, GCancellable *cancellable)
 {
+  DeriveJob *job = task_data;
   g_autoptr (SlProject) project = NULL;
   SlDeriveReport *report = g_new0 (SlDeriveReport, 1);
-  SlDeriveParams params;
   GError *error = NULL;
 
-  sl_derive_params_init (&params);
-  project = sl_project_open (task_data, &error);
+  project = sl_project_open (job->project, &error);
   if (project
-      && sl_derivation_run (project, &params, FALSE, cancellable, sl_window_report_progress, source, report, &error))
+      && sl_derivation_run (project, &job->params, job->all, cancellable, sl_window_report_progress, source, report,
+                            &error))
     g_task_return_pointer (task, report, g_free);
   else
     {
@@ -669,6 +693,22 @@ on_derived (GObject *source, GAsyncResult *result, gpointer user_data)
   reload (self);
 }
 
+gboolean
+sl_window_derive (SlWindow *self, const SlDeriveParams *params, gboolean all)
+{
+  DeriveJob *job;
+
+  g_return_val_if_fail (SL_IS_WINDOW (self), FALSE);
+  g_return_val_if_fail (params != NULL, FALSE);
+  if (self->path == NULL)
+    return FALSE;
+  job = g_new0 (DeriveJob, 1);
+  job->project = g_strdup (self->path);
+  job->params = *params;
+  job->all = all;
+  return sl_window_run_work (self, _("Deriving…"), derive_thread, job, derive_job_free, on_derived, NULL);
+}
+
 static void
 derive_action (GtkWidget *widget, const char *action, GVariant *parameter)
 {
@@ -676,7 +716,26 @@ derive_action (GtkWidget *widget, const char *action, GVariant *parameter)
 
   if (self->path == NULL)
     return;
-  sl_window_run_work (self, _("Deriving…"), derive_thread, g_strdup (self->path), g_free, on_derived, NULL);
+  gtk_window_present (GTK_WINDOW (sl_derive_dialog_new (self)));
+}
+
+static void
+derive_now_action (GtkWidget *widget, const char *action, GVariant *parameter)
+{
+  SlWindow *self = SL_WINDOW (widget);
+  g_autoptr (SlProject) project = NULL;
+  g_autoptr (GError) error = NULL;
+  SlDeriveParams params;
+
+  if (self->path == NULL)
+    return;
+  project = sl_project_open (self->path, &error);
+  if (project == NULL || !sl_derivation_latest_params (project, &params, NULL, &error))
+    {
+      toast (self, error->message);
+      return;
+    }
+  sl_window_derive (self, &params, FALSE);
 }
 
 static void
@@ -848,7 +907,7 @@ on_override_response (AdwMessageDialog *dialog, const char *response, OverrideFo
       return;
     }
   /* What follows from the value is derived again at once. */
-  gtk_widget_activate_action (GTK_WIDGET (self), "win.derive", NULL);
+  gtk_widget_activate_action (GTK_WIDGET (self), "win.derive-now", NULL);
 }
 
 static GtkEntry *
@@ -909,7 +968,7 @@ clear_override_action (GtkWidget *widget, const char *action, GVariant *paramete
       toast (self, error->message);
       return;
     }
-  gtk_widget_activate_action (GTK_WIDGET (self), "win.derive", NULL);
+  gtk_widget_activate_action (GTK_WIDGET (self), "win.derive-now", NULL);
 }
 
 /* ------------------------------------------------------------------ */
@@ -1083,12 +1142,15 @@ sl_window_class_init (SlWindowClass *klass)
   gtk_widget_class_bind_template_child (widget_class, SlWindow, ledger_kind);
   gtk_widget_class_bind_template_child (widget_class, SlWindow, ledger_person);
   gtk_widget_class_bind_template_child (widget_class, SlWindow, ledger_view);
+  g_type_ensure (SL_TYPE_RECENT_PROJECTS);
+  gtk_widget_class_bind_template_callback (widget_class, on_recent_project_activated);
 
   /* Everything the window can do, in one place. */
   gtk_widget_class_install_action (widget_class, "win.open", NULL, open_action);
   gtk_widget_class_install_action (widget_class, "win.new", NULL, new_action);
   gtk_widget_class_install_action (widget_class, "win.open-demo", NULL, open_demo_action);
   gtk_widget_class_install_action (widget_class, "win.derive", NULL, derive_action);
+  gtk_widget_class_install_action (widget_class, "win.derive-now", NULL, derive_now_action);
   gtk_widget_class_install_action (widget_class, "win.import", NULL, import_action);
   gtk_widget_class_install_action (widget_class, "win.cancel-work", NULL, cancel_work_action);
   gtk_widget_class_install_action (widget_class, "win.override", NULL, override_action);

@@ -5,6 +5,7 @@
 
 #include <adwaita.h>
 
+#include "derive/derive.h"
 #include "sl-catalogue-view.h"
 #include "sl-plot-view.h"
 
@@ -44,6 +45,11 @@ const char *sl_window_get_project_path (SlWindow *window);
 void      sl_window_toast (SlWindow *window, const char *message);
 void      sl_window_add_toast (SlWindow *window, AdwToast *toast);   /* takes TOAST */
 void      sl_window_reload (SlWindow *window);
+/* Derives the open project with PARAMS (ALL: every star, otherwise the
+ * stale ones) as long work; FALSE if no project is open or a job runs.
+ * The Derive dialog ends here; win.derive-now derives with the latest
+ * run's parameters without asking. */
+gboolean  sl_window_derive (SlWindow *window, const SlDeriveParams *params, gboolean all);
 
 /* For tests only (tests/test-gui.c); the window itself does not use them.
  * The Catalogue and the view of KIND (borrowed); whether a background job

@@ -596,6 +596,9 @@ sl_derivation_run (SlProject *project, const SlDeriveParams *params, gboolean al
   guint next = 0;
 
   memset (report, 0, sizeof *report);
+  /* The same limits whichever front end chose the parameters. */
+  if (!sl_derive_params_check (params, error))
+    return FALSE;
   insert_sql = derived_insert_sql (columns);
 
   if (!sl_project_begin (project, error))
@@ -654,6 +657,42 @@ sl_derivation_run (SlProject *project, const SlDeriveParams *params, gboolean al
       return FALSE;
     }
   return TRUE;
+}
+
+gboolean
+sl_derivation_latest_params (SlProject *project, SlDeriveParams *params, gint64 *run_id, GError **error)
+{
+  sqlite3_stmt *stmt;
+  gboolean ok = TRUE;
+  gint64 id = 0;
+  int rc;
+
+  g_return_val_if_fail (project != NULL, FALSE);
+  g_return_val_if_fail (params != NULL, FALSE);
+
+  sl_derive_params_init (params);
+  stmt = sl_project_prepare (project,
+                             "SELECT id, parameters FROM derivation_runs WHERE finished_at IS NOT NULL "
+                             "ORDER BY id DESC LIMIT 1", error);
+  if (stmt == NULL)
+    return FALSE;
+  rc = sqlite3_step (stmt);
+  if (rc == SQLITE_ROW)
+    {
+      id = sqlite3_column_int64 (stmt, 0);
+      ok = sl_derive_params_from_keyfile (params, (const char *) sqlite3_column_text (stmt, 1), error);
+    }
+  else if (rc != SQLITE_DONE)
+    {
+      sl_project_set_db_error (project, error, "derivation_runs");
+      ok = FALSE;
+    }
+  sqlite3_finalize (stmt);
+  if (!ok)
+    sl_derive_params_init (params);
+  if (run_id)
+    *run_id = ok ? id : 0;
+  return ok;
 }
 
 /* ------------------------------------------------------------------ */

@@ -26,6 +26,14 @@ gboolean sl_derivation_run (SlProject *project, const SlDeriveParams *params, gb
                             GCancellable *cancellable, SlProgressFunc progress,
                             gpointer progress_data, SlDeriveReport *report, GError **error);
 
+/* The parameters of the project's most recent finished derivation run,
+ * so that the next run can start from the team's last choices, and that
+ * run's id in *RUN_ID (may be NULL); with no run yet, the defaults
+ * (sl_derive_params_init) and 0.  FALSE with ERROR if the record cannot
+ * be read. */
+gboolean sl_derivation_latest_params (SlProject *project, SlDeriveParams *params, gint64 *run_id,
+                                      GError **error);
+
 /* Sets (or with CLEAR removes) a value by hand for a star; its derived row
  * becomes stale.  LO and HI may be NAN. */
 gboolean sl_override_set (SlProject *project, const char *designation, SlQuantity quantity,

@@ -116,6 +116,74 @@ char    *sl_derive_params_to_json (const SlDeriveParams *params);
 /* One line for people: "distance inverse, errors linear, R_V 3.1, ...". */
 char    *sl_derive_params_describe (const SlDeriveParams *params);
 
+/* The parameters one by one, as people choose them: what the window's
+ * derive dialog offers, the ranges the CLI and the dialog accept, and the
+ * published method each choice selects (its citation), in one table
+ * (registry.c) so that every front end shows the same text. */
+typedef enum {
+  SL_PARAM_DISTANCE,
+  SL_PARAM_LENGTH_SCALE,
+  SL_PARAM_PARALLAX_ZERO_POINT,
+  SL_PARAM_RV,
+  SL_PARAM_RV_ERR,
+  SL_PARAM_TEFF,
+  SL_PARAM_ERRORS,
+  SL_PARAM_DRAWS,
+  SL_PARAM_SEED,
+  SL_PARAM_MC_BELOW_SNR,
+  SL_N_PARAMS
+} SlParam;
+
+typedef enum {
+  SL_PARAM_KIND_CHOICE,   /* one of choices[] (an enum of SlDeriveParams) */
+  SL_PARAM_KIND_NUMBER,   /* a double in [min, max] */
+  SL_PARAM_KIND_COUNT,    /* a whole number in [count_min, count_max] */
+} SlParamKind;
+
+typedef struct {
+  const char *name;       /* as recorded and on the command line: "edsd" */
+  const char *label;      /* for people; marked N_() */
+  const char *summary;    /* what it does, one sentence; marked N_() */
+  const char *citation;   /* the published method it selects; "" for none */
+} SlParamChoice;
+
+#define SL_PARAM_MAX_CHOICES 2
+
+typedef struct {
+  const char   *name;       /* the key in the recorded parameters */
+  SlParamKind   kind;
+  const char   *label;      /* for people; marked N_() */
+  const char   *unit;       /* "pc", "mas", "" */
+  const char   *help;       /* one sentence; marked N_() */
+  const char   *citation;   /* source of the method or of the default; "" for none */
+  double        min, max;   /* NUMBER: accepted range, both inclusive */
+  guint64       count_min, count_max;  /* COUNT: accepted range, both inclusive */
+  guint         n_choices;  /* CHOICE: the choices, in enum order */
+  SlParamChoice choices[SL_PARAM_MAX_CHOICES];
+} SlParamInfo;
+
+const SlParamInfo *sl_param_info (SlParam param);
+/* Looks a parameter up by its recorded name; FALSE if there is none. */
+gboolean sl_param_from_name (const char *name, SlParam *param);
+/* PARAM of PARAMS as text: a choice's name, a number as sl_format_double
+ * writes it, a count in decimal.  A new string. */
+char    *sl_param_to_text (const SlDeriveParams *params, SlParam param);
+/* Sets PARAM of PARAMS from TEXT (a choice's name, a number parsed as
+ * sl_parse_number does, a count); FALSE with an SL_ERROR_BAD_INPUT error
+ * naming the parameter and its accepted range if TEXT is none of those,
+ * and PARAMS unchanged. */
+gboolean sl_param_from_text (SlDeriveParams *params, SlParam param, const char *text, GError **error);
+/* The index of the choice PARAMS makes for a CHOICE parameter, and
+ * setting it. */
+guint    sl_param_get_choice (const SlDeriveParams *params, SlParam param);
+void     sl_param_set_choice (SlDeriveParams *params, SlParam param, guint choice);
+/* The citation of what PARAMS selects through PARAM: the chosen method's
+ * for a choice, the parameter's own otherwise ("" for none; static). */
+const char *sl_param_citation (const SlDeriveParams *params, SlParam param);
+/* Whether every parameter lies in its range; the first that does not is
+ * named in an SL_ERROR_BAD_INPUT error. */
+gboolean sl_derive_params_check (const SlDeriveParams *params, GError **error);
+
 /* The state of one evaluation of the chain for one star: the linear pass,
  * or one Monte Carlo draw. */
 typedef struct {

@@ -1,6 +1,7 @@
 /* registry.c: the tables of derived quantities, flags and modules, and
  * the parameters of a run.  Adding a module: one file, one line in
  * module_list below. */
+#include <float.h>
 #include <glib/gi18n.h>
 #include <math.h>
 #include <string.h>
@@ -248,5 +249,321 @@ sl_derive_params_from_keyfile (SlDeriveParams *p, const char *text, GError **err
   p->distance = g_strcmp0 (distance, "edsd") == 0 ? SL_DISTANCE_EDSD : SL_DISTANCE_INVERSE;
   p->teff = g_strcmp0 (teff, "ballesteros") == 0 ? SL_TEFF_BALLESTEROS : SL_TEFF_FLOWER_TORRES;
   p->errors = g_strcmp0 (errors, "mc") == 0 ? SL_ERRORS_MONTE_CARLO : SL_ERRORS_LINEAR;
+  return TRUE;
+}
+
+/* ------------------------------------------------------------------ */
+/* The parameters one by one: labels, ranges and citations            */
+
+/* The ranges are what the engine can work with, not what is plausible:
+ * an unusual R_V or L is the astronomer's call.  The citations name the
+ * published method a choice selects (a module's citation holds those of
+ * all its methods) or the source of a parameter's default. */
+static const SlParamInfo param_table[SL_N_PARAMS] = {
+  [SL_PARAM_DISTANCE] = {
+    "distance", SL_PARAM_KIND_CHOICE, N_("Distance method"), "",
+    N_("How a parallax becomes a distance."), "",
+    .n_choices = 2,
+    .choices = {
+      [SL_DISTANCE_INVERSE] = { "inverse", N_("Inverse parallax"),
+                                N_("1000 / parallax; only where the parallax signal-to-noise ratio is 5 or more."),
+                                "Bailer-Jones 2015, PASP 127, 994" },
+      [SL_DISTANCE_EDSD] = { "edsd", N_("Space density prior"),
+                             N_("An exponentially decreasing space density prior: the posterior's mode with its "
+                                "68% highest-density interval; any parallax with an error."),
+                             "Bailer-Jones 2015, PASP 127, 994; Bailer-Jones et al. 2018, AJ 156, 58" },
+    } },
+  [SL_PARAM_LENGTH_SCALE] = {
+    "length_scale_pc", SL_PARAM_KIND_NUMBER, N_("Prior length scale L"), "pc",
+    N_("The space density prior falls off as exp(-r/L); only the prior method uses it."),
+    "Astraatmadja & Bailer-Jones 2016, ApJ 833, 119",
+    .min = DBL_TRUE_MIN, .max = DBL_MAX },
+  [SL_PARAM_PARALLAX_ZERO_POINT] = {
+    "parallax_zero_point", SL_PARAM_KIND_NUMBER, N_("Parallax zero point"), "mas",
+    N_("Subtracted from every parallax before use."),
+    "Lindegren et al. 2021, A&A 649, A4",
+    .min = -DBL_MAX, .max = DBL_MAX },
+  [SL_PARAM_RV] = {
+    "rv", SL_PARAM_KIND_NUMBER, N_("Extinction ratio R_V"), "",
+    N_("A_V = R_V E(B-V); 3.1 for the diffuse interstellar medium."),
+    "Cardelli, Clayton & Mathis 1989, ApJ 345, 245",
+    .min = DBL_TRUE_MIN, .max = DBL_MAX },
+  [SL_PARAM_RV_ERR] = {
+    "rv_err", SL_PARAM_KIND_NUMBER, N_("Error of R_V"), "",
+    N_("Its 1-sigma error, carried into A_V; 0 for none."),
+    "Cardelli, Clayton & Mathis 1989, ApJ 345, 245",
+    .min = 0.0, .max = DBL_MAX },
+  [SL_PARAM_TEFF] = {
+    "teff", SL_PARAM_KIND_CHOICE, N_("Temperature calibration"), "",
+    N_("How the intrinsic colour (B-V)0 becomes an effective temperature."), "",
+    .n_choices = 2,
+    .choices = {
+      [SL_TEFF_FLOWER_TORRES] = { "flower", N_("Flower–Torres"),
+                                  N_("Flower (1996) as corrected by Torres (2010): a polynomial in (B-V)0 for -0.343 "
+                                     "to 1.805 (about 2900 to 52 500 K)."),
+                                  "Flower 1996, ApJ 469, 355; Torres 2010, AJ 140, 1158 (Table 2)" },
+      [SL_TEFF_BALLESTEROS] = { "ballesteros", N_("Ballesteros"),
+                                N_("Ballesteros (2012), from black-body colours: (B-V)0 of 0.103 to 1.370 (about "
+                                   "9000 to 4000 K)."),
+                                "Ballesteros 2012, EPL 97, 34008" },
+    } },
+  [SL_PARAM_ERRORS] = {
+    "errors", SL_PARAM_KIND_CHOICE, N_("Error propagation"), "",
+    N_("How the measurement errors are carried to the derived values."), "",
+    .n_choices = 2,
+    .choices = {
+      [SL_ERRORS_LINEAR] = { "linear", N_("First order"),
+                             N_("Linear propagation with the correlations carried along the chain; Monte Carlo "
+                                "where it fails."),
+                             "JCGM 100:2008 (GUM), section 5" },
+      [SL_ERRORS_MONTE_CARLO] = { "mc", N_("Monte Carlo"),
+                                  N_("Every star's inputs drawn many times; medians with 15.87 and 84.13 "
+                                     "percentiles."),
+                                  "JCGM 101:2008 (GUM Supplement 1)" },
+    } },
+  [SL_PARAM_DRAWS] = {
+    "draws", SL_PARAM_KIND_COUNT, N_("Monte Carlo draws"), "",
+    N_("Draws per star; more give steadier intervals and take longer."),
+    "JCGM 101:2008 (GUM Supplement 1)",
+    .count_min = 10, .count_max = 10000000 },
+  [SL_PARAM_SEED] = {
+    "seed", SL_PARAM_KIND_COUNT, N_("Random seed"), "",
+    N_("The same seed gives the same draws, so a run can be repeated exactly."),
+    "Matsumoto & Nishimura 1998, ACM TOMACS 8, 3",
+    .count_min = 0, .count_max = G_MAXUINT64 },
+  [SL_PARAM_MC_BELOW_SNR] = {
+    "mc_below_snr", SL_PARAM_KIND_NUMBER, N_("Monte Carlo below parallax S/N"), "",
+    N_("First-order runs use Monte Carlo draws for stars whose parallax signal-to-noise ratio is below this."),
+    "Bailer-Jones 2015, PASP 127, 994",
+    .min = 0.0, .max = DBL_MAX },
+};
+
+const SlParamInfo *
+sl_param_info (SlParam param)
+{
+  g_return_val_if_fail (param < SL_N_PARAMS, NULL);
+  return &param_table[param];
+}
+
+gboolean
+sl_param_from_name (const char *name, SlParam *param)
+{
+  for (SlParam i = 0; i < SL_N_PARAMS; i++)
+    if (g_strcmp0 (name, param_table[i].name) == 0)
+      {
+        *param = i;
+        return TRUE;
+      }
+  return FALSE;
+}
+
+static double *
+number_field (SlDeriveParams *p, SlParam param)
+{
+  switch (param)
+    {
+    case SL_PARAM_LENGTH_SCALE:        return &p->length_scale_pc;
+    case SL_PARAM_PARALLAX_ZERO_POINT: return &p->parallax_zero_point;
+    case SL_PARAM_RV:                  return &p->rv;
+    case SL_PARAM_RV_ERR:              return &p->rv_err;
+    case SL_PARAM_MC_BELOW_SNR:        return &p->mc_below_snr;
+    default:                           g_return_val_if_reached (NULL);
+    }
+}
+
+static guint64
+get_count (const SlDeriveParams *p, SlParam param)
+{
+  return param == SL_PARAM_DRAWS ? p->draws : p->seed;
+}
+
+guint
+sl_param_get_choice (const SlDeriveParams *p, SlParam param)
+{
+  switch (param)
+    {
+    case SL_PARAM_DISTANCE: return p->distance;
+    case SL_PARAM_TEFF:     return p->teff;
+    case SL_PARAM_ERRORS:   return p->errors;
+    default:                g_return_val_if_reached (0);
+    }
+}
+
+void
+sl_param_set_choice (SlDeriveParams *p, SlParam param, guint choice)
+{
+  g_return_if_fail (param < SL_N_PARAMS && param_table[param].kind == SL_PARAM_KIND_CHOICE);
+  g_return_if_fail (choice < param_table[param].n_choices);
+  switch (param)
+    {
+    case SL_PARAM_DISTANCE: p->distance = choice; break;
+    case SL_PARAM_TEFF:     p->teff = choice; break;
+    case SL_PARAM_ERRORS:   p->errors = choice; break;
+    default:                g_return_if_reached ();
+    }
+}
+
+char *
+sl_param_to_text (const SlDeriveParams *p, SlParam param)
+{
+  const SlParamInfo *info;
+  char buf[G_ASCII_DTOSTR_BUF_SIZE];
+
+  g_return_val_if_fail (param < SL_N_PARAMS, NULL);
+  info = &param_table[param];
+  switch (info->kind)
+    {
+    case SL_PARAM_KIND_CHOICE:
+      {
+        guint choice = sl_param_get_choice (p, param);
+
+        /* A damaged record may hold any number. */
+        return choice < info->n_choices ? g_strdup (info->choices[choice].name) : g_strdup_printf ("%u", choice);
+      }
+    case SL_PARAM_KIND_NUMBER:
+      return g_strdup (sl_format_double (buf, *number_field ((SlDeriveParams *) p, param)));
+    case SL_PARAM_KIND_COUNT:
+    default:
+      return g_strdup_printf ("%" G_GUINT64_FORMAT, get_count (p, param));
+    }
+}
+
+/* "LABEL: expected ..., not “TEXT”", the accepted range in words. */
+static void
+set_range_error (GError **error, SlParam param, const char *text)
+{
+  const SlParamInfo *info = &param_table[param];
+  const char *label = _(info->label);
+
+  switch (info->kind)
+    {
+    case SL_PARAM_KIND_CHOICE:
+      g_set_error (error, SL_ERROR, SL_ERROR_BAD_INPUT, _("%s: expected %s or %s, not “%s”"), label,
+                   info->choices[0].name, info->choices[1].name, text);
+      break;
+    case SL_PARAM_KIND_COUNT:
+      if (info->count_min == 0 && info->count_max == G_MAXUINT64)
+        g_set_error (error, SL_ERROR, SL_ERROR_BAD_INPUT, _("%s: expected a whole number, not “%s”"), label, text);
+      else
+        g_set_error (error, SL_ERROR, SL_ERROR_BAD_INPUT,
+                     _("%s: expected a whole number from %" G_GUINT64_FORMAT " to %" G_GUINT64_FORMAT ", not “%s”"),
+                     label, info->count_min, info->count_max, text);
+      break;
+    case SL_PARAM_KIND_NUMBER:
+    default:
+      if (info->min == -DBL_MAX)
+        g_set_error (error, SL_ERROR, SL_ERROR_BAD_INPUT, _("%s: expected a number, not “%s”"), label, text);
+      else if (info->min == DBL_TRUE_MIN)
+        g_set_error (error, SL_ERROR, SL_ERROR_BAD_INPUT, _("%s: expected a number greater than 0, not “%s”"),
+                     label, text);
+      else
+        g_set_error (error, SL_ERROR, SL_ERROR_BAD_INPUT, _("%s: expected a number of 0 or more, not “%s”"),
+                     label, text);
+      break;
+    }
+}
+
+static gboolean
+number_in_range (const SlParamInfo *info, double value)
+{
+  return isfinite (value) && value >= info->min && value <= info->max;
+}
+
+gboolean
+sl_param_from_text (SlDeriveParams *p, SlParam param, const char *text, GError **error)
+{
+  const SlParamInfo *info;
+  g_autofree char *stripped = NULL;
+
+  g_return_val_if_fail (param < SL_N_PARAMS, FALSE);
+  g_return_val_if_fail (text != NULL, FALSE);
+  info = &param_table[param];
+  stripped = g_strstrip (g_strdup (text));
+  switch (info->kind)
+    {
+    case SL_PARAM_KIND_CHOICE:
+      for (guint i = 0; i < info->n_choices; i++)
+        if (strcmp (stripped, info->choices[i].name) == 0)
+          {
+            sl_param_set_choice (p, param, i);
+            return TRUE;
+          }
+      break;
+    case SL_PARAM_KIND_NUMBER:
+      {
+        const char *problem;
+        double value;
+
+        if (sl_parse_number (stripped, &value, &problem) && number_in_range (info, value))
+          {
+            *number_field (p, param) = value;
+            return TRUE;
+          }
+      }
+      break;
+    case SL_PARAM_KIND_COUNT:
+      {
+        guint64 value;
+
+        if (g_ascii_string_to_unsigned (stripped, 10, info->count_min, info->count_max, &value, NULL))
+          {
+            if (param == SL_PARAM_DRAWS)
+              p->draws = (guint) value;
+            else
+              p->seed = value;
+            return TRUE;
+          }
+      }
+      break;
+    }
+  set_range_error (error, param, text);
+  return FALSE;
+}
+
+const char *
+sl_param_citation (const SlDeriveParams *p, SlParam param)
+{
+  const SlParamInfo *info;
+
+  g_return_val_if_fail (param < SL_N_PARAMS, "");
+  info = &param_table[param];
+  if (info->kind == SL_PARAM_KIND_CHOICE)
+    {
+      guint choice = sl_param_get_choice (p, param);
+
+      return choice < info->n_choices ? info->choices[choice].citation : "";
+    }
+  return info->citation;
+}
+
+gboolean
+sl_derive_params_check (const SlDeriveParams *p, GError **error)
+{
+  for (SlParam param = 0; param < SL_N_PARAMS; param++)
+    {
+      const SlParamInfo *info = &param_table[param];
+      gboolean ok;
+
+      switch (info->kind)
+        {
+        case SL_PARAM_KIND_CHOICE:
+          ok = sl_param_get_choice (p, param) < info->n_choices;
+          break;
+        case SL_PARAM_KIND_NUMBER:
+          ok = number_in_range (info, *number_field ((SlDeriveParams *) p, param));
+          break;
+        case SL_PARAM_KIND_COUNT:
+        default:
+          ok = get_count (p, param) >= info->count_min && get_count (p, param) <= info->count_max;
+          break;
+        }
+      if (!ok)
+        {
+          g_autofree char *text = sl_param_to_text (p, param);
+
+          set_range_error (error, param, text);
+          return FALSE;
+        }
+    }
   return TRUE;
 }
