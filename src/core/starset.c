@@ -83,6 +83,25 @@ derived_for (sqlite3_stmt *stmt, gint64 star_id, SlDerivedRow *row, gboolean *pe
 
 /* WANTED (designations) or MEMBERS (star ids, ascending) restrict the
  * stars loaded when not NULL. */
+/* When the newest run finished: figures carry it as their date, so the
+ * same project gives the same file. */
+static gboolean
+note_run_time (SlStarSet *set, SlProject *project, GError **error)
+{
+  sqlite3_stmt *stmt;
+
+  if (set->run_id == 0)
+    return TRUE;
+  stmt = sl_project_prepare (project, "SELECT finished_at FROM derivation_runs WHERE id = ?", error);
+  if (stmt == NULL)
+    return FALSE;
+  sqlite3_bind_int64 (stmt, 1, set->run_id);
+  if (sqlite3_step (stmt) == SQLITE_ROW && sqlite3_column_type (stmt, 0) == SQLITE_TEXT)
+    set->run_finished_at = g_string_chunk_insert (set->strings, (const char *) sqlite3_column_text (stmt, 0));
+  sqlite3_finalize (stmt);
+  return TRUE;
+}
+
 static gboolean
 load_all (SlStarSet *set, SlProject *project, GHashTable *wanted, const GArray *members,
           GCancellable *cancellable, GError **error)
@@ -139,7 +158,7 @@ load_all (SlStarSet *set, SlProject *project, GHashTable *wanted, const GArray *
       g_propagate_error (error, local);
       return FALSE;
     }
-  return TRUE;
+  return note_run_time (set, project, error);
 }
 
 SlStarSet *

@@ -30,6 +30,7 @@ typedef struct {
 typedef struct {
   GArray       *stars;       /* SlPlotStar */
   gint64        run_id;      /* the newest derivation run among the stars, 0 if none */
+  const char   *run_finished_at;  /* when it finished, ISO 8601 UTC (in strings); NULL if none */
   guint         n_derived;   /* stars with a derived row */
   GStringChunk *strings;
 } SlStarSet;

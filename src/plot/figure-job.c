@@ -227,7 +227,7 @@ sl_figure_job_write (const SlFigureJob *job, const SlStarSet *stars, const char 
                      const char *path, SlFigureFormat format, GPtrArray *notes, GError **error)
 {
   g_autofree char *subject = NULL;
-  SlFigureMetadata meta = { NULL, NULL, "Starledger" };
+  SlFigureMetadata meta = { NULL, NULL, "Starledger", NULL };
   DrawData data = { job, stars, notes };
 
   g_return_val_if_fail (job != NULL && stars != NULL && path != NULL, FALSE);
@@ -235,6 +235,7 @@ sl_figure_job_write (const SlFigureJob *job, const SlStarSet *stars, const char 
   subject = sl_figure_job_subject (job, stars, project_path);
   meta.title = sl_figure_kind_title (job->kind);
   meta.subject = subject;
+  meta.date = stars->run_finished_at;
   return sl_figure_write (path, format, &job->style, &meta, draw_figure, &data, error);
 }
 

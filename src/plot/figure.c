@@ -225,6 +225,11 @@ set_pdf_metadata (cairo_surface_t *surface, const SlFigureMetadata *meta)
     cairo_pdf_surface_set_metadata (surface, CAIRO_PDF_METADATA_SUBJECT, meta->subject);
   if (meta->keywords)
     cairo_pdf_surface_set_metadata (surface, CAIRO_PDF_METADATA_KEYWORDS, meta->keywords);
+  if (meta->date)
+    {
+      cairo_pdf_surface_set_metadata (surface, CAIRO_PDF_METADATA_CREATE_DATE, meta->date);
+      cairo_pdf_surface_set_metadata (surface, CAIRO_PDF_METADATA_MOD_DATE, meta->date);
+    }
 }
 
 gboolean

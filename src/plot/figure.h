@@ -40,6 +40,8 @@ typedef struct {
   const char *title;     /* e.g. "HR diagram" */
   const char *subject;   /* the project and run, so a figure found on a disk can be traced */
   const char *keywords;
+  const char *date;      /* ISO 8601, the PDF's creation date; NULL: now.  The
+                          * derivation run's time makes the PDF reproducible */
 } SlFigureMetadata;
 
 typedef struct {
