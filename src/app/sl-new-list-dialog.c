@@ -1,0 +1,527 @@
+/* sl-new-list-dialog.c: the New List dialog (sl-new-list-dialog.h).
+ *
+ * Contents:
+ *   comparisons ...... what each kind of name (condition.h) can be compared with
+ *   the builder ...... rows of column, comparison and value; their text
+ *   the count ........ sl_list_count_matching, shortly after each change
+ *   creating ......... sl_lists_panel_create_list
+ *
+ * The rows write the condition's text; the text is what is counted and
+ * what the list is made from, so a person may also edit it by hand for
+ * what rows cannot say (a mix of and, or and not, parentheses).  The
+ * names come from the core (sl_condition_names), never from a list here.
+ * Widgets tests look for carry names: list-name, condition-combine,
+ * condition-column, condition-op, condition-value, add-condition,
+ * condition-text, match-count, with-selection, create-list.
+ */
+#include "sl-new-list-dialog.h"
+
+#include <glib/gi18n.h>
+#include <string.h>
+
+#include "condition.h"
+#include "lists.h"
+#include "sl-lists-panel.h"
+#include "sl-window.h"
+
+/* Long enough to wait for a pause in typing, short enough to feel live. */
+#define COUNT_DELAY_MS 200
+
+/* ------------------------------------------------------------------ */
+/* Comparisons                                                        */
+
+typedef struct {
+  const char *label;    /* shown, translated */
+  const char *syntax;   /* in the condition language */
+} Comparison;
+
+static const Comparison number_comparisons[] = {
+  { "<", "<" }, { "≤", "<=" }, { "=", "=" }, { "≥", ">=" }, { ">", ">" }, { "≠", "!=" },
+  { N_("is missing"), "is missing" }, { N_("is not missing"), "is not missing" },
+};
+
+static const Comparison text_comparisons[] = {
+  { N_("is"), "=" }, { N_("is not"), "!=" }, { N_("contains"), "~" },
+  { N_("is missing"), "is missing" }, { N_("is not missing"), "is not missing" },
+};
+
+static const Comparison flag_comparisons[] = {
+  { N_("is raised"), "" }, { N_("is not raised"), "not" },
+};
+
+static const Comparison *
+comparisons (SlConditionNameKind kind, guint *n)
+{
+  switch (kind)
+    {
+    case SL_CONDITION_NAME_NUMBER:
+      *n = G_N_ELEMENTS (number_comparisons);
+      return number_comparisons;
+    case SL_CONDITION_NAME_TEXT:
+      *n = G_N_ELEMENTS (text_comparisons);
+      return text_comparisons;
+    default:
+      *n = G_N_ELEMENTS (flag_comparisons);
+      return flag_comparisons;
+    }
+}
+
+/* ------------------------------------------------------------------ */
+/* The dialog's state                                                 */
+
+typedef struct {
+  SlWindow       *window;
+  GtkWindow      *dialog;
+  AdwEntryRow    *name, *description;
+  GtkDropDown    *combine;          /* 0: all of, 1: any of */
+  GtkBox         *rows;             /* one GtkBox per condition row */
+  GtkEntry       *condition;
+  GtkLabel       *status;
+  GtkCheckButton *with_selection;
+  GtkWidget      *create;
+  GArray         *names;            /* SlConditionName */
+  GtkStringList  *name_list;        /* their names, for the column choosers */
+  guint           count_source;
+  gboolean        writing;          /* the rows are writing the text */
+  gboolean        condition_ok;     /* the text compiled at the last count */
+} NewList;
+
+static void
+new_list_free (gpointer data)
+{
+  NewList *self = data;
+
+  if (self->count_source)
+    g_source_remove (self->count_source);
+  g_clear_pointer (&self->names, g_array_unref);
+  g_clear_object (&self->name_list);
+  g_free (self);
+}
+
+static const SlConditionName *
+name_at (NewList *self, guint position)
+{
+  if (position >= self->names->len)
+    return NULL;
+  return &g_array_index (self->names, SlConditionName, position);
+}
+
+/* ------------------------------------------------------------------ */
+/* The builder                                                        */
+
+/* One row's text in the condition language, or NULL if it says nothing yet. */
+static char *
+row_text (NewList *self, GtkWidget *row)
+{
+  GtkDropDown *column = g_object_get_data (G_OBJECT (row), "column");
+  GtkDropDown *op = g_object_get_data (G_OBJECT (row), "op");
+  GtkEditable *value = g_object_get_data (G_OBJECT (row), "value");
+  const SlConditionName *name = name_at (self, gtk_drop_down_get_selected (column));
+  const Comparison *table;
+  const char *syntax;
+  g_autofree char *written = NULL;
+  guint n, which = gtk_drop_down_get_selected (op);
+
+  if (name == NULL)
+    return NULL;
+  table = comparisons (name->kind, &n);
+  if (which >= n)
+    return NULL;
+  syntax = table[which].syntax;
+  if (name->kind == SL_CONDITION_NAME_FLAG)
+    return g_strdup_printf ("%s%sflag:%s", syntax, *syntax ? " " : "", name->name);
+  if (g_str_has_prefix (syntax, "is "))
+    return g_strdup_printf ("%s %s", name->name, syntax);
+  written = g_strstrip (g_strdup (gtk_editable_get_text (value)));
+  if (*written == '\0')
+    return NULL;
+  if (name->kind == SL_CONDITION_NAME_TEXT)
+    {
+      g_autofree char *quoted = sl_condition_quote (written);
+
+      return g_strdup_printf ("%s %s %s", name->name, syntax, quoted);
+    }
+  /* A number as written: the compiler says what is wrong with it. */
+  return g_strdup_printf ("%s %s %s", name->name, syntax, written);
+}
+
+/* Writes the rows' condition into the text. */
+static void
+write_condition (NewList *self)
+{
+  g_autoptr (GString) text = g_string_new (NULL);
+  const char *join = gtk_drop_down_get_selected (self->combine) == 1 ? " or " : " and ";
+
+  for (GtkWidget *row = gtk_widget_get_first_child (GTK_WIDGET (self->rows)); row;
+       row = gtk_widget_get_next_sibling (row))
+    {
+      g_autofree char *part = row_text (self, row);
+
+      if (part == NULL)
+        continue;
+      if (text->len)
+        g_string_append (text, join);
+      g_string_append (text, part);
+    }
+  self->writing = TRUE;
+  gtk_editable_set_text (GTK_EDITABLE (self->condition), text->str);
+  self->writing = FALSE;
+}
+
+/* The comparisons of the column's kind; the value entry only where one is read. */
+static void
+update_row (NewList *self, GtkWidget *row, gboolean kind_changed)
+{
+  GtkDropDown *column = g_object_get_data (G_OBJECT (row), "column");
+  GtkDropDown *op = g_object_get_data (G_OBJECT (row), "op");
+  GtkWidget *value = g_object_get_data (G_OBJECT (row), "value");
+  const SlConditionName *name = name_at (self, gtk_drop_down_get_selected (column));
+  const Comparison *table;
+  guint n, which;
+
+  if (name == NULL)
+    return;
+  table = comparisons (name->kind, &n);
+  if (kind_changed)
+    {
+      g_autoptr (GtkStringList) labels = gtk_string_list_new (NULL);
+
+      for (guint i = 0; i < n; i++)
+        gtk_string_list_append (labels, _(table[i].label));
+      gtk_drop_down_set_model (op, G_LIST_MODEL (labels));
+      gtk_drop_down_set_selected (op, 0);
+      gtk_editable_set_text (GTK_EDITABLE (value), "");
+      gtk_entry_set_placeholder_text (GTK_ENTRY (value), name->kind == SL_CONDITION_NAME_TEXT ? _("text")
+                                                                                              : _("number"));
+    }
+  which = gtk_drop_down_get_selected (op);
+  gtk_widget_set_visible (value, name->kind != SL_CONDITION_NAME_FLAG && which < n
+                                   && !g_str_has_prefix (table[which].syntax, "is "));
+}
+
+static void
+on_column_changed (GtkDropDown *column, GParamSpec *pspec, NewList *self)
+{
+  GtkWidget *row = gtk_widget_get_parent (GTK_WIDGET (column));
+  SlConditionNameKind before = GPOINTER_TO_UINT (g_object_get_data (G_OBJECT (row), "kind"));
+  const SlConditionName *name = name_at (self, gtk_drop_down_get_selected (column));
+
+  if (name == NULL)
+    return;
+  g_object_set_data (G_OBJECT (row), "kind", GUINT_TO_POINTER (name->kind));
+  update_row (self, row, name->kind != before);
+  write_condition (self);
+}
+
+static void
+on_row_changed (GtkWidget *widget, GParamSpec *pspec, NewList *self)
+{
+  update_row (self, gtk_widget_get_parent (widget), FALSE);
+  write_condition (self);
+}
+
+static void
+on_value_changed (GtkEditable *value, NewList *self)
+{
+  write_condition (self);
+}
+
+static void
+on_remove_row (GtkButton *button, NewList *self)
+{
+  gtk_box_remove (self->rows, gtk_widget_get_parent (GTK_WIDGET (button)));
+  write_condition (self);
+}
+
+static guint
+find_name (NewList *self, const char *wanted)
+{
+  for (guint i = 0; i < self->names->len; i++)
+    if (strcmp (name_at (self, i)->name, wanted) == 0)
+      return i;
+  return 0;
+}
+
+static void
+add_row (NewList *self)
+{
+  GtkWidget *row = gtk_box_new (GTK_ORIENTATION_HORIZONTAL, 6);
+  GtkExpression *expression = gtk_property_expression_new (GTK_TYPE_STRING_OBJECT, NULL, "string");
+  GtkWidget *column = gtk_drop_down_new (G_LIST_MODEL (g_object_ref (self->name_list)), expression);
+  GtkWidget *op = gtk_drop_down_new (NULL, NULL);
+  GtkWidget *value = gtk_entry_new ();
+  GtkWidget *remove = gtk_button_new_from_icon_name ("list-remove-symbolic");
+
+  gtk_widget_set_name (column, "condition-column");
+  gtk_widget_set_name (op, "condition-op");
+  gtk_widget_set_name (value, "condition-value");
+  gtk_drop_down_set_enable_search (GTK_DROP_DOWN (column), TRUE);
+  gtk_widget_set_tooltip_text (column, _("A derived value, its _lo or _hi bound, an input, or a flag"));
+  gtk_widget_set_hexpand (value, TRUE);
+  gtk_editable_set_width_chars (GTK_EDITABLE (value), 8);
+  gtk_widget_set_tooltip_text (remove, _("Remove this condition"));
+  gtk_widget_add_css_class (remove, "flat");
+  g_object_set_data (G_OBJECT (row), "column", column);
+  g_object_set_data (G_OBJECT (row), "op", op);
+  g_object_set_data (G_OBJECT (row), "value", value);
+  /* A kind no name has: the first update fills the comparisons. */
+  g_object_set_data (G_OBJECT (row), "kind", GUINT_TO_POINTER (G_MAXUINT));
+  gtk_box_append (GTK_BOX (row), column);
+  gtk_box_append (GTK_BOX (row), op);
+  gtk_box_append (GTK_BOX (row), value);
+  gtk_box_append (GTK_BOX (row), remove);
+  gtk_box_append (self->rows, row);
+
+  /* A useful first choice: the effective temperature. */
+  gtk_drop_down_set_selected (GTK_DROP_DOWN (column), find_name (self, "teff"));
+  on_column_changed (GTK_DROP_DOWN (column), NULL, self);
+  g_signal_connect (column, "notify::selected", G_CALLBACK (on_column_changed), self);
+  g_signal_connect (op, "notify::selected", G_CALLBACK (on_row_changed), self);
+  g_signal_connect (value, "changed", G_CALLBACK (on_value_changed), self);
+  g_signal_connect (remove, "clicked", G_CALLBACK (on_remove_row), self);
+  gtk_widget_grab_focus (value);
+}
+
+/* ------------------------------------------------------------------ */
+/* The count                                                          */
+
+static void
+set_status (NewList *self, const char *text, gboolean is_error)
+{
+  gtk_label_set_text (self->status, text);
+  if (is_error)
+    gtk_widget_add_css_class (GTK_WIDGET (self->status), "error");
+  else
+    gtk_widget_remove_css_class (GTK_WIDGET (self->status), "error");
+}
+
+static void
+update_create (NewList *self)
+{
+  const char *name = gtk_editable_get_text (GTK_EDITABLE (self->name));
+  const char *condition = gtk_editable_get_text (GTK_EDITABLE (self->condition));
+  gboolean has_condition = *condition != '\0';
+  gboolean with_selection = gtk_check_button_get_active (self->with_selection);
+
+  gtk_widget_set_sensitive (self->create, *name != '\0' && (has_condition ? self->condition_ok : with_selection));
+}
+
+static gboolean
+count_now (gpointer data)
+{
+  NewList *self = data;
+  const char *text = gtk_editable_get_text (GTK_EDITABLE (self->condition));
+  g_autoptr (SlProject) project = NULL;
+  g_autoptr (GError) error = NULL;
+  g_autofree char *message = NULL;
+  gint64 n;
+
+  self->count_source = 0;
+  self->condition_ok = FALSE;
+  if (*text == '\0')
+    {
+      set_status (self, _("No condition: the list holds the selected stars only."), FALSE);
+      update_create (self);
+      return G_SOURCE_REMOVE;
+    }
+  project = sl_project_open (sl_window_get_project_path (self->window), &error);
+  n = project ? sl_list_count_matching (project, text, &error) : -1;
+  if (n < 0)
+    {
+      set_status (self, error->message, TRUE);
+      update_create (self);
+      return G_SOURCE_REMOVE;
+    }
+  self->condition_ok = TRUE;
+  message = g_strdup_printf (g_dngettext (GETTEXT_PACKAGE, "%" G_GINT64_FORMAT " derived star matches now.",
+                                          "%" G_GINT64_FORMAT " derived stars match now.", n),
+                             n);
+  set_status (self, message, FALSE);
+  update_create (self);
+  return G_SOURCE_REMOVE;
+}
+
+static void
+on_condition_changed (GtkEditable *condition, NewList *self)
+{
+  if (self->count_source)
+    g_source_remove (self->count_source);
+  self->condition_ok = FALSE;
+  update_create (self);
+  self->count_source = g_timeout_add (COUNT_DELAY_MS, count_now, self);
+}
+
+/* ------------------------------------------------------------------ */
+/* Creating                                                           */
+
+static void
+on_create (NewList *self)
+{
+  g_autofree char *name = g_strstrip (g_strdup (gtk_editable_get_text (GTK_EDITABLE (self->name))));
+  const char *description = gtk_editable_get_text (GTK_EDITABLE (self->description));
+  g_autofree char *condition = g_strstrip (g_strdup (gtk_editable_get_text (GTK_EDITABLE (self->condition))));
+  g_autoptr (GError) error = NULL;
+
+  if (!sl_lists_panel_create_list (self->window, name, description, condition,
+                                   gtk_check_button_get_active (self->with_selection), &error))
+    {
+      /* The dialog stays, with what went wrong. */
+      set_status (self, error->message, TRUE);
+      return;
+    }
+  gtk_window_destroy (self->dialog);
+}
+
+static void
+on_cancel (NewList *self)
+{
+  gtk_window_destroy (self->dialog);
+}
+
+static void
+on_entry_changed (NewList *self)
+{
+  update_create (self);
+}
+
+/* ------------------------------------------------------------------ */
+/* Construction                                                       */
+
+static GtkWidget *
+caption (const char *text, gboolean dim)
+{
+  GtkWidget *label = gtk_label_new (text);
+
+  gtk_label_set_xalign (GTK_LABEL (label), 0.0);
+  gtk_label_set_wrap (GTK_LABEL (label), TRUE);
+  gtk_widget_add_css_class (label, dim ? "dim-label" : "heading");
+  return label;
+}
+
+GtkWindow *
+sl_new_list_dialog_present (SlWindow *window)
+{
+  NewList *self = g_new0 (NewList, 1);
+  GtkWidget *dialog = adw_window_new ();
+  GtkWidget *content = gtk_box_new (GTK_ORIENTATION_VERTICAL, 0);
+  GtkWidget *header = adw_header_bar_new ();
+  GtkWidget *cancel = gtk_button_new_with_mnemonic (_("_Cancel"));
+  GtkWidget *body = gtk_box_new (GTK_ORIENTATION_VERTICAL, 12);
+  GtkWidget *scroll = gtk_scrolled_window_new ();
+  GtkWidget *names_group = adw_preferences_group_new ();
+  GtkWidget *where = gtk_box_new (GTK_ORIENTATION_HORIZONTAL, 6);
+  GtkWidget *add = gtk_button_new_with_mnemonic (_("_Add a Condition"));
+  const char *const *selection = sl_window_get_selection (window);
+  guint n_selected = selection ? g_strv_length ((char **) selection) : 0;
+  g_autofree char *with_label = NULL;
+
+  g_return_val_if_fail (SL_IS_WINDOW (window), NULL);
+
+  self->window = window;
+  self->dialog = GTK_WINDOW (dialog);
+  self->names = sl_condition_names ();
+  self->name_list = gtk_string_list_new (NULL);
+  for (guint i = 0; i < self->names->len; i++)
+    gtk_string_list_append (self->name_list, name_at (self, i)->name);
+  g_object_set_data_full (G_OBJECT (dialog), "new-list", self, new_list_free);
+
+  gtk_window_set_title (GTK_WINDOW (dialog), _("New List"));
+  gtk_window_set_modal (GTK_WINDOW (dialog), TRUE);
+  gtk_window_set_transient_for (GTK_WINDOW (dialog), GTK_WINDOW (window));
+  gtk_window_set_default_size (GTK_WINDOW (dialog), 620, 600);
+
+  /* Cancel and Create in the header, as GNOME dialogs have them. */
+  adw_header_bar_set_show_end_title_buttons (ADW_HEADER_BAR (header), FALSE);
+  adw_header_bar_set_title_widget (ADW_HEADER_BAR (header), adw_window_title_new (_("New List"), NULL));
+  self->create = gtk_button_new_with_mnemonic (_("C_reate"));
+  gtk_widget_set_name (self->create, "create-list");
+  gtk_widget_add_css_class (self->create, "suggested-action");
+  adw_header_bar_pack_start (ADW_HEADER_BAR (header), cancel);
+  adw_header_bar_pack_end (ADW_HEADER_BAR (header), self->create);
+  g_signal_connect_swapped (cancel, "clicked", G_CALLBACK (on_cancel), self);
+  g_signal_connect_swapped (self->create, "clicked", G_CALLBACK (on_create), self);
+  gtk_box_append (GTK_BOX (content), header);
+
+  gtk_widget_set_margin_start (body, 18);
+  gtk_widget_set_margin_end (body, 18);
+  gtk_widget_set_margin_top (body, 12);
+  gtk_widget_set_margin_bottom (body, 18);
+
+  /* Name and description. */
+  self->name = ADW_ENTRY_ROW (adw_entry_row_new ());
+  adw_preferences_row_set_title (ADW_PREFERENCES_ROW (self->name), _("Name"));
+  gtk_widget_set_name (GTK_WIDGET (self->name), "list-name");
+  self->description = ADW_ENTRY_ROW (adw_entry_row_new ());
+  adw_preferences_row_set_title (ADW_PREFERENCES_ROW (self->description), _("Description (optional)"));
+  adw_preferences_group_add (ADW_PREFERENCES_GROUP (names_group), GTK_WIDGET (self->name));
+  adw_preferences_group_add (ADW_PREFERENCES_GROUP (names_group), GTK_WIDGET (self->description));
+  g_signal_connect_swapped (self->name, "changed", G_CALLBACK (on_entry_changed), self);
+  gtk_box_append (GTK_BOX (body), names_group);
+
+  /* The rows. */
+  {
+    const char *const combine[] = { _("all of these hold"), _("any of these holds"), NULL };
+
+    self->combine = GTK_DROP_DOWN (gtk_drop_down_new_from_strings (combine));
+    gtk_widget_set_name (GTK_WIDGET (self->combine), "condition-combine");
+    gtk_box_append (GTK_BOX (where), caption (_("Stars for which"), FALSE));
+    gtk_box_append (GTK_BOX (where), GTK_WIDGET (self->combine));
+    g_signal_connect_swapped (self->combine, "notify::selected", G_CALLBACK (write_condition), self);
+    gtk_box_append (GTK_BOX (body), where);
+  }
+  self->rows = GTK_BOX (gtk_box_new (GTK_ORIENTATION_VERTICAL, 6));
+  gtk_box_append (GTK_BOX (body), GTK_WIDGET (self->rows));
+  gtk_widget_set_name (add, "add-condition");
+  gtk_widget_set_halign (add, GTK_ALIGN_START);
+  g_signal_connect_swapped (add, "clicked", G_CALLBACK (add_row), self);
+  gtk_box_append (GTK_BOX (body), add);
+
+  /* The text, which is what counts. */
+  gtk_box_append (GTK_BOX (body), caption (_("Condition"), FALSE));
+  self->condition = GTK_ENTRY (gtk_entry_new ());
+  gtk_widget_set_name (GTK_WIDGET (self->condition), "condition-text");
+  gtk_entry_set_placeholder_text (self->condition, _("for example: teff > 5000 and dist < 100"));
+  gtk_widget_add_css_class (GTK_WIDGET (self->condition), "monospace");
+  g_signal_connect (self->condition, "changed", G_CALLBACK (on_condition_changed), self);
+  gtk_box_append (GTK_BOX (body), GTK_WIDGET (self->condition));
+  gtk_box_append (GTK_BOX (body),
+                  caption (_("The rows above write this text. Edit it to say what rows cannot: a mix of "
+                             "'and', 'or' and 'not', with parentheses. Only derived stars are tested; a "
+                             "missing value satisfies no comparison."), TRUE));
+  self->status = GTK_LABEL (caption ("", FALSE));
+  gtk_widget_remove_css_class (GTK_WIDGET (self->status), "heading");
+  gtk_widget_set_name (GTK_WIDGET (self->status), "match-count");
+  gtk_label_set_selectable (self->status, TRUE);
+  gtk_box_append (GTK_BOX (body), GTK_WIDGET (self->status));
+
+  with_label = g_strdup_printf (g_dngettext (GETTEXT_PACKAGE, "Also add the selected star (%u)",
+                                             "Also add the selected stars (%u)", n_selected),
+                                n_selected);
+  self->with_selection = GTK_CHECK_BUTTON (gtk_check_button_new_with_label (with_label));
+  gtk_widget_set_name (GTK_WIDGET (self->with_selection), "with-selection");
+  gtk_widget_set_sensitive (GTK_WIDGET (self->with_selection), n_selected > 0);
+  g_signal_connect_swapped (self->with_selection, "toggled", G_CALLBACK (on_entry_changed), self);
+  gtk_box_append (GTK_BOX (body), GTK_WIDGET (self->with_selection));
+
+  gtk_scrolled_window_set_child (GTK_SCROLLED_WINDOW (scroll), body);
+  gtk_scrolled_window_set_policy (GTK_SCROLLED_WINDOW (scroll), GTK_POLICY_NEVER, GTK_POLICY_AUTOMATIC);
+  gtk_widget_set_vexpand (scroll, TRUE);
+  gtk_box_append (GTK_BOX (content), scroll);
+  adw_window_set_content (ADW_WINDOW (dialog), content);
+
+  /* Escape closes, as in every dialog. */
+  {
+    GtkEventController *keys = gtk_shortcut_controller_new ();
+
+    gtk_shortcut_controller_add_shortcut (GTK_SHORTCUT_CONTROLLER (keys),
+                                          gtk_shortcut_new (gtk_keyval_trigger_new (GDK_KEY_Escape, 0),
+                                                            gtk_named_action_new ("window.close")));
+    gtk_widget_add_controller (dialog, keys);
+  }
+
+  add_row (self);
+  count_now (self);
+  gtk_widget_grab_focus (GTK_WIDGET (self->name));
+  gtk_window_present (GTK_WINDOW (dialog));
+  return GTK_WINDOW (dialog);
+}
