@@ -44,7 +44,7 @@ struct _SlListsPanel {
   GPtrArray        *infos;         /* SlListInfo, by name, as last read */
   GHashTable       *members;       /* designation -> SlListMember (owned), of CURRENT */
   char             *current;       /* the list whose members are shown, or NULL */
-  gboolean          updating;      /* the panel is changing its own widgets: no reactions */
+  gboolean          updating;      /* the panel is changing its own widgets, or going: no reactions */
 };
 
 G_DEFINE_FINAL_TYPE (SlListsPanel, sl_lists_panel, GTK_TYPE_BOX)
@@ -320,7 +320,7 @@ bind_member_cell (GtkSignalListItemFactory *factory, GtkListItem *item, gpointer
   SlListsPanel *self = g_object_get_data (G_OBJECT (factory), "panel");
   GtkStringObject *object = gtk_list_item_get_item (item);
   const char *designation = gtk_string_object_get_string (object);
-  const SlListMember *member = g_hash_table_lookup (self->members, designation);
+  const SlListMember *member = self->members ? g_hash_table_lookup (self->members, designation) : NULL;
   GtkLabel *label = GTK_LABEL (gtk_list_item_get_child (item));
   g_autofree char *priority = NULL;
 
@@ -898,6 +898,8 @@ sl_lists_panel_dispose (GObject *object)
 {
   SlListsPanel *self = SL_LISTS_PANEL (object);
 
+  /* The children going away emit their selection signals: not ours to follow. */
+  self->updating = TRUE;
   g_clear_pointer (&self->infos, g_ptr_array_unref);
   g_clear_pointer (&self->members, g_hash_table_unref);
   g_clear_pointer (&self->current, g_free);

@@ -301,9 +301,9 @@ update_create (NewList *self)
   const char *name = gtk_editable_get_text (GTK_EDITABLE (self->name));
   const char *condition = gtk_editable_get_text (GTK_EDITABLE (self->condition));
   gboolean has_condition = *condition != '\0';
-  gboolean with_selection = gtk_check_button_get_active (self->with_selection);
 
-  gtk_widget_set_sensitive (self->create, *name != '\0' && (has_condition ? self->condition_ok : with_selection));
+  /* Without a condition the list holds the selection, or starts empty. */
+  gtk_widget_set_sensitive (self->create, *name != '\0' && (!has_condition || self->condition_ok));
 }
 
 static gboolean
@@ -320,7 +320,7 @@ count_now (gpointer data)
   self->condition_ok = FALSE;
   if (*text == '\0')
     {
-      set_status (self, _("No condition: the list holds the selected stars only."), FALSE);
+      set_status (self, _("No condition: the list holds the selected stars if they are added, or starts empty."), FALSE);
       update_create (self);
       return G_SOURCE_REMOVE;
     }
