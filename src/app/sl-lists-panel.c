@@ -93,7 +93,8 @@ list_row (const SlListInfo *info)
     adw_preferences_row_set_title (ADW_PREFERENCES_ROW (row), name);
     adw_action_row_set_subtitle (ADW_ACTION_ROW (row), escaped);
   }
-  adw_action_row_set_subtitle_lines (ADW_ACTION_ROW (row), 2);
+  adw_action_row_set_subtitle_lines (ADW_ACTION_ROW (row), 1);
+  gtk_widget_set_tooltip_text (row, subtitle->str);
   gtk_widget_add_css_class (suffix, "dim-label");
   adw_action_row_add_suffix (ADW_ACTION_ROW (row), suffix);
   g_object_set_data_full (G_OBJECT (row), "list-name", g_strdup (info->name), g_free);
@@ -153,7 +154,7 @@ show_members (SlListsPanel *self, SlProject *project)
   if (self->current)
     {
       const SlListInfo *info = find_info (self, self->current);
-      g_autofree char *title = g_strdup_printf (_("Stars of %s, highest priority first"), self->current);
+      g_autofree char *title = g_strdup_printf (_("Stars in “%s”, highest priority first"), self->current);
 
       gtk_label_set_text (self->members_title, info ? title : "");
     }
@@ -1016,7 +1017,7 @@ sl_lists_panel_init (SlListsPanel *self)
   add_member_column (self, _("Notes"), MEMBER_NOTES, TRUE);
   g_signal_connect (self->members_view, "activate", G_CALLBACK (on_member_activated), self);
   {
-    GtkWidget *members_scroll = scrolled (GTK_WIDGET (self->members_view), 80);
+    GtkWidget *members_scroll = scrolled (GTK_WIDGET (self->members_view), 48);
 
     gtk_widget_set_vexpand (members_scroll, TRUE);
     gtk_box_append (GTK_BOX (members_box), members_scroll);

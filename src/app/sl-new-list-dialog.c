@@ -256,6 +256,9 @@ add_row (NewList *self)
   gtk_widget_set_name (op, "condition-op");
   gtk_widget_set_name (value, "condition-value");
   gtk_drop_down_set_enable_search (GTK_DROP_DOWN (column), TRUE);
+  /* The same widths in every row: the rows read as a table. */
+  gtk_widget_set_size_request (column, 150, -1);
+  gtk_widget_set_size_request (op, 130, -1);
   gtk_widget_set_tooltip_text (column, _("A derived value, its _lo or _hi bound, an input, or a flag"));
   gtk_widget_set_hexpand (value, TRUE);
   gtk_editable_set_width_chars (GTK_EDITABLE (value), 8);
