@@ -30,7 +30,7 @@ struct _SlListsPanel {
 
   SlWindow         *window;        /* not owned: the window owns the panel */
   GtkDropDown      *show;          /* "All stars", then every list */
-  GtkStringList    *show_names;
+  GtkStringList    *show_names;    /* owned (the chooser holds its own reference) */
   GtkListBox       *lists;
   GtkLabel         *members_title;
   GtkColumnView    *members_view;
@@ -199,6 +199,9 @@ sl_lists_panel_reload (SlListsPanel *self)
 
   g_return_if_fail (SL_IS_LISTS_PANEL (self));
 
+  /* Going away. */
+  if (self->show_names == NULL)
+    return;
   path = sl_window_get_project_path (self->window);
   g_clear_pointer (&self->infos, g_ptr_array_unref);
   if (path)
@@ -904,6 +907,7 @@ sl_lists_panel_dispose (GObject *object)
   g_clear_pointer (&self->infos, g_ptr_array_unref);
   g_clear_pointer (&self->members, g_hash_table_unref);
   g_clear_pointer (&self->current, g_free);
+  g_clear_object (&self->show_names);
   G_OBJECT_CLASS (sl_lists_panel_parent_class)->dispose (object);
 }
 
