@@ -1009,6 +1009,23 @@ find_named (GtkWidget *widget, const char *name)
   return NULL;
 }
 
+/* The first button under WIDGET whose label is LABEL (as written, with
+ * its mnemonic). */
+static GtkWidget *
+find_button_labelled (GtkWidget *widget, const char *label)
+{
+  if (GTK_IS_BUTTON (widget) && g_strcmp0 (gtk_button_get_label (GTK_BUTTON (widget)), label) == 0)
+    return widget;
+  for (GtkWidget *child = gtk_widget_get_first_child (widget); child; child = gtk_widget_get_next_sibling (child))
+    {
+      GtkWidget *found = find_button_labelled (child, label);
+
+      if (found)
+        return found;
+    }
+  return NULL;
+}
+
 /* List NAME's members as the core reads them, "STAR:PRIORITY:TAGS:NOTES|..."
  * (highest priority first, then by designation); NULL if there is no such list. */
 static char *
@@ -1175,6 +1192,11 @@ test_lists_show_only (void)
 
   g_assert_true (gtk_widget_activate_action (GTK_WIDGET (demo), "win.show-list", "s", "warm near"));
   g_assert_cmpstr (sl_window_get_shown_list (demo), ==, "warm near");
+  {
+    AdwWindowTitle *title = ADW_WINDOW_TITLE (find_descendant (GTK_WIDGET (demo), ADW_TYPE_WINDOW_TITLE));
+
+    g_assert_true (g_str_has_prefix (adw_window_title_get_subtitle (title), "only list “warm near” · "));
+  }
   WAIT_UNTIL (catalogue_rows () == (guint) n, LOAD_TIMEOUT_S, "the table to show the list");
   WAIT_UNTIL (!sl_window_is_loading (demo), LOAD_TIMEOUT_S, "the views' stars");
   PAINT (demo);
@@ -1396,6 +1418,24 @@ test_lists_export_delete (void)
   WAIT_UNTIL (!sl_window_is_working (demo), LOAD_TIMEOUT_S, "the LaTeX export");
   g_assert_true (g_file_get_contents (tex, &contents, NULL, NULL));
   g_assert_nonnull (strstr (contents, "\\begin{tabular}"));
+
+  /* Delete… asks first: Cancel keeps the list, Delete deletes it. */
+  g_assert_true (sl_lists_panel_set_current (sl_window_get_lists_panel (demo), "by hand"));
+  for (int round = 0; round < 2; round++)
+    {
+      GtkWidget *delete = find_button_labelled (GTK_WIDGET (sl_window_get_lists_panel (demo)), "_Delete…");
+      AdwMessageDialog *dialog;
+
+      g_assert_nonnull (delete);
+      g_signal_emit_by_name (delete, "clicked");
+      WAIT_UNTIL ((dialog = open_message_dialog ()) != NULL, FRAME_TIMEOUT_S, "the confirmation");
+      g_assert_cmpstr (adw_message_dialog_get_heading (dialog), ==, "Delete List by hand?");
+      adw_message_dialog_response (dialog, round == 0 ? "cancel" : "delete");
+      gtk_window_close (GTK_WINDOW (dialog));
+      WAIT_UNTIL (open_message_dialog () == NULL, FRAME_TIMEOUT_S, "the confirmation to close");
+      g_assert_cmpint (list_size ("by hand"), ==, round == 0 ? 2 : -1);
+    }
+  g_assert_null (sl_lists_panel_get_current (sl_window_get_lists_panel (demo)));
 
   g_assert_true (gtk_widget_activate_action (GTK_WIDGET (demo), "win.show-list", "s", "warm near"));
   WAIT_UNTIL (catalogue_rows () == (guint) n, LOAD_TIMEOUT_S, "the table to show the list");

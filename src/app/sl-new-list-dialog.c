@@ -3,7 +3,7 @@
  * Contents:
  *   comparisons ...... what each kind of name (condition.h) can be compared with
  *   the builder ...... rows of column, comparison and value; their text
- *   the count ........ sl_list_count_matching, shortly after each change
+ *   the count ........ sl_list_count_matching in a thread, shortly after each change
  *   creating ......... sl_lists_panel_create_list
  *
  * The rows write the condition's text; the text is what is counted and
@@ -82,6 +82,8 @@ typedef struct {
   GArray         *names;            /* SlConditionName */
   GtkStringList  *name_list;        /* their names, for the column choosers */
   guint           count_source;
+  guint           generation;       /* of the text, for the counts in flight */
+  gboolean        closed;           /* the widgets are gone; a count in flight keeps the state */
   gboolean        writing;          /* the rows are writing the text */
   gboolean        condition_ok;     /* the text compiled at the last count */
 } NewList;
@@ -309,44 +311,101 @@ update_create (NewList *self)
   gtk_widget_set_sensitive (self->create, *name != '\0' && (!has_condition || self->condition_ok));
 }
 
+/* The count runs in a thread (at a million stars it takes a moment); a
+ * result that arrives after the text changed again is dropped. */
+typedef struct {
+  char  *path;
+  char  *text;
+  guint  generation;
+} CountJob;
+
+static void
+count_job_free (gpointer data)
+{
+  CountJob *job = data;
+
+  g_free (job->path);
+  g_free (job->text);
+  g_free (job);
+}
+
+static void
+count_thread (GTask *task, gpointer source, gpointer task_data, GCancellable *cancellable)
+{
+  CountJob *job = task_data;
+  g_autoptr (SlProject) project = NULL;
+  GError *error = NULL;
+  gint64 n = -1;
+
+  project = sl_project_open (job->path, &error);
+  if (project)
+    n = sl_list_count_matching (project, job->text, &error);
+  if (n >= 0)
+    g_task_return_int (task, n);
+  else
+    g_task_return_error (task, error);
+}
+
+static void
+on_counted (GObject *source, GAsyncResult *result, gpointer user_data)
+{
+  NewList *self = g_object_get_data (source, "new-list");
+  CountJob *job = g_task_get_task_data (G_TASK (result));
+  g_autoptr (GError) error = NULL;
+  gssize n = g_task_propagate_int (G_TASK (result), &error);
+  g_autofree char *message = NULL;
+
+  if (self == NULL || self->closed || job->generation != self->generation)
+    return;
+  if (n < 0)
+    {
+      set_status (self, error->message, TRUE);
+      update_create (self);
+      return;
+    }
+  self->condition_ok = TRUE;
+  message = g_strdup_printf (g_dngettext (GETTEXT_PACKAGE, "%" G_GSSIZE_FORMAT " derived star matches now.",
+                                          "%" G_GSSIZE_FORMAT " derived stars match now.", n),
+                             n);
+  set_status (self, message, FALSE);
+  update_create (self);
+}
+
 static gboolean
 count_now (gpointer data)
 {
   NewList *self = data;
   const char *text = gtk_editable_get_text (GTK_EDITABLE (self->condition));
-  g_autoptr (SlProject) project = NULL;
-  g_autoptr (GError) error = NULL;
-  g_autofree char *message = NULL;
-  gint64 n;
+  g_autoptr (GTask) task = NULL;
+  CountJob *job;
 
   self->count_source = 0;
   self->condition_ok = FALSE;
+  self->generation++;
   if (*text == '\0')
     {
-      set_status (self, _("No condition: the list holds the selected stars if they are added, or starts empty."), FALSE);
+      set_status (self, _("No condition: the list holds the selected stars if they are added, or starts empty."),
+                  FALSE);
       update_create (self);
       return G_SOURCE_REMOVE;
     }
-  project = sl_project_open (sl_window_get_project_path (self->window), &error);
-  n = project ? sl_list_count_matching (project, text, &error) : -1;
-  if (n < 0)
-    {
-      set_status (self, error->message, TRUE);
-      update_create (self);
-      return G_SOURCE_REMOVE;
-    }
-  self->condition_ok = TRUE;
-  message = g_strdup_printf (g_dngettext (GETTEXT_PACKAGE, "%" G_GINT64_FORMAT " derived star matches now.",
-                                          "%" G_GINT64_FORMAT " derived stars match now.", n),
-                             n);
-  set_status (self, message, FALSE);
-  update_create (self);
+  set_status (self, _("Counting…"), FALSE);
+  job = g_new0 (CountJob, 1);
+  job->path = g_strdup (sl_window_get_project_path (self->window));
+  job->text = g_strdup (text);
+  job->generation = self->generation;
+  /* The task holds the dialog, and so the state, until it is done. */
+  task = g_task_new (self->dialog, NULL, on_counted, NULL);
+  g_task_set_task_data (task, job, count_job_free);
+  g_task_run_in_thread (task, count_thread);
   return G_SOURCE_REMOVE;
 }
 
 static void
 on_condition_changed (GtkEditable *condition, NewList *self)
 {
+  if (self->closed)
+    return;
   if (self->count_source)
     g_source_remove (self->count_source);
   self->condition_ok = FALSE;
@@ -373,6 +432,16 @@ on_create (NewList *self)
       return;
     }
   gtk_window_destroy (self->dialog);
+}
+
+/* The widgets go now; the state stays until no count holds the dialog. */
+static void
+on_destroy (NewList *self)
+{
+  self->closed = TRUE;
+  if (self->count_source)
+    g_source_remove (self->count_source);
+  self->count_source = 0;
 }
 
 static void
@@ -427,6 +496,7 @@ sl_new_list_dialog_present (SlWindow *window)
   for (guint i = 0; i < self->names->len; i++)
     gtk_string_list_append (self->name_list, name_at (self, i)->name);
   g_object_set_data_full (G_OBJECT (dialog), "new-list", self, new_list_free);
+  g_signal_connect_swapped (dialog, "destroy", G_CALLBACK (on_destroy), self);
 
   gtk_window_set_title (GTK_WINDOW (dialog), _("New List"));
   gtk_window_set_modal (GTK_WINDOW (dialog), TRUE);

@@ -1166,6 +1166,15 @@ sl_window_show_list (SlWindow *self, const char *name)
   self->shown_list = copy;
   if (self->path == NULL)
     return;
+  /* Whichever tab is in front, the title says that not every star is shown. */
+  if (name)
+    {
+      g_autofree char *subtitle = g_strdup_printf (_("only list “%s” · %s"), name, self->path);
+
+      adw_window_title_set_subtitle (self->window_title, subtitle);
+    }
+  else
+    adw_window_title_set_subtitle (self->window_title, self->path);
   sl_catalogue_view_set_list (self->catalogue, name);
   load_stars (self);
   sl_lists_panel_reload (self->lists);
