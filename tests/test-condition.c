@@ -1152,6 +1152,11 @@ test_builder_names (void)
 
       g_assert_false (g_hash_table_contains (seen, n->name));
       g_hash_table_add (seen, (gpointer) n->name);
+      /* Each says what it is; a bound says which. */
+      g_assert_nonnull (n->description);
+      g_assert_cmpuint (strlen (n->description), >, 3);
+      g_assert_nonnull (n->unit);
+      g_assert_cmpint (n->bound, ==, g_str_has_suffix (n->name, "_lo") ? -1 : g_str_has_suffix (n->name, "_hi") ? 1 : 0);
       switch (n->kind)
         {
         case SL_CONDITION_NAME_NUMBER:
@@ -1177,6 +1182,15 @@ test_builder_names (void)
   for (guint i = 0; wanted[i]; i++)
     if (!g_hash_table_contains (seen, wanted[i]))
       g_error ("the builder's names lack %s", wanted[i]);
+  for (guint i = 0; i < names->len; i++)
+    {
+      const SlConditionName *n = &g_array_index (names, SlConditionName, i);
+
+      if (strcmp (n->name, "dist") == 0)
+        g_assert_cmpstr (n->unit, ==, "pc");
+      if (strcmp (n->name, "vmag") == 0)
+        g_assert_cmpstr (n->unit, ==, "mag");
+    }
 }
 
 /* A quoted string reads back as the text, quotes and backslashes

@@ -993,6 +993,11 @@ test_shortcuts (void)
 /* ------------------------------------------------------------------ */
 /* Target lists                                                       */
 
+/* The Lists page and the New List dialog, through their actions and
+ * widgets; checked against the project through src/core/lists.c.  They
+ * write gui-lists.png (the window with the Lists page), gui-new-list.png
+ * and gui-new-list-columns.png (the dialog, its column chooser open). */
+
 /* The first widget named NAME under WIDGET, depth first. */
 static GtkWidget *
 find_named (GtkWidget *widget, const char *name)
@@ -1024,6 +1029,18 @@ find_button_labelled (GtkWidget *widget, const char *label)
         return found;
     }
   return NULL;
+}
+
+/* Whether a label under WIDGET begins with PREFIX. */
+static gboolean
+label_under_starts_with (GtkWidget *widget, const char *prefix)
+{
+  if (GTK_IS_LABEL (widget) && g_str_has_prefix (gtk_label_get_text (GTK_LABEL (widget)), prefix))
+    return TRUE;
+  for (GtkWidget *child = gtk_widget_get_first_child (widget); child; child = gtk_widget_get_next_sibling (child))
+    if (label_under_starts_with (child, prefix))
+      return TRUE;
+  return FALSE;
 }
 
 /* List NAME's members as the core reads them, "STAR:PRIORITY:TAGS:NOTES|..."
@@ -1368,6 +1385,25 @@ test_lists_new_dialog (void)
 
     save_png (picture, "gui-new-list.png");
     cairo_surface_destroy (picture);
+  }
+
+  /* The column chooser, open, says what each name is. */
+  g_signal_emit_by_name (column, "activate");
+  {
+    GtkWidget *popover = find_descendant (column, GTK_TYPE_POPOVER);
+
+    g_assert_nonnull (popover);
+    WAIT_UNTIL (gtk_widget_get_mapped (popover), FRAME_TIMEOUT_S, "the column chooser to open");
+    PAINT (popover);
+    WAIT_UNTIL (label_under_starts_with (popover, "lower bound (68%) of: "), FRAME_TIMEOUT_S,
+                "the names' descriptions");
+    {
+      cairo_surface_t *picture = render_widget (popover);
+
+      save_png (picture, "gui-new-list-columns.png");
+      cairo_surface_destroy (picture);
+    }
+    gtk_popover_popdown (GTK_POPOVER (popover));
   }
 
   /* A mistake in the text: the compiler's message, Create disabled. */

@@ -244,6 +244,55 @@ find_name (NewList *self, const char *wanted)
   return 0;
 }
 
+/* In the open chooser each name comes with what it is, so that "plx_snr"
+ * or "ebv" need not be known by heart; the button shows the name only. */
+static void
+setup_name_item (GtkSignalListItemFactory *factory, GtkListItem *item, gpointer data)
+{
+  GtkWidget *box = gtk_box_new (GTK_ORIENTATION_VERTICAL, 0);
+  GtkWidget *name = gtk_label_new (NULL);
+  GtkWidget *about = gtk_label_new (NULL);
+
+  gtk_label_set_xalign (GTK_LABEL (name), 0.0);
+  gtk_label_set_xalign (GTK_LABEL (about), 0.0);
+  gtk_label_set_wrap (GTK_LABEL (about), TRUE);
+  gtk_label_set_max_width_chars (GTK_LABEL (about), 48);
+  gtk_widget_set_size_request (box, 300, -1);
+  gtk_widget_add_css_class (about, "dim-label");
+  gtk_widget_add_css_class (about, "caption");
+  gtk_box_append (GTK_BOX (box), name);
+  gtk_box_append (GTK_BOX (box), about);
+  gtk_list_item_set_child (item, box);
+}
+
+static void
+bind_name_item (GtkSignalListItemFactory *factory, GtkListItem *item, NewList *self)
+{
+  GtkWidget *box = gtk_list_item_get_child (item);
+  GtkLabel *name = GTK_LABEL (gtk_widget_get_first_child (box));
+  GtkLabel *about = GTK_LABEL (gtk_widget_get_last_child (box));
+  /* By name: while searching, positions are those of the matches. */
+  const char *wanted = gtk_string_object_get_string (gtk_list_item_get_item (item));
+  const SlConditionName *entry = name_at (self, find_name (self, wanted));
+  g_autoptr (GString) text = g_string_new (NULL);
+
+  if (entry == NULL)
+    return;
+  gtk_label_set_text (name, entry->name);
+  if (entry->bound < 0)
+    g_string_append (text, _("lower bound (68%) of: "));
+  else if (entry->bound > 0)
+    g_string_append (text, _("upper bound (68%) of: "));
+  if (entry->description)
+    g_string_append (text, _(entry->description));
+  if (*entry->unit)
+    g_string_append_printf (text, " [%s]", entry->unit);
+  if (entry->kind == SL_CONDITION_NAME_FLAG)
+    g_string_prepend (text, _("flag: "));
+  gtk_label_set_text (about, text->str);
+}
+
+
 static void
 add_row (NewList *self)
 {
@@ -258,6 +307,13 @@ add_row (NewList *self)
   gtk_widget_set_name (op, "condition-op");
   gtk_widget_set_name (value, "condition-value");
   gtk_drop_down_set_enable_search (GTK_DROP_DOWN (column), TRUE);
+  {
+    g_autoptr (GtkListItemFactory) factory = gtk_signal_list_item_factory_new ();
+
+    g_signal_connect (factory, "setup", G_CALLBACK (setup_name_item), NULL);
+    g_signal_connect (factory, "bind", G_CALLBACK (bind_name_item), self);
+    gtk_drop_down_set_list_factory (GTK_DROP_DOWN (column), factory);
+  }
   /* The same widths in every row: the rows read as a table. */
   gtk_widget_set_size_request (column, 150, -1);
   gtk_widget_set_size_request (op, 130, -1);

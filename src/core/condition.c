@@ -756,9 +756,10 @@ sl_condition_bind (const SlCondition *condition, sqlite3_stmt *stmt, int first)
 /* For a builder                                                      */
 
 static void
-add_name (GArray *names, const char *name, SlConditionNameKind kind)
+add_name (GArray *names, const char *name, SlConditionNameKind kind, const char *description, const char *unit,
+          int bound)
 {
-  SlConditionName entry = { name, kind };
+  SlConditionName entry = { name, kind, description, unit ? unit : "", bound };
 
   g_array_append_val (names, entry);
 }
@@ -786,13 +787,16 @@ sl_condition_names (void)
     {
       Column column;
 
-      if (!resolve_name (sl_quantity_info (q)->name, &column))
+      const SlQuantityInfo *info = sl_quantity_info (q);
+
+      if (!resolve_name (info->name, &column))
         continue;
-      add_name (names, sl_quantity_info (q)->name, column.is_text ? SL_CONDITION_NAME_TEXT : SL_CONDITION_NAME_NUMBER);
+      add_name (names, info->name, column.is_text ? SL_CONDITION_NAME_TEXT : SL_CONDITION_NAME_NUMBER,
+                info->description, info->unit, 0);
       if (!column.is_text)
         {
-          add_name (names, bounds[q][0], SL_CONDITION_NAME_NUMBER);
-          add_name (names, bounds[q][1], SL_CONDITION_NAME_NUMBER);
+          add_name (names, bounds[q][0], SL_CONDITION_NAME_NUMBER, info->description, info->unit, -1);
+          add_name (names, bounds[q][1], SL_CONDITION_NAME_NUMBER, info->description, info->unit, +1);
         }
     }
   for (SlField f = 0; f < SL_N_FIELDS; f++)
@@ -800,12 +804,16 @@ sl_condition_names (void)
       Column column;
 
       /* A field that is also a quantity's name reaches the quantity. */
-      if (resolve_name (sl_field_info (f)->name, &column) && column.join != N_JOINS)
-        add_name (names, sl_field_info (f)->name, column.is_text ? SL_CONDITION_NAME_TEXT : SL_CONDITION_NAME_NUMBER);
+      const SlFieldInfo *info = sl_field_info (f);
+
+      if (resolve_name (info->name, &column) && column.join != N_JOINS)
+        add_name (names, info->name, column.is_text ? SL_CONDITION_NAME_TEXT : SL_CONDITION_NAME_NUMBER,
+                  info->description, column.is_text ? "" : sl_unit_name (info->canonical), 0);
     }
   for (guint i = 0; i < SL_N_FLAGS; i++)
-    add_name (names, sl_flag_info (i)->name, SL_CONDITION_NAME_FLAG);
-  add_name (names, "stale", SL_CONDITION_NAME_FLAG);
+    add_name (names, sl_flag_info (i)->name, SL_CONDITION_NAME_FLAG, sl_flag_info (i)->explanation, "", 0);
+  add_name (names, "stale", SL_CONDITION_NAME_FLAG,
+            N_("The inputs or hand-set values changed since the star was derived."), "", 0);
   return names;
 }
 

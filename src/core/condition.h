@@ -74,8 +74,11 @@ typedef enum {
 } SlConditionNameKind;
 
 typedef struct {
-  const char         *name;  /* static: "teff", "teff_lo", "vmag", "id", "stale" ... */
+  const char         *name;         /* static: "teff", "teff_lo", "vmag", "id", "stale" ... */
   SlConditionNameKind kind;
+  const char         *description;  /* what it is, English, marked N_(): translate with _() */
+  const char         *unit;         /* its unit's name, "" for none */
+  int                 bound;        /* -1 for NAME_lo, +1 for NAME_hi (68% interval), else 0 */
 } SlConditionName;
 
 /* Every name the language accepts, in the order a chooser shows them:
