@@ -67,16 +67,20 @@ find_info (SlListsPanel *self, const char *name)
   return NULL;
 }
 
+/* A compact row (the page shares its height with the members): the name
+ * and the count, then what the list is for and how it was made. */
 static GtkWidget *
 list_row (const SlListInfo *info)
 {
-  GtkWidget *row = adw_action_row_new ();
+  GtkWidget *row = gtk_list_box_row_new ();
+  GtkWidget *grid = gtk_grid_new ();
+  GtkWidget *name = gtk_label_new (info->name);
   g_autofree char *count = g_strdup_printf (g_dngettext (GETTEXT_PACKAGE, "%" G_GINT64_FORMAT " star",
                                                          "%" G_GINT64_FORMAT " stars", info->n_stars),
                                             info->n_stars);
+  GtkWidget *size = gtk_label_new (count);
   g_autoptr (GString) subtitle = g_string_new (NULL);
-  g_autofree char *name = g_markup_escape_text (info->name, -1);
-  GtkWidget *suffix = gtk_label_new (count);
+  GtkWidget *about;
 
   /* What the list is for, then how it was made. */
   if (info->description && *info->description)
@@ -87,16 +91,25 @@ list_row (const SlListInfo *info)
     g_string_append_printf (subtitle, "%s%s", subtitle->len ? " · " : "", _("chosen by hand"));
   if (info->n_stale > 0)
     g_string_append_printf (subtitle, " · %s", _("some values are stale"));
-  {
-    g_autofree char *escaped = g_markup_escape_text (subtitle->str, -1);
+  about = gtk_label_new (subtitle->str);
 
-    adw_preferences_row_set_title (ADW_PREFERENCES_ROW (row), name);
-    adw_action_row_set_subtitle (ADW_ACTION_ROW (row), escaped);
-  }
-  adw_action_row_set_subtitle_lines (ADW_ACTION_ROW (row), 1);
+  gtk_label_set_xalign (GTK_LABEL (name), 0.0);
+  gtk_label_set_ellipsize (GTK_LABEL (name), PANGO_ELLIPSIZE_END);
+  gtk_widget_set_hexpand (name, TRUE);
+  gtk_widget_add_css_class (name, "heading");
+  gtk_widget_add_css_class (size, "dim-label");
+  gtk_label_set_xalign (GTK_LABEL (about), 0.0);
+  gtk_label_set_ellipsize (GTK_LABEL (about), PANGO_ELLIPSIZE_END);
+  gtk_widget_add_css_class (about, "dim-label");
+  gtk_widget_add_css_class (about, "caption");
+  gtk_grid_set_column_spacing (GTK_GRID (grid), 12);
+  gtk_grid_attach (GTK_GRID (grid), name, 0, 0, 1, 1);
+  gtk_grid_attach (GTK_GRID (grid), size, 1, 0, 1, 1);
+  gtk_grid_attach (GTK_GRID (grid), about, 0, 1, 2, 1);
+  gtk_widget_set_margin_top (grid, 2);
+  gtk_widget_set_margin_bottom (grid, 2);
+  gtk_list_box_row_set_child (GTK_LIST_BOX_ROW (row), grid);
   gtk_widget_set_tooltip_text (row, subtitle->str);
-  gtk_widget_add_css_class (suffix, "dim-label");
-  adw_action_row_add_suffix (ADW_ACTION_ROW (row), suffix);
   g_object_set_data_full (G_OBJECT (row), "list-name", g_strdup (info->name), g_free);
   return row;
 }
