@@ -1273,6 +1273,16 @@ test_lists_members (void)
    * selects LHO 0001 everywhere and keeps the Lists page in front. */
   g_assert_true (sl_lists_panel_set_current (sl_window_get_lists_panel (demo), "by hand"));
   g_assert_cmpuint (panel_member_rows (), ==, 2);
+  {
+    GListModel *shown = G_LIST_MODEL (gtk_column_view_get_model (GTK_COLUMN_VIEW (
+      find_named (GTK_WIDGET (sl_window_get_lists_panel (demo)), "list-members"))));
+    g_autoptr (GtkStringObject) first = g_list_model_get_item (shown, 0);
+    g_autoptr (GtkStringObject) second = g_list_model_get_item (shown, 1);
+
+    g_assert_cmpstr (gtk_string_object_get_string (first), ==, "LHO 0002");   /* priority 3 */
+    g_assert_cmpstr (gtk_string_object_get_string (second), ==, "LHO 0001");
+    g_assert_null (g_list_model_get_item (shown, 2));
+  }
   notebook = gtk_widget_get_ancestor (GTK_WIDGET (sl_window_get_lists_panel (demo)), GTK_TYPE_NOTEBOOK);
   gtk_notebook_set_current_page (GTK_NOTEBOOK (notebook), 2);
   view = find_named (GTK_WIDGET (sl_window_get_lists_panel (demo)), "list-members");

@@ -2,9 +2,9 @@
  *
  * Contents:
  *   reading ........... reload: the lists (a GtkListBox: few) and the
- *                       chosen list's members (a GtkColumnView over a
- *                       GtkStringList of designations: a list made from a
- *                       condition may hold thousands)
+ *                       chosen list's members (a GtkColumnView over
+ *                       SlListMembersModel: a list made from a condition
+ *                       may hold a million stars)
  *   the views ......... the "Show" chooser: win.show-list
  *   editing a member .. a small dialog: priority, tags, notes
  *   export ............ CSV or LaTeX through sl_export, in a thread
@@ -22,6 +22,7 @@
 
 #include "export.h"
 #include "lists.h"
+#include "sl-list-members-model.h"
 #include "sl-new-list-dialog.h"
 #include "sl-window.h"
 
@@ -34,7 +35,6 @@ struct _SlListsPanel {
   GtkListBox       *lists;
   GtkLabel         *members_title;
   GtkColumnView    *members_view;
-  GtkStringList    *member_names;  /* the designations shown, in the core's order */
   GtkSingleSelection *member_selection;
   GtkWidget        *edit_button;
   GtkWidget        *export_button;
@@ -42,7 +42,7 @@ struct _SlListsPanel {
   GtkWidget        *add_button, *remove_button;
 
   GPtrArray        *infos;         /* SlListInfo, by name, as last read */
-  GHashTable       *members;       /* designation -> SlListMember (owned), of CURRENT */
+  SlListMembersModel *members;     /* of CURRENT, in the core's order (owned; the selection holds its own reference) */
   char             *current;       /* the list whose members are shown, or NULL */
   gboolean          updating;      /* the panel is changing its own widgets, or going: no reactions */
 };
@@ -133,34 +133,17 @@ update_sensitivity (SlListsPanel *self)
 static void
 show_members (SlListsPanel *self, SlProject *project)
 {
-  g_autoptr (GPtrArray) members = NULL;
+  GPtrArray *members = NULL;
   g_autoptr (GError) error = NULL;
-  g_autoptr (GStrvBuilder) names = g_strv_builder_new ();
-  g_auto (GStrv) designations = NULL;
-  guint old = g_list_model_get_n_items (G_LIST_MODEL (self->member_names));
 
-  g_hash_table_remove_all (self->members);
   if (self->current && project)
     {
       members = sl_list_members (project, self->current, &error);
       if (members == NULL)
         sl_window_toast (self->window, error->message);
     }
-  for (guint i = 0; members && i < members->len; i++)
-    {
-      SlListMember *member = members->pdata[i];
-
-      g_strv_builder_add (names, member->designation);
-      g_hash_table_insert (self->members, member->designation, member);
-    }
-  if (members)
-    {
-      /* The table owns them now. */
-      g_ptr_array_set_free_func (members, NULL);
-    }
-  designations = g_strv_builder_end (names);
   self->updating = TRUE;
-  gtk_string_list_splice (self->member_names, 0, old, (const char *const *) designations);
+  sl_list_members_model_set (self->members, members);
   gtk_single_selection_set_selected (self->member_selection, GTK_INVALID_LIST_POSITION);
   self->updating = FALSE;
 
@@ -335,9 +318,9 @@ static void
 bind_member_cell (GtkSignalListItemFactory *factory, GtkListItem *item, gpointer data)
 {
   SlListsPanel *self = g_object_get_data (G_OBJECT (factory), "panel");
-  GtkStringObject *object = gtk_list_item_get_item (item);
-  const char *designation = gtk_string_object_get_string (object);
-  const SlListMember *member = self->members ? g_hash_table_lookup (self->members, designation) : NULL;
+  const SlListMember *member = self->members ? sl_list_members_model_get_member (self->members,
+                                                                                  gtk_list_item_get_position (item))
+                                             : NULL;
   GtkLabel *label = GTK_LABEL (gtk_list_item_get_child (item));
   g_autofree char *priority = NULL;
 
@@ -425,16 +408,15 @@ form_label (const char *text)
 static void
 edit_member (SlListsPanel *self)
 {
-  GtkStringObject *item = gtk_single_selection_get_selected_item (self->member_selection);
   const SlListMember *member;
   MemberForm *form;
   GtkGrid *grid;
   AdwMessageDialog *dialog;
   g_autofree char *heading = NULL;
 
-  if (item == NULL || self->current == NULL)
+  if (self->current == NULL)
     return;
-  member = g_hash_table_lookup (self->members, gtk_string_object_get_string (item));
+  member = sl_list_members_model_get_member (self->members, gtk_single_selection_get_selected (self->member_selection));
   if (member == NULL)
     return;
   form = g_new0 (MemberForm, 1);
@@ -918,7 +900,7 @@ sl_lists_panel_dispose (GObject *object)
   /* The children going away emit their selection signals: not ours to follow. */
   self->updating = TRUE;
   g_clear_pointer (&self->infos, g_ptr_array_unref);
-  g_clear_pointer (&self->members, g_hash_table_unref);
+  g_clear_object (&self->members);
   g_clear_pointer (&self->current, g_free);
   g_clear_object (&self->show_names);
   G_OBJECT_CLASS (sl_lists_panel_parent_class)->dispose (object);
@@ -954,7 +936,6 @@ sl_lists_panel_init (SlListsPanel *self)
   GtkExpression *expression;
 
   gtk_orientable_set_orientation (GTK_ORIENTABLE (self), GTK_ORIENTATION_VERTICAL);
-  self->members = g_hash_table_new_full (g_str_hash, g_str_equal, NULL, (GDestroyNotify) sl_list_member_free);
 
   /* What the table and the views show. */
   gtk_widget_set_margin_start (top, 8);
@@ -1020,8 +1001,8 @@ sl_lists_panel_init (SlListsPanel *self)
   gtk_box_append (GTK_BOX (member_bar), self->edit_button);
   gtk_box_append (GTK_BOX (members_box), member_bar);
 
-  self->member_names = gtk_string_list_new (NULL);
-  self->member_selection = gtk_single_selection_new (G_LIST_MODEL (self->member_names));
+  self->members = sl_list_members_model_new ();
+  self->member_selection = gtk_single_selection_new (G_LIST_MODEL (g_object_ref (self->members)));
   gtk_single_selection_set_autoselect (self->member_selection, FALSE);
   gtk_single_selection_set_can_unselect (self->member_selection, TRUE);
   g_signal_connect_swapped (self->member_selection, "notify::selected", G_CALLBACK (on_member_selected), self);
