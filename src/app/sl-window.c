@@ -9,6 +9,8 @@
  *                           progress bar, Cancel)
  *   drag and drop ......... a project opens, a CSV file is imported
  *   settings .............. window size and pane positions (GSettings)
+ *   target lists .......... sl_window_show_list, sl_window_lists_changed (the
+ *                           Lists page and its actions: sl-lists-panel.c)
  *
  * The window computes nothing: it calls src/core and src/plot.
  */
