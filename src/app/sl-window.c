@@ -352,11 +352,13 @@ sl_window_open_project (SlWindow *self, const char *path, GError **error)
   g_return_val_if_fail (SL_IS_WINDOW (self), FALSE);
 
   project = sl_project_open (path, error);
+  if (project == NULL)
+    return FALSE;
   /* Another project shows every star. */
   if (self->shown_list)
     sl_catalogue_view_set_list (self->catalogue, NULL);
   g_clear_pointer (&self->shown_list, g_free);
-  if (project == NULL || !sl_catalogue_view_set_project (self->catalogue, path, error))
+  if (!sl_catalogue_view_set_project (self->catalogue, path, error))
     return FALSE;
 
   g_free (self->path);
