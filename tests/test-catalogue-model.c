@@ -12,6 +12,7 @@
 #include "derivation.h"
 #include "import.h"
 #include "inputs.h"
+#include "lists.h"
 #include "sl-catalogue-model.h"
 #include "sl-catalogue-row.h"
 #include "sl-catalogue-selection.h"
@@ -694,6 +695,83 @@ test_sort_async (SlTestProject *f, gconstpointer data)
 }
 
 /* ------------------------------------------------------------------ */
+/* A target list                                                      */
+
+/* Only the list's stars, in the order asked for (the reference's order
+ * with the other stars left out), in sync and async orders alike; back to
+ * every star without the list; a list that is gone shows none. */
+static void
+test_list (SlTestProject *f, gconstpointer data)
+{
+  g_autoptr (GArray) want = NULL;
+  g_autoptr (SlCatalogueModel) model = NULL;
+  g_autoptr (GError) error = NULL;
+  g_autoptr (GArray) members = NULL;
+  g_autoptr (GHashTable) in_list = g_hash_table_new (g_int64_hash, g_int64_equal);
+  g_autoptr (GMainLoop) loop = g_main_loop_new (NULL, FALSE);
+  g_autofree guint *order = NULL;
+  AsyncState state = { loop, 0, 0 };
+  gint64 n;
+  guint position = 0;
+
+  build_catalogue (f);
+  want = read_reference (f->project);
+  n = sl_list_create_from_condition (f->project, "cool", "teff < 5000 or sptype ~ 'M'", NULL, FALSE, &error);
+  g_assert_no_error (error);
+  g_assert_cmpint (n, >, 10);
+  g_assert_cmpint (n, <, (gint64) want->len / 2);
+  members = sl_list_star_ids (f->project, "cool", &error);
+  g_assert_no_error (error);
+  for (guint i = 0; i < members->len; i++)
+    g_hash_table_add (in_list, &g_array_index (members, gint64, i));
+
+  model = open_model (f);
+  sl_catalogue_model_set_list (model, "cool");
+  g_assert_cmpstr (sl_catalogue_model_get_list (model), ==, "cool");
+  /* Nothing changes until the model reads again. */
+  g_assert_cmpuint (g_list_model_get_n_items (G_LIST_MODEL (model)), ==, want->len);
+  g_assert_true (sl_catalogue_model_sort (model, SL_CATALOGUE_COLUMN_TEFF, TRUE, &error));
+  g_assert_no_error (error);
+  g_assert_cmpuint (g_list_model_get_n_items (G_LIST_MODEL (model)), ==, (guint) n);
+  order = ref_order (want, SL_CATALOGUE_COLUMN_TEFF, TRUE);
+  for (guint k = 0; k < want->len; k++)
+    {
+      const RefStar *ref = &g_array_index (want, RefStar, order[k]);
+      g_autoptr (SlCatalogueRow) row = NULL;
+
+      if (!g_hash_table_contains (in_list, &ref->id))
+        continue;
+      row = g_list_model_get_item (G_LIST_MODEL (model), position++);
+      g_assert_cmpstr (sl_catalogue_row_get_designation (row), ==, ref->text[SL_CATALOGUE_COLUMN_DESIGNATION]);
+    }
+  g_assert_cmpuint (position, ==, (guint) n);
+
+  /* An async reload keeps the list; a second call completes the loop. */
+  sl_catalogue_model_reload_async (model, NULL, on_order_done, &state);
+  sl_catalogue_model_sort_async (model, SL_CATALOGUE_COLUMN_NONE, FALSE, NULL, on_order_done, &state);
+  g_main_loop_run (loop);
+  g_assert_cmpuint (state.done, ==, 1);
+  g_assert_cmpuint (g_list_model_get_n_items (G_LIST_MODEL (model)), ==, (guint) n);
+  {
+    g_autoptr (SlCatalogueRow) first = g_list_model_get_item (G_LIST_MODEL (model), 0);
+    g_autofree char *name = sl_test_query_text (f->db, "SELECT s.designation FROM stars s JOIN list_members m "
+                                                       "ON m.star_id = s.id ORDER BY s.id LIMIT 1");
+
+    g_assert_cmpstr (sl_catalogue_row_get_designation (first), ==, name);
+  }
+
+  sl_catalogue_model_set_list (model, NULL);
+  g_assert_true (sl_catalogue_model_reload (model, &error));
+  g_assert_cmpuint (g_list_model_get_n_items (G_LIST_MODEL (model)), ==, want->len);
+
+  g_assert_true (sl_list_delete (f->project, "cool", &error));
+  sl_catalogue_model_set_list (model, "cool");
+  g_assert_true (sl_catalogue_model_reload (model, &error));
+  g_assert_no_error (error);
+  g_assert_cmpuint (g_list_model_get_n_items (G_LIST_MODEL (model)), ==, 0);
+}
+
+/* ------------------------------------------------------------------ */
 /* A large project                                                    */
 
 static void
@@ -804,6 +882,8 @@ main (int argc, char **argv)
   g_test_add ("/catalogue-model/reload", SlTestProject, NULL, sl_test_project_set_up, test_reload,
               sl_test_project_tear_down);
   g_test_add ("/catalogue-model/sort-async", SlTestProject, NULL, sl_test_project_set_up, test_sort_async,
+              sl_test_project_tear_down);
+  g_test_add ("/catalogue-model/list", SlTestProject, NULL, sl_test_project_set_up, test_list,
               sl_test_project_tear_down);
   g_test_add ("/catalogue-model/large", SlTestProject, NULL, sl_test_project_set_up, test_large,
               sl_test_project_tear_down);

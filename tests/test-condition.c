@@ -1129,6 +1129,93 @@ test_stale_as_stored (SlTestProject *f, gconstpointer data)
   g_assert_cmpuint (count_selected (f, "parallax = 20 and vmag = 6 and dist = 50"), ==, 1);
 }
 
+/* Every name a builder offers compiles with the operators of its kind,
+ * and with no other; each name is offered once; the tables' names are all
+ * there (a quantity, its bounds, an input, id, a flag, stale). */
+static void
+test_builder_names (void)
+{
+  static const char *const wanted[] = { "teff", "teff_lo", "teff_hi", "dist", "vmag", "vmag_err", "ra",
+                                        "sptype", "id", "low_parallax_snr", "stale", NULL };
+  g_autoptr (GArray) names = sl_condition_names ();
+  g_autoptr (GHashTable) seen = g_hash_table_new (g_str_hash, g_str_equal);
+
+  g_assert_cmpuint (names->len, >, 30);
+  for (guint i = 0; i < names->len; i++)
+    {
+      const SlConditionName *n = &g_array_index (names, SlConditionName, i);
+      g_autofree char *good = NULL;
+      g_autofree char *bad = NULL;
+      g_autoptr (SlCondition) condition = NULL;
+      g_autoptr (SlCondition) wrong = NULL;
+      g_autoptr (GError) error = NULL;
+
+      g_assert_false (g_hash_table_contains (seen, n->name));
+      g_hash_table_add (seen, (gpointer) n->name);
+      /* Each says what it is; a bound says which. */
+      g_assert_nonnull (n->description);
+      g_assert_cmpuint (strlen (n->description), >, 3);
+      g_assert_nonnull (n->unit);
+      g_assert_cmpint (n->bound, ==, g_str_has_suffix (n->name, "_lo") ? -1 : g_str_has_suffix (n->name, "_hi") ? 1 : 0);
+      switch (n->kind)
+        {
+        case SL_CONDITION_NAME_NUMBER:
+          good = g_strdup_printf ("%s >= 1.5 and %s is not missing", n->name, n->name);
+          bad = g_strdup_printf ("%s ~ 'x'", n->name);
+          break;
+        case SL_CONDITION_NAME_TEXT:
+          good = g_strdup_printf ("%s ~ 'V' or %s is missing", n->name, n->name);
+          bad = g_strdup_printf ("%s < 3", n->name);
+          break;
+        default:
+          good = g_strdup_printf ("not flag:%s", n->name);
+          bad = g_strdup_printf ("%s < 3", n->name);
+          break;
+        }
+      condition = sl_condition_compile (good, &error);
+      if (condition == NULL)
+        g_error ("%s: %s", good, error->message);
+      wrong = sl_condition_compile (bad, &error);
+      g_assert_null (wrong);
+      g_assert_error (error, SL_ERROR, SL_ERROR_BAD_INPUT);
+    }
+  for (guint i = 0; wanted[i]; i++)
+    if (!g_hash_table_contains (seen, wanted[i]))
+      g_error ("the builder's names lack %s", wanted[i]);
+  for (guint i = 0; i < names->len; i++)
+    {
+      const SlConditionName *n = &g_array_index (names, SlConditionName, i);
+
+      if (strcmp (n->name, "dist") == 0)
+        g_assert_cmpstr (n->unit, ==, "pc");
+      if (strcmp (n->name, "vmag") == 0)
+        g_assert_cmpstr (n->unit, ==, "mag");
+    }
+}
+
+/* A quoted string reads back as the text, quotes and backslashes
+ * included. */
+static void
+test_quote (void)
+{
+  static const char *const texts[] = { "G2V", "", "it's", "a\\b", "'\"'", "Ærø", NULL };
+
+  for (guint i = 0; texts[i]; i++)
+    {
+      g_autofree char *quoted = sl_condition_quote (texts[i]);
+      g_autofree char *text = g_strdup_printf ("sptype = %s", quoted);
+      g_autoptr (SlCondition) condition = compile_ok (text);
+
+      g_assert_cmpuint (condition->params->len, ==, 1);
+      g_assert_cmpstr (g_array_index (condition->params, SlConditionParam, 0).text, ==, texts[i]);
+    }
+  {
+    g_autofree char *quoted = sl_condition_quote ("it's");
+
+    g_assert_cmpstr (quoted, ==, "'it\\'s'");
+  }
+}
+
 int
 main (int argc, char **argv)
 {
@@ -1144,6 +1231,8 @@ main (int argc, char **argv)
   g_test_add_func ("/condition/missing", test_missing);
   g_test_add_func ("/condition/flags", test_flags);
   g_test_add_func ("/condition/strings", test_strings);
+  g_test_add_func ("/condition/builder/names", test_builder_names);
+  g_test_add_func ("/condition/builder/quote", test_quote);
   g_test_add_func ("/condition/literals-are-parameters", test_literals_are_parameters);
   g_test_add_func ("/condition/numbers", test_numbers);
   g_test_add_func ("/condition/errors/messages", test_errors);

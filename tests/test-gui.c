@@ -12,10 +12,12 @@
  * gui-shortcuts.png, gui-derive.png, gui-derive-lower.png, gui-welcome.png.
  * Look at them after changing what the window shows. */
 #include <errno.h>
+#include <glib/gstdio.h>
 #include <locale.h>
 #include <stdlib.h>
 #include <string.h>
 
+#include "condition.h"
 #include "derivation.h"
 #include "export.h"
 #include "ledger.h"
@@ -1953,6 +1955,498 @@ test_welcome_recent (void)
   sl_test_scratch_free (g_steal_pointer (&dir));
 }
 
+/* ------------------------------------------------------------------ */
+/* Target lists                                                       */
+
+/* The Lists page and the New List dialog, through their actions and
+ * widgets; checked against the project through src/core/lists.c.  They
+ * write gui-lists.png (the window with the Lists page), gui-new-list.png
+ * and gui-new-list-columns.png (the dialog, its column chooser open). */
+
+/* The first button under WIDGET whose label is LABEL (as written, with
+ * its mnemonic). */
+static GtkWidget *
+find_button_labelled (GtkWidget *widget, const char *label)
+{
+  if (GTK_IS_BUTTON (widget) && g_strcmp0 (gtk_button_get_label (GTK_BUTTON (widget)), label) == 0)
+    return widget;
+  for (GtkWidget *child = gtk_widget_get_first_child (widget); child; child = gtk_widget_get_next_sibling (child))
+    {
+      GtkWidget *found = find_button_labelled (child, label);
+
+      if (found)
+        return found;
+    }
+  return NULL;
+}
+
+/* Whether a label under WIDGET begins with PREFIX. */
+static gboolean
+label_under_starts_with (GtkWidget *widget, const char *prefix)
+{
+  if (GTK_IS_LABEL (widget) && g_str_has_prefix (gtk_label_get_text (GTK_LABEL (widget)), prefix))
+    return TRUE;
+  for (GtkWidget *child = gtk_widget_get_first_child (widget); child; child = gtk_widget_get_next_sibling (child))
+    if (label_under_starts_with (child, prefix))
+      return TRUE;
+  return FALSE;
+}
+
+/* List NAME's members as the core reads them, "STAR:PRIORITY:TAGS:NOTES|..."
+ * (highest priority first, then by designation); NULL if there is no such list. */
+static char *
+list_members (const char *name)
+{
+  g_autofree char *path = demo_path ();
+  g_autoptr (GError) error = NULL;
+  g_autoptr (SlProject) project = sl_project_open (path, &error);
+  g_autoptr (GPtrArray) members = NULL;
+  g_autoptr (GString) text = g_string_new (NULL);
+
+  g_assert_no_error (error);
+  members = sl_list_members (project, name, NULL);
+  if (members == NULL)
+    return NULL;
+  for (guint i = 0; i < members->len; i++)
+    {
+      const SlListMember *m = members->pdata[i];
+
+      g_string_append_printf (text, "%s%s:%" G_GINT64_FORMAT ":%s:%s", i ? "|" : "", m->designation, m->priority,
+                              m->tags, m->notes);
+    }
+  return g_string_free (g_steal_pointer (&text), FALSE);
+}
+
+static gint64
+list_size (const char *name)
+{
+  g_autofree char *path = demo_path ();
+  g_autoptr (SlProject) project = sl_project_open (path, NULL);
+  g_autoptr (GArray) ids = sl_list_star_ids (project, name, NULL);
+
+  return ids ? (gint64) ids->len : -1;
+}
+
+static gint64
+count_matching (const char *condition)
+{
+  g_autofree char *path = demo_path ();
+  g_autoptr (SlProject) project = sl_project_open (path, NULL);
+  g_autoptr (GError) error = NULL;
+  gint64 n = sl_list_count_matching (project, condition, &error);
+
+  g_assert_no_error (error);
+  return n;
+}
+
+/* The rows the Lists panel shows for the chosen list's members. */
+static guint
+panel_member_rows (void)
+{
+  GtkWidget *view = find_named (GTK_WIDGET (sl_window_get_lists_panel (demo)), "list-members");
+
+  g_assert_nonnull (view);
+  return g_list_model_get_n_items (G_LIST_MODEL (gtk_column_view_get_model (GTK_COLUMN_VIEW (view))));
+}
+
+static void
+create_list (const char *name, const char *description, const char *condition, gboolean with_selection)
+{
+  g_assert_true (gtk_widget_activate_action (GTK_WIDGET (demo), "win.create-list", "(sssb)", name, description,
+                                             condition, with_selection));
+}
+
+/* win.create-list from a condition: the list holds the stars the core
+ * counts for it, one ledger entry says so, the panel shows it with its
+ * members, and the Ledger tab shows the entry. */
+static void
+test_lists_create_from_condition (void)
+{
+  const char *condition = "teff > 6000 and dist < 150";
+  g_autofree char *path = demo_path ();
+  g_autoptr (SlLedgerEntry) newest = NULL;
+  guint before, after;
+  gint64 want;
+
+  ENSURE_DEMO ();
+  g_clear_pointer (&newest, sl_ledger_entry_free);
+  newest = newest_entry (path, &before);
+  want = count_matching (condition);
+  g_assert_cmpint (want, >, 5);
+  g_assert_cmpint (want, <, DEMO_STARS / 2);
+  create_list ("warm near", "spring run", condition, FALSE);
+
+  g_assert_cmpint (list_size ("warm near"), ==, want);
+  g_clear_pointer (&newest, sl_ledger_entry_free);
+  newest = newest_entry (path, &after);
+  g_assert_cmpuint (after, ==, before + 1);
+  g_assert_cmpstr (newest->action, ==, "list");
+  {
+    g_autofree char *summary = g_strdup_printf ("made list warm near: %" G_GINT64_FORMAT " stars where %s", want,
+                                                condition);
+
+    g_assert_cmpstr (newest->summary, ==, summary);
+  }
+  g_assert_true (ledger_view_starts_with (newest->at, "list"));
+  g_assert_cmpstr (sl_lists_panel_get_current (sl_window_get_lists_panel (demo)), ==, "warm near");
+  g_assert_cmpuint (panel_member_rows (), ==, (guint) want);
+
+  /* The same name again: an error in a toast, nothing written. */
+  create_list ("warm near", "", "teff > 1", FALSE);
+  g_clear_pointer (&newest, sl_ledger_entry_free);
+  newest = newest_entry (path, &before);
+  g_assert_cmpuint (before, ==, after);
+  g_assert_cmpint (list_size ("warm near"), ==, want);
+}
+
+/* From the selection alone, and from a condition and the selection in one
+ * ledger entry. */
+static void
+test_lists_create_from_selection (void)
+{
+  const char *const picked[] = { "LHO 0003", "LHO 0011", "LHO 0020", NULL };
+  const char *condition = "teff > 9000";
+  g_autofree char *path = demo_path ();
+  g_autoptr (SlLedgerEntry) newest = NULL;
+  g_autofree char *members = NULL;
+  guint before, after;
+  gint64 hot;
+
+  ENSURE_DEMO ();
+  sl_window_set_selection (demo, picked);
+  create_list ("picked", "", "", TRUE);
+  members = list_members ("picked");
+  g_assert_cmpstr (members, ==, "LHO 0003:0::|LHO 0011:0::|LHO 0020:0::");
+
+  hot = count_matching (condition);
+  g_assert_cmpint (hot, >, 0);
+  newest = newest_entry (path, &before);
+  create_list ("hot or picked", "", condition, TRUE);
+  g_clear_pointer (&newest, sl_ledger_entry_free);
+  newest = newest_entry (path, &after);
+  g_assert_cmpuint (after, ==, before + 1);
+  /* None of the three is that hot (LHO 0011 has no colour at all). */
+  g_assert_cmpint (list_size ("hot or picked"), ==, hot + 3);
+  {
+    g_autofree char *summary = g_strdup_printf ("made list hot or picked: %" G_GINT64_FORMAT " star%s where %s, "
+                                                "and 3 more by hand", hot, hot == 1 ? "" : "s", condition);
+
+    g_assert_cmpstr (newest->summary, ==, summary);
+  }
+
+  /* Without a condition, nothing selected: nothing is made. */
+  sl_window_set_selection (demo, NULL);
+  create_list ("nothing", "", "", TRUE);
+  g_assert_cmpint (list_size ("nothing"), ==, -1);
+}
+
+/* win.show-list: the table and the views show only the list's stars, and
+ * every star again with "". */
+static void
+test_lists_show_only (void)
+{
+  gint64 n;
+  guint all_drawn, all_rows;
+
+  ENSURE_DEMO ();
+  if (list_size ("warm near") < 0)
+    create_list ("warm near", "", "teff > 6000 and dist < 150", FALSE);
+  n = list_size ("warm near");
+  all_drawn = drawn (SL_PLOT_KIND_HRD);
+  all_rows = catalogue_rows ();
+  g_assert_cmpuint (all_rows, >=, DEMO_STARS);
+
+  g_assert_true (gtk_widget_activate_action (GTK_WIDGET (demo), "win.show-list", "s", "warm near"));
+  g_assert_cmpstr (sl_window_get_shown_list (demo), ==, "warm near");
+  {
+    AdwWindowTitle *title = ADW_WINDOW_TITLE (find_descendant (GTK_WIDGET (demo), ADW_TYPE_WINDOW_TITLE));
+
+    g_assert_true (g_str_has_prefix (adw_window_title_get_subtitle (title), "only list “warm near” · "));
+  }
+  WAIT_UNTIL (catalogue_rows () == (guint) n, LOAD_TIMEOUT_S, "the table to show the list");
+  WAIT_UNTIL (!sl_window_is_loading (demo), LOAD_TIMEOUT_S, "the views' stars");
+  PAINT (demo);
+  /* Every star of this list has a temperature and a distance: all drawn. */
+  g_assert_cmpuint (drawn (SL_PLOT_KIND_HRD), ==, (guint) n);
+  g_assert_cmpuint (drawn (SL_PLOT_KIND_SKY), ==, (guint) n);
+  g_assert_cmpuint (all_drawn, >, (guint) n);
+  {
+    GtkDropDown *show = GTK_DROP_DOWN (find_named (GTK_WIDGET (sl_window_get_lists_panel (demo)), "show-list"));
+    GListModel *model = gtk_drop_down_get_model (show);
+
+    g_assert_cmpstr (gtk_string_list_get_string (GTK_STRING_LIST (model), gtk_drop_down_get_selected (show)), ==,
+                     "warm near");
+  }
+
+  g_assert_true (gtk_widget_activate_action (GTK_WIDGET (demo), "win.show-list", "s", ""));
+  g_assert_null (sl_window_get_shown_list (demo));
+  WAIT_UNTIL (catalogue_rows () == all_rows, LOAD_TIMEOUT_S, "the table to show every star");
+  WAIT_UNTIL (!sl_window_is_loading (demo), LOAD_TIMEOUT_S, "the views' stars");
+  PAINT (demo);
+  g_assert_cmpuint (drawn (SL_PLOT_KIND_HRD), ==, all_drawn);
+}
+
+/* Adding and removing the selection, a member's priority, tags and notes
+ * (through the action and through the Edit Star dialog), choosing a member
+ * selects it everywhere, and a picture of the Lists page. */
+static void
+test_lists_members (void)
+{
+  const char *const two[] = { "LHO 0001", "LHO 0002", NULL };
+  const char *const one[] = { "LHO 0001", NULL };
+  g_autofree char *members = NULL;
+  GtkWidget *notebook, *view;
+  AdwMessageDialog *dialog;
+
+  ENSURE_DEMO ();
+  /* Neither a condition nor the selection: an empty list to fill by hand. */
+  create_list ("by hand", "checked by eye", "", FALSE);
+  g_assert_cmpint (list_size ("by hand"), ==, 0);
+  sl_window_set_selection (demo, two);
+  g_assert_true (gtk_widget_activate_action (GTK_WIDGET (demo), "win.add-to-list", "s", "by hand"));
+  g_assert_cmpint (list_size ("by hand"), ==, 2);
+
+  sl_window_set_selection (demo, one);
+  g_assert_true (gtk_widget_activate_action (GTK_WIDGET (demo), "win.remove-from-list", "s", "by hand"));
+  members = list_members ("by hand");
+  g_assert_cmpstr (members, ==, "LHO 0002:0::");
+  g_assert_true (gtk_widget_activate_action (GTK_WIDGET (demo), "win.add-to-list", "s", "by hand"));
+  g_assert_true (gtk_widget_activate_action (GTK_WIDGET (demo), "win.set-list-member", "(ssxss)", "by hand",
+                                             "LHO 0002", (gint64) 3, "binary", "check the companion"));
+  g_clear_pointer (&members, g_free);
+  members = list_members ("by hand");
+  g_assert_cmpstr (members, ==, "LHO 0002:3:binary:check the companion|LHO 0001:0::");
+  g_assert_true (ledger_view_starts_with ("", "set LHO 0002 in list by hand: priority 3"));
+
+  /* The panel lists the members in the core's order; choosing the second
+   * selects LHO 0001 everywhere and keeps the Lists page in front. */
+  g_assert_true (sl_lists_panel_set_current (sl_window_get_lists_panel (demo), "by hand"));
+  g_assert_cmpuint (panel_member_rows (), ==, 2);
+  {
+    GListModel *shown = G_LIST_MODEL (gtk_column_view_get_model (GTK_COLUMN_VIEW (
+      find_named (GTK_WIDGET (sl_window_get_lists_panel (demo)), "list-members"))));
+    g_autoptr (GtkStringObject) first = g_list_model_get_item (shown, 0);
+    g_autoptr (GtkStringObject) second = g_list_model_get_item (shown, 1);
+
+    g_assert_cmpstr (gtk_string_object_get_string (first), ==, "LHO 0002");   /* priority 3 */
+    g_assert_cmpstr (gtk_string_object_get_string (second), ==, "LHO 0001");
+    g_assert_null (g_list_model_get_item (shown, 2));
+  }
+  notebook = gtk_widget_get_ancestor (GTK_WIDGET (sl_window_get_lists_panel (demo)), GTK_TYPE_NOTEBOOK);
+  gtk_notebook_set_current_page (GTK_NOTEBOOK (notebook), 2);
+  view = find_named (GTK_WIDGET (sl_window_get_lists_panel (demo)), "list-members");
+  gtk_selection_model_select_item (gtk_column_view_get_model (GTK_COLUMN_VIEW (view)), 1, TRUE);
+  {
+    g_autofree char *selected = window_selection ();
+
+    g_assert_cmpstr (selected, ==, "LHO 0001");
+  }
+  g_assert_cmpint (gtk_notebook_get_current_page (GTK_NOTEBOOK (notebook)), ==, 2);
+
+  /* Edit Star… on LHO 0001 (a double click on its row does the same). */
+  g_signal_emit_by_name (view, "activate", 1);
+  WAIT_UNTIL ((dialog = open_message_dialog ()) != NULL, FRAME_TIMEOUT_S, "the Edit Star dialog");
+  {
+    GtkWidget *grid = adw_message_dialog_get_extra_child (dialog);
+    GtkWidget *spin = find_descendant (grid, GTK_TYPE_SPIN_BUTTON);
+    const char *const texts[] = { "faint, spring", "ask for a spectrum", NULL };
+    guint i = 0;
+
+    gtk_spin_button_set_value (GTK_SPIN_BUTTON (spin), 7);
+    for (GtkWidget *child = gtk_widget_get_first_child (grid); child; child = gtk_widget_get_next_sibling (child))
+      if (GTK_IS_ENTRY (child))
+        gtk_editable_set_text (GTK_EDITABLE (child), texts[i++]);
+    g_assert_cmpuint (i, ==, 2);
+  }
+  adw_message_dialog_response (dialog, "save");
+  gtk_window_close (GTK_WINDOW (dialog));
+  g_clear_pointer (&members, g_free);
+  members = list_members ("by hand");
+  g_assert_cmpstr (members, ==, "LHO 0001:7:faint, spring:ask for a spectrum|LHO 0002:3:binary:check the companion");
+
+  PAINT (demo);
+  {
+    cairo_surface_t *picture = render_widget (GTK_WIDGET (demo));
+    Census c = census_of (picture, GTK_WIDGET (sl_window_get_lists_panel (demo)));
+
+    save_png (picture, "gui-lists.png");
+    /* Lines of text: the chooser, the buttons, the lists, the members. */
+    g_assert_cmpuint (c.dark_bands, >=, 6);
+    cairo_surface_destroy (picture);
+  }
+}
+
+/* The New List dialog: rows write the condition, the count follows it, a
+ * mistake shows inline, Create makes the list and closes the dialog. */
+static void
+test_lists_new_dialog (void)
+{
+  GtkWindow *dialog = NULL;
+  GtkWidget *column, *op, *value, *text, *status;
+  GListModel *names;
+  guint teff = G_MAXUINT;
+  g_autofree char *want = NULL;
+
+  ENSURE_DEMO ();
+  sl_window_set_selection (demo, NULL);
+  g_assert_true (gtk_widget_activate_action (GTK_WIDGET (demo), "win.new-list", NULL));
+  WAIT_UNTIL ((dialog = find_toplevel (ADW_TYPE_WINDOW)) != NULL
+              && g_strcmp0 (gtk_window_get_title (dialog), "New List") == 0,
+              FRAME_TIMEOUT_S, "the New List dialog");
+  column = find_named (GTK_WIDGET (dialog), "condition-column");
+  op = find_named (GTK_WIDGET (dialog), "condition-op");
+  value = find_named (GTK_WIDGET (dialog), "condition-value");
+  text = find_named (GTK_WIDGET (dialog), "condition-text");
+  status = find_named (GTK_WIDGET (dialog), "match-count");
+  g_assert_true (column && op && value && text && status);
+
+  /* The column chooser offers the core's names. */
+  names = gtk_drop_down_get_model (GTK_DROP_DOWN (column));
+  for (guint i = 0; i < g_list_model_get_n_items (names); i++)
+    if (g_strcmp0 (gtk_string_list_get_string (GTK_STRING_LIST (names), i), "teff") == 0)
+      teff = i;
+  g_assert_cmpuint (teff, !=, G_MAXUINT);
+  {
+    g_autoptr (GArray) core = sl_condition_names ();
+
+    g_assert_cmpuint (g_list_model_get_n_items (names), ==, core->len);
+  }
+
+  gtk_editable_set_text (GTK_EDITABLE (find_named (GTK_WIDGET (dialog), "list-name")), "from the dialog");
+  gtk_drop_down_set_selected (GTK_DROP_DOWN (column), teff);
+  gtk_drop_down_set_selected (GTK_DROP_DOWN (op), 4);   /* > */
+  gtk_editable_set_text (GTK_EDITABLE (value), "7000");
+  g_assert_cmpstr (gtk_editable_get_text (GTK_EDITABLE (text)), ==, "teff > 7000");
+
+  /* A second row, any of: a text column with contains. */
+  g_signal_emit_by_name (find_named (GTK_WIDGET (dialog), "add-condition"), "clicked");
+  {
+    GtkWidget *rows = gtk_widget_get_parent (gtk_widget_get_parent (column));
+    GtkWidget *second = gtk_widget_get_last_child (rows);
+    GtkWidget *column2 = find_named (second, "condition-column");
+    GListModel *model = gtk_drop_down_get_model (GTK_DROP_DOWN (column2));
+
+    for (guint i = 0; i < g_list_model_get_n_items (model); i++)
+      if (g_strcmp0 (gtk_string_list_get_string (GTK_STRING_LIST (model), i), "sptype") == 0)
+        gtk_drop_down_set_selected (GTK_DROP_DOWN (column2), i);
+    gtk_drop_down_set_selected (GTK_DROP_DOWN (find_named (second, "condition-op")), 2);   /* contains */
+    gtk_editable_set_text (GTK_EDITABLE (find_named (second, "condition-value")), "III");
+  }
+  gtk_drop_down_set_selected (GTK_DROP_DOWN (find_named (GTK_WIDGET (dialog), "condition-combine")), 1);
+  g_assert_cmpstr (gtk_editable_get_text (GTK_EDITABLE (text)), ==, "teff > 7000 or sptype ~ 'III'");
+  want = g_strdup_printf ("%" G_GINT64_FORMAT " derived stars match now.",
+                          count_matching ("teff > 7000 or sptype ~ 'III'"));
+  WAIT_UNTIL (g_strcmp0 (gtk_label_get_text (GTK_LABEL (status)), want) == 0, FRAME_TIMEOUT_S, "the count");
+  g_assert_true (gtk_widget_get_sensitive (find_named (GTK_WIDGET (dialog), "create-list")));
+  PAINT (dialog);
+  {
+    cairo_surface_t *picture = render_widget (GTK_WIDGET (dialog));
+
+    save_png (picture, "gui-new-list.png");
+    cairo_surface_destroy (picture);
+  }
+
+  /* The column chooser, open, says what each name is. */
+  g_signal_emit_by_name (column, "activate");
+  {
+    GtkWidget *popover = find_descendant (column, GTK_TYPE_POPOVER);
+
+    g_assert_nonnull (popover);
+    WAIT_UNTIL (gtk_widget_get_mapped (popover), FRAME_TIMEOUT_S, "the column chooser to open");
+    PAINT (popover);
+    WAIT_UNTIL (label_under_starts_with (popover, "lower bound (68%) of: "), FRAME_TIMEOUT_S,
+                "the names' descriptions");
+    {
+      cairo_surface_t *picture = render_widget (popover);
+
+      save_png (picture, "gui-new-list-columns.png");
+      cairo_surface_destroy (picture);
+    }
+    gtk_popover_popdown (GTK_POPOVER (popover));
+  }
+
+  /* A mistake in the text: the compiler's message, Create disabled. */
+  gtk_editable_set_text (GTK_EDITABLE (text), "teff > 7000 or sptyp ~ 'III'");
+  WAIT_UNTIL (g_str_has_prefix (gtk_label_get_text (GTK_LABEL (status)), "at 16: unknown name 'sptyp' (did you mean"),
+              FRAME_TIMEOUT_S, "the compiler's message");
+  g_assert_true (gtk_widget_has_css_class (status, "error"));
+  g_assert_false (gtk_widget_get_sensitive (find_named (GTK_WIDGET (dialog), "create-list")));
+
+  /* Written by hand, then made. */
+  gtk_editable_set_text (GTK_EDITABLE (text), "(teff > 7000 or sptype ~ 'III') and not flag:low_parallax_snr");
+  WAIT_UNTIL (gtk_widget_get_sensitive (find_named (GTK_WIDGET (dialog), "create-list")), FRAME_TIMEOUT_S,
+              "Create to be possible");
+  g_object_add_weak_pointer (G_OBJECT (dialog), (gpointer *) &dialog);
+  g_signal_emit_by_name (find_named (GTK_WIDGET (dialog), "create-list"), "clicked");
+  WAIT_UNTIL (dialog == NULL, FRAME_TIMEOUT_S, "the dialog to close");
+  g_assert_cmpint (list_size ("from the dialog"), ==,
+                   count_matching ("(teff > 7000 or sptype ~ 'III') and not flag:low_parallax_snr"));
+}
+
+/* Export through the core's export (CSV and LaTeX), then Delete: the list
+ * is gone, and the table shows every star again if it showed the list. */
+static void
+test_lists_export_delete (void)
+{
+  g_autofree char *dir = g_dir_make_tmp ("starledger-lists-XXXXXX", NULL);
+  g_autofree char *csv = g_build_filename (dir, "warm.csv", NULL);
+  g_autofree char *tex = g_build_filename (dir, "warm.tex", NULL);
+  g_autofree char *contents = NULL;
+  g_auto (GStrv) lines = NULL;
+  g_autofree char *path = demo_path ();
+  g_autoptr (SlLedgerEntry) newest = NULL;
+  guint n_entries, all_rows;
+  gint64 n;
+
+  ENSURE_DEMO ();
+  all_rows = catalogue_rows ();
+  if (list_size ("warm near") < 0)
+    create_list ("warm near", "", "teff > 6000 and dist < 150", FALSE);
+  n = list_size ("warm near");
+  g_assert_true (gtk_widget_activate_action (GTK_WIDGET (demo), "win.export-list-to", "(ss)", "warm near", csv));
+  WAIT_UNTIL (!sl_window_is_working (demo), LOAD_TIMEOUT_S, "the CSV export");
+  g_assert_true (g_file_get_contents (csv, &contents, NULL, NULL));
+  lines = g_strsplit (g_strchomp (contents), "\n", -1);
+  g_assert_cmpuint (g_strv_length (lines), ==, (guint) n + 1);
+  g_clear_pointer (&contents, g_free);
+  g_assert_true (gtk_widget_activate_action (GTK_WIDGET (demo), "win.export-list-to", "(ss)", "warm near", tex));
+  WAIT_UNTIL (!sl_window_is_working (demo), LOAD_TIMEOUT_S, "the LaTeX export");
+  g_assert_true (g_file_get_contents (tex, &contents, NULL, NULL));
+  g_assert_nonnull (strstr (contents, "\\begin{tabular}"));
+
+  /* Delete… asks first: Cancel keeps the list, Delete deletes it. */
+  g_assert_true (sl_lists_panel_set_current (sl_window_get_lists_panel (demo), "by hand"));
+  for (int round = 0; round < 2; round++)
+    {
+      GtkWidget *delete = find_button_labelled (GTK_WIDGET (sl_window_get_lists_panel (demo)), "_Delete…");
+      AdwMessageDialog *dialog;
+
+      g_assert_nonnull (delete);
+      g_signal_emit_by_name (delete, "clicked");
+      WAIT_UNTIL ((dialog = open_message_dialog ()) != NULL, FRAME_TIMEOUT_S, "the confirmation");
+      g_assert_cmpstr (adw_message_dialog_get_heading (dialog), ==, "Delete List by hand?");
+      adw_message_dialog_response (dialog, round == 0 ? "cancel" : "delete");
+      gtk_window_close (GTK_WINDOW (dialog));
+      WAIT_UNTIL (open_message_dialog () == NULL, FRAME_TIMEOUT_S, "the confirmation to close");
+      g_assert_cmpint (list_size ("by hand"), ==, round == 0 ? 2 : -1);
+    }
+  g_assert_null (sl_lists_panel_get_current (sl_window_get_lists_panel (demo)));
+
+  g_assert_true (gtk_widget_activate_action (GTK_WIDGET (demo), "win.show-list", "s", "warm near"));
+  WAIT_UNTIL (catalogue_rows () == (guint) n, LOAD_TIMEOUT_S, "the table to show the list");
+  g_assert_true (gtk_widget_activate_action (GTK_WIDGET (demo), "win.delete-list", "s", "warm near"));
+  g_assert_cmpint (list_size ("warm near"), ==, -1);
+  newest = newest_entry (path, &n_entries);
+  g_assert_true (g_str_has_prefix (newest->summary, "deleted list warm near"));
+  g_assert_null (sl_window_get_shown_list (demo));
+  WAIT_UNTIL (catalogue_rows () == all_rows, LOAD_TIMEOUT_S, "the table to show every star");
+  WAIT_UNTIL (!sl_window_is_loading (demo), LOAD_TIMEOUT_S, "the views' stars");
+
+  g_unlink (csv);
+  g_unlink (tex);
+  g_rmdir (dir);
+}
+
 int
 main (int argc, char **argv)
 {
@@ -2013,6 +2507,12 @@ main (int argc, char **argv)
   g_test_add_func ("/gui/views/maximize", test_maximize_view);
   g_test_add_func ("/gui/derive/dialog", test_derive_dialog);
   g_test_add_func ("/gui/welcome/recent-projects", test_welcome_recent);
+  g_test_add_func ("/gui/lists/create-from-condition", test_lists_create_from_condition);
+  g_test_add_func ("/gui/lists/create-from-selection", test_lists_create_from_selection);
+  g_test_add_func ("/gui/lists/show-only", test_lists_show_only);
+  g_test_add_func ("/gui/lists/members", test_lists_members);
+  g_test_add_func ("/gui/lists/new-dialog", test_lists_new_dialog);
+  g_test_add_func ("/gui/lists/export-delete", test_lists_export_delete);
   status = g_test_run ();
 
   if (demo)

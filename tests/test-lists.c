@@ -545,6 +545,94 @@ test_star_set_list (SlTestProject *f, gconstpointer data)
   g_assert_error (error, SL_ERROR, SL_ERROR_UNKNOWN_NAME);
 }
 
+/* A condition and a selection make one list in one transaction with one
+ * ledger entry; a star the condition already holds is not counted twice;
+ * an unknown star changes nothing. */
+static void
+test_create_with_stars (SlTestProject *f, gconstpointer data)
+{
+  static const char *const chosen[] = { "A", "D", NULL };
+  static const char *const unknown[] = { "C", "Nope", NULL };
+  g_autoptr (GError) error = NULL;
+  g_autofree char *members = NULL;
+  g_autofree char *summary = NULL;
+  g_autofree char *added = NULL;
+  g_autofree char *before = NULL;
+  g_autofree char *after = NULL;
+  g_autofree char *hand = NULL;
+  g_autofree char *condition = NULL;
+  gint64 ledger = ledger_count (f);
+
+  /* teff > 5000 and dist < 100 holds A and B; D comes by hand. */
+  g_assert_cmpint (sl_list_create_with_stars (f->project, "both", "teff > 5000 and dist < 100", chosen,
+                                              "spring", &error), ==, 3);
+  g_assert_no_error (error);
+  members = members_of (f, "both");
+  g_assert_cmpstr (members, ==, "A,B,D");
+  g_assert_cmpint (ledger_count (f), ==, ledger + 1);
+  summary = last_ledger (f, "summary");
+  g_assert_cmpstr (summary, ==, "made list both: 2 stars where teff > 5000 and dist < 100, and 1 more by hand");
+  added = last_ledger (f, "json_extract(details, '$.added')");
+  g_assert_cmpstr (added, ==, "[\"D\"]");
+  condition = sl_test_query_text (f->db, "SELECT condition FROM lists WHERE name = 'both'");
+  g_assert_cmpstr (condition, ==, "teff > 5000 and dist < 100");
+
+  /* Only a selection: a list by hand, without a condition. */
+  g_assert_cmpint (sl_list_create_with_stars (f->project, "picked", NULL, chosen, NULL, &error), ==, 2);
+  g_assert_no_error (error);
+  hand = sl_test_query_text (f->db, "SELECT coalesce(condition, 'none') FROM lists WHERE name = 'picked'");
+  g_assert_cmpstr (hand, ==, "none");
+  g_clear_pointer (&summary, g_free);
+  summary = last_ledger (f, "summary");
+  g_assert_cmpstr (summary, ==, "made list picked by hand: 2 stars");
+
+  /* An unknown star, an existing name, a bad condition: nothing changes. */
+  before = snapshot (f);
+  g_assert_cmpint (sl_list_create_with_stars (f->project, "bad", "teff > 1", unknown, NULL, &error), ==, -1);
+  g_assert_error (error, SL_ERROR, SL_ERROR_UNKNOWN_NAME);
+  g_assert_nonnull (strstr (error->message, "no star 'Nope'"));
+  g_clear_error (&error);
+  g_assert_cmpint (sl_list_create_with_stars (f->project, "both", NULL, chosen, NULL, &error), ==, -1);
+  g_assert_error (error, SL_ERROR, SL_ERROR_EXISTS);
+  g_clear_error (&error);
+  g_assert_cmpint (sl_list_create_with_stars (f->project, "bad", "teff >", chosen, NULL, &error), ==, -1);
+  g_assert_error (error, SL_ERROR, SL_ERROR_BAD_INPUT);
+  after = snapshot (f);
+  g_assert_cmpstr (after, ==, before);
+}
+
+/* The live count agrees with the list the same condition makes, and
+ * writes nothing; a mistake comes back from the compiler with its column. */
+static void
+test_count_matching (SlTestProject *f, gconstpointer data)
+{
+  static const char *const conditions[] = {
+    "teff > 5000", "teff > 5000 and dist < 100", "dist is missing", "sptype ~ 'v'", "teff > 100000", NULL
+  };
+  g_autoptr (GError) error = NULL;
+  g_autofree char *before = snapshot (f);
+  g_autofree char *after = NULL;
+
+  for (guint i = 0; conditions[i]; i++)
+    {
+      g_autofree char *name = g_strdup_printf ("c%u", i);
+      gint64 counted = sl_list_count_matching (f->project, conditions[i], &error);
+
+      g_assert_no_error (error);
+      g_assert_cmpint (sl_list_count_matching (f->project, conditions[i], &error), ==, counted);
+      if (i == 0)
+        {
+          after = snapshot (f);
+          g_assert_cmpstr (after, ==, before);
+        }
+      g_assert_cmpint (create_ok (f, name, conditions[i], FALSE), ==, counted);
+    }
+  g_assert_cmpint (sl_list_count_matching (f->project, "teff > 5000", NULL), ==, 3);
+  g_assert_cmpint (sl_list_count_matching (f->project, "teff > 5000 and tef < 2", &error), ==, -1);
+  g_assert_error (error, SL_ERROR, SL_ERROR_BAD_INPUT);
+  g_assert_true (g_str_has_prefix (error->message, "at 17: unknown name 'tef'"));
+}
+
 int
 main (int argc, char **argv)
 {
@@ -559,6 +647,8 @@ main (int argc, char **argv)
   ADD ("/lists/create/duplicate", test_create_duplicate);
   ADD ("/lists/create/replace", test_create_replace);
   ADD ("/lists/create/bad-condition", test_create_bad_condition);
+  ADD ("/lists/create/with-stars", test_create_with_stars);
+  ADD ("/lists/count-matching", test_count_matching);
   ADD ("/lists/names", test_names);
   ADD ("/lists/members/add-remove", test_add_remove);
   ADD ("/lists/members/set", test_set_member);

@@ -6,7 +6,7 @@
  *   the order .............. query_order: the star ids sorted in SQL
  *   pages .................. load_page, get_page, the LRU cache, check_state
  *   GListModel ............. get_item_type, get_n_items, get_item
- *   the project ............ set_project, reload, sort (and async), find
+ *   the project ............ set_project, set_list, reload, sort (and async), find
  */
 #include "sl-catalogue-model.h"
 
@@ -101,17 +101,22 @@ quantity_of_column (SlCatalogueColumn column)
 /* ------------------------------------------------------------------ */
 /* The order                                                          */
 
+/* The members of the list named by parameter ?1 (lists.c's tables). */
+#define LIST_MEMBERS_SQL "SELECT m.star_id FROM list_members m JOIN lists l ON l.id = m.list_id WHERE l.name = ?1"
+
+/* With IN_LIST, only the stars of the list bound to ?1. */
 static char *
-order_sql (SlCatalogueColumn column, gboolean descending)
+order_sql (SlCatalogueColumn column, gboolean descending, gboolean in_list)
 {
+  const char *where = in_list ? " WHERE s.id IN (" LIST_MEMBERS_SQL ")" : "";
   g_autofree char *key = NULL;
 
   if (column == SL_CATALOGUE_COLUMN_NONE)
-    return g_strdup ("SELECT id FROM stars ORDER BY id");
+    return g_strdup_printf ("SELECT s.id FROM stars s%s ORDER BY s.id", where);
   key = sort_keys[column].key ? g_strdup (sort_keys[column].key)
                               : g_strdup_printf ("d.%s", sl_quantity_info (quantity_of_column (column))->name);
-  return g_strdup_printf ("SELECT s.id FROM stars s%s ORDER BY %s %s NULLS LAST, s.id", sort_keys[column].joins,
-                          key, descending ? "DESC" : "ASC");
+  return g_strdup_printf ("SELECT s.id FROM stars s%s%s ORDER BY %s %s NULLS LAST, s.id", sort_keys[column].joins,
+                          where, key, descending ? "DESC" : "ASC");
 }
 
 static int
@@ -120,13 +125,13 @@ interrupt_if_cancelled (void *cancellable)
   return g_cancellable_is_cancelled (cancellable);
 }
 
-/* The star ids in the order asked for. */
+/* The star ids in the order asked for; only LIST's unless it is NULL. */
 static GArray *
-query_order (SlProject *project, SlCatalogueColumn column, gboolean descending, GCancellable *cancellable,
-             GError **error)
+query_order (SlProject *project, SlCatalogueColumn column, gboolean descending, const char *list,
+             GCancellable *cancellable, GError **error)
 {
   sqlite3 *db = sl_project_db (project);
-  g_autofree char *sql = order_sql (column, descending);
+  g_autofree char *sql = order_sql (column, descending, list != NULL);
   g_autoptr (GArray) ids = NULL;
   sqlite3_stmt *stmt;
   gint64 count = 0;
@@ -136,13 +141,18 @@ query_order (SlProject *project, SlCatalogueColumn column, gboolean descending, 
   if (!sl_project_exec (project, "BEGIN", error))
     return NULL;
   /* Counted first so that the array is allocated once. */
-  stmt = sl_project_prepare (project, "SELECT count(*) FROM stars", error);
+  stmt = sl_project_prepare (project, list ? "SELECT count(*) FROM (" LIST_MEMBERS_SQL ")"
+                                            : "SELECT count(*) FROM stars", error);
   if (stmt != NULL)
     {
+      if (list)
+        sqlite3_bind_text (stmt, 1, list, -1, SQLITE_STATIC);
       if (sqlite3_step (stmt) == SQLITE_ROW)
         count = sqlite3_column_int64 (stmt, 0);
       sqlite3_finalize (stmt);
       stmt = sl_project_prepare (project, sql, error);
+      if (stmt != NULL && list)
+        sqlite3_bind_text (stmt, 1, list, -1, SQLITE_STATIC);
     }
   if (stmt == NULL)
     {
@@ -207,6 +217,7 @@ struct _SlCatalogueModel {
   GArray           *ids;           /* gint64 star ids in display order; NULL without a project */
   SlCatalogueColumn sort_column;
   gboolean          descending;
+  char             *list;          /* only this target list's stars; NULL: every star */
   guint             generation;    /* bumped whenever ids may change: stale async orders are dropped */
 
   Page              pages[SL_CATALOGUE_MODEL_MAX_PAGES];
@@ -547,12 +558,30 @@ sl_catalogue_model_set_project (SlCatalogueModel *self, const char *path, GError
   if (path != NULL)
     {
       if (open_project (self, path, error))
-        ids = query_order (self->project, self->sort_column, self->descending, NULL, error);
+        ids = query_order (self->project, self->sort_column, self->descending, self->list, NULL, error);
       if (ids == NULL)
         close_project (self);
     }
   replace_ids (self, g_steal_pointer (&ids));
   return path == NULL || self->project != NULL;
+}
+
+void
+sl_catalogue_model_set_list (SlCatalogueModel *self, const char *list)
+{
+  char *copy = g_strdup (list);
+
+  g_return_if_fail (SL_IS_CATALOGUE_MODEL (self));
+
+  g_free (self->list);
+  self->list = copy;
+}
+
+const char *
+sl_catalogue_model_get_list (SlCatalogueModel *self)
+{
+  g_return_val_if_fail (SL_IS_CATALOGUE_MODEL (self), NULL);
+  return self->list;
 }
 
 const char *
@@ -575,7 +604,7 @@ sl_catalogue_model_sort (SlCatalogueModel *self, SlCatalogueColumn column, gbool
   self->descending = descending;
   if (self->project == NULL)
     return TRUE;
-  ids = query_order (self->project, column, descending, NULL, error);
+  ids = query_order (self->project, column, descending, self->list, NULL, error);
   if (ids == NULL)
     return FALSE;
   replace_ids (self, ids);
@@ -605,6 +634,7 @@ typedef struct {
   char             *path;
   SlCatalogueColumn column;
   gboolean          descending;
+  char             *list;
   guint             generation;   /* the model's when asked */
 } OrderJob;
 
@@ -614,6 +644,7 @@ order_job_free (gpointer data)
   OrderJob *job = data;
 
   g_free (job->path);
+  g_free (job->list);
   g_free (job);
 }
 
@@ -623,7 +654,7 @@ order_thread (GTask *task, gpointer source, gpointer data, GCancellable *cancell
   OrderJob *job = data;
   GError *error = NULL;
   g_autoptr (SlProject) project = open_reader (job->path, &error);
-  GArray *ids = project ? query_order (project, job->column, job->descending, cancellable, &error) : NULL;
+  GArray *ids = project ? query_order (project, job->column, job->descending, job->list, cancellable, &error) : NULL;
 
   if (ids)
     g_task_return_pointer (task, ids, (GDestroyNotify) g_array_unref);
@@ -679,6 +710,7 @@ order_async (SlCatalogueModel *self, SlCatalogueColumn column, gboolean descendi
   job->path = g_strdup (self->path);
   job->column = column;
   job->descending = descending;
+  job->list = g_strdup (self->list);
   job->generation = self->generation;
   inner = g_task_new (self, cancellable, on_order_ready, outer);
   g_task_set_task_data (inner, job, order_job_free);
@@ -800,6 +832,7 @@ sl_catalogue_model_finalize (GObject *object)
 
   drop_pages (self);
   g_clear_pointer (&self->ids, g_array_unref);
+  g_clear_pointer (&self->list, g_free);
   close_project (self);
   G_OBJECT_CLASS (sl_catalogue_model_parent_class)->finalize (object);
 }

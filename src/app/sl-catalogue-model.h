@@ -31,6 +31,12 @@ SlCatalogueModel *sl_catalogue_model_new (void);
 gboolean  sl_catalogue_model_set_project (SlCatalogueModel *self, const char *path, GError **error);
 const char *sl_catalogue_model_get_path  (SlCatalogueModel *self);
 
+/* Shows only the stars of target list LIST (lists.h); NULL: every star.
+ * Takes effect at the next set_project, reload or sort (sync or async);
+ * a list that does not exist (any longer) shows no stars. */
+void        sl_catalogue_model_set_list (SlCatalogueModel *self, const char *list);
+const char *sl_catalogue_model_get_list (SlCatalogueModel *self);
+
 /* Reads the stars again (after an import or a derivation), keeping the
  * order. */
 gboolean  sl_catalogue_model_reload (SlCatalogueModel *self, GError **error);

@@ -6,7 +6,7 @@
  *   clicks ........... a click on a value, Enter or a double click: "cell-activated"
  *   sorting .......... header clicks become an order computed in SQL
  *   selection ........ kept as designations, so it survives sorts and reloads
- *   the project ...... sl_catalogue_view_set_project, _reload
+ *   the project ...... sl_catalogue_view_set_project, _reload, _set_list
  *
  * The selection model is SlCatalogueSelection, a bitset: GtkMultiSelection
  * would fetch (and keep) every selected row, all million of them after
@@ -428,6 +428,15 @@ sl_catalogue_view_reload (SlCatalogueView *view)
   start_ordering (view);
   view->reloading = TRUE;
   sl_catalogue_model_reload_async (view->model, view->ordering, on_order_done, g_object_ref (view));
+}
+
+void
+sl_catalogue_view_set_list (SlCatalogueView *view, const char *list)
+{
+  g_return_if_fail (SL_IS_CATALOGUE_VIEW (view));
+
+  sl_catalogue_model_set_list (view->model, list);
+  sl_catalogue_view_reload (view);
 }
 
 /* ------------------------------------------------------------------ */

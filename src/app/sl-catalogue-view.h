@@ -23,6 +23,10 @@ gboolean sl_catalogue_view_set_project (SlCatalogueView *view, const char *path,
 /* Re-reads the rows after the project changed (import, derive). */
 void     sl_catalogue_view_reload (SlCatalogueView *view);
 
+/* Shows only the stars of target list LIST; NULL: every star (re-reads
+ * the rows as reload does). */
+void     sl_catalogue_view_set_list (SlCatalogueView *view, const char *list);
+
 /* Selects (and scrolls to) the stars named; NULL: none. */
 void     sl_catalogue_view_set_selection (SlCatalogueView *view, const char *const *designations);
 

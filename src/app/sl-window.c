@@ -10,6 +10,8 @@
  *   the views ............. Export Figure… (sl-figure-dialog.c), maximise one view
  *   drag and drop ......... a project opens, a CSV file opens the import assistant
  *   settings .............. window size and pane positions (GSettings)
+ *   target lists .......... sl_window_show_list, sl_window_lists_changed (the
+ *                           Lists page and its actions: sl-lists-panel.c)
  *
  * The window computes nothing: it calls src/core and src/plot.
  */
@@ -29,6 +31,7 @@
 #include "sl-derive-dialog.h"
 #include "sl-figure-dialog.h"
 #include "sl-import-dialog.h"
+#include "sl-lists-panel.h"
 #include "sl-plot-view.h"
 #include "sl-recent-projects.h"
 #include "sl-view-pane.h"
@@ -57,6 +60,8 @@ struct _SlWindow {
 
   SlCatalogueView *catalogue;
   SlPlotView      *views[3];          /* indexed by SlPlotKind */
+  SlListsPanel    *lists;             /* the Lists page of side_notebook */
+  char            *shown_list;        /* the table and views show only this list; NULL: every star */
 
   char            *path;              /* the open project, or NULL */
   char            *trail_star;        /* what the Trail shows: this star's ... */
@@ -270,16 +275,19 @@ set_stars (SlWindow *self, SlStarSet *stars)
     sl_plot_view_set_selection (self->views[i], (const char *const *) self->selection);
 }
 
+/* task_data: the project's path, then the list's name or nothing (see load_stars). */
 static void
 load_stars_thread (GTask *task, gpointer source, gpointer task_data, GCancellable *cancellable)
 {
-  const char *path = task_data;
+  const char *const *what = task_data;
   g_autoptr (SlProject) project = NULL;
   GError *error = NULL;
   SlStarSet *stars = NULL;
 
-  project = sl_project_open (path, &error);
-  if (project)
+  project = sl_project_open (what[0], &error);
+  if (project && what[1])
+    stars = sl_star_set_load_list_full (project, what[1], cancellable, &error);
+  else if (project)
     stars = sl_star_set_load_full (project, NULL, cancellable, &error);
   if (stars)
     g_task_return_pointer (task, stars, (GDestroyNotify) sl_star_set_free);
@@ -315,7 +323,13 @@ load_stars (SlWindow *self)
   self->work = g_cancellable_new ();
   self->busy++;
   task = g_task_new (self, self->work, on_stars_loaded, NULL);
-  g_task_set_task_data (task, g_strdup (self->path), g_free);
+  {
+    char **what = g_new0 (char *, 3);
+
+    what[0] = g_strdup (self->path);
+    what[1] = g_strdup (self->shown_list);
+    g_task_set_task_data (task, what, (GDestroyNotify) g_strfreev);
+  }
   g_task_run_in_thread (task, load_stars_thread);
 }
 
@@ -334,6 +348,7 @@ reload (SlWindow *self)
     }
   show_ledger (self, project);
   update_trail (self);
+  sl_lists_panel_reload (self->lists);
   sl_catalogue_view_reload (self->catalogue);
   load_stars (self);
 }
@@ -347,7 +362,13 @@ sl_window_open_project (SlWindow *self, const char *path, GError **error)
   g_return_val_if_fail (SL_IS_WINDOW (self), FALSE);
 
   project = sl_project_open (path, error);
-  if (project == NULL || !sl_catalogue_view_set_project (self->catalogue, path, error))
+  if (project == NULL)
+    return FALSE;
+  /* Another project shows every star. */
+  if (self->shown_list)
+    sl_catalogue_view_set_list (self->catalogue, NULL);
+  g_clear_pointer (&self->shown_list, g_free);
+  if (!sl_catalogue_view_set_project (self->catalogue, path, error))
     return FALSE;
 
   g_free (self->path);
@@ -360,6 +381,7 @@ sl_window_open_project (SlWindow *self, const char *path, GError **error)
   g_clear_pointer (&self->trail_quantity, g_free);
   set_text (self->trail_view, _("Click a value in the table to see how it was obtained."));
   show_ledger (self, project);
+  sl_lists_panel_set_current (self->lists, NULL);
   if (self->work_cancel == NULL)
     show_work (self, NULL);
   sl_recent_projects_add (path);
@@ -1108,6 +1130,7 @@ sl_window_dispose (GObject *object)
   g_clear_pointer (&self->path, g_free);
   g_clear_pointer (&self->trail_star, g_free);
   g_clear_pointer (&self->trail_quantity, g_free);
+  g_clear_pointer (&self->shown_list, g_free);
   g_clear_object (&self->settings);
   g_clear_pointer (&self->ledger_entries, g_ptr_array_unref);
   G_OBJECT_CLASS (sl_window_parent_class)->dispose (object);
@@ -1163,6 +1186,7 @@ sl_window_class_init (SlWindowClass *klass)
   gtk_widget_class_add_binding_action (widget_class, GDK_KEY_d, GDK_CONTROL_MASK, "win.derive", NULL);
   gtk_widget_class_add_binding_action (widget_class, GDK_KEY_i, GDK_CONTROL_MASK, "win.import", NULL);
   gtk_widget_class_add_binding_action (widget_class, GDK_KEY_Escape, 0, "win.restore-views", NULL);
+  sl_lists_panel_install_actions (widget_class);
 }
 
 static void
@@ -1201,6 +1225,8 @@ sl_window_init (SlWindow *self)
   add_view (self, SL_PLOT_KIND_HRD, self->hrd_box);
   add_view (self, SL_PLOT_KIND_SKY, self->sky_box);
   add_view (self, SL_PLOT_KIND_PARALLAX, self->parallax_box);
+  self->lists = sl_lists_panel_new (self);
+  gtk_notebook_append_page (self->side_notebook, GTK_WIDGET (self->lists), gtk_label_new (_("Lists")));
 
   drop = gtk_drop_target_new (G_TYPE_FILE, GDK_ACTION_COPY);
   g_signal_connect (drop, "drop", G_CALLBACK (on_drop), self);
@@ -1282,4 +1308,72 @@ sl_window_reload (SlWindow *self)
   g_return_if_fail (SL_IS_WINDOW (self));
   if (self->path)
     reload (self);
+}
+
+/* ------------------------------------------------------------------ */
+/* Target lists (the Lists panel, sl-lists-panel.c)                   */
+
+SlListsPanel *
+sl_window_get_lists_panel (SlWindow *self)
+{
+  g_return_val_if_fail (SL_IS_WINDOW (self), NULL);
+  return self->lists;
+}
+
+const char *
+sl_window_get_shown_list (SlWindow *self)
+{
+  g_return_val_if_fail (SL_IS_WINDOW (self), NULL);
+  return self->shown_list;
+}
+
+void
+sl_window_show_list (SlWindow *self, const char *name)
+{
+  char *copy = g_strdup (name);
+
+  g_return_if_fail (SL_IS_WINDOW (self));
+
+  g_free (self->shown_list);
+  self->shown_list = copy;
+  if (self->path == NULL)
+    return;
+  /* Whichever tab is in front, the title says that not every star is shown. */
+  if (name)
+    {
+      g_autofree char *subtitle = g_strdup_printf (_("only list “%s” · %s"), name, self->path);
+
+      adw_window_title_set_subtitle (self->window_title, subtitle);
+    }
+  else
+    adw_window_title_set_subtitle (self->window_title, self->path);
+  sl_catalogue_view_set_list (self->catalogue, name);
+  load_stars (self);
+  sl_lists_panel_reload (self->lists);
+}
+
+void
+sl_window_lists_changed (SlWindow *self, const char *name)
+{
+  g_autoptr (SlProject) project = NULL;
+  g_autoptr (GError) error = NULL;
+
+  g_return_if_fail (SL_IS_WINDOW (self));
+
+  if (self->path == NULL)
+    return;
+  project = sl_project_open (self->path, &error);
+  if (project == NULL)
+    {
+      toast (self, error->message);
+      return;
+    }
+  show_ledger (self, project);
+  sl_lists_panel_reload (self->lists);
+  /* The table and the views read again only if they show that list. */
+  if (self->shown_list && g_strcmp0 (self->shown_list, name) == 0)
+    {
+      sl_catalogue_view_reload (self->catalogue);
+      load_stars (self);
+    }
 }

@@ -7,6 +7,7 @@
 
 #include "derive/derive.h"
 #include "sl-catalogue-view.h"
+#include "sl-lists-panel.h"
 #include "sl-plot-view.h"
 
 G_BEGIN_DECLS
@@ -50,6 +51,15 @@ void      sl_window_reload (SlWindow *window);
  * The Derive dialog ends here; win.derive-now derives with the latest
  * run's parameters without asking. */
 gboolean  sl_window_derive (SlWindow *window, const SlDeriveParams *params, gboolean all);
+
+/* Target lists.  The table and the views show only list NAME (NULL:
+ * every star); the list they show (borrowed; NULL: every star).  After a
+ * list NAME changed: the ledger and the Lists panel are read again, and
+ * the table and the views if they show NAME.  The Lists panel. */
+void          sl_window_show_list      (SlWindow *window, const char *name);
+const char   *sl_window_get_shown_list (SlWindow *window);
+void          sl_window_lists_changed  (SlWindow *window, const char *name);
+SlListsPanel *sl_window_get_lists_panel (SlWindow *window);
 
 /* For tests only (tests/test-gui.c); the window itself does not use them.
  * The Catalogue and the view of KIND (borrowed); whether a background job

@@ -7,6 +7,7 @@
  *   errors ........... fail_at, fail_expected
  *   the grammar ...... parse_or, parse_and, parse_not, parse_primary
  *   the compiled form  sl_condition_compile, sl_condition_bind
+ *   for a builder .... sl_condition_names, sl_condition_quote
  *
  * Only names from the tables of quantities, fields and flags ever reach
  * the SQL text; every literal the user wrote is a bound parameter.
@@ -751,4 +752,86 @@ sl_condition_bind (const SlCondition *condition, sqlite3_stmt *stmt, int first)
           break;
         }
     }
+}
+
+/* ------------------------------------------------------------------ */
+/* For a builder                                                      */
+
+static void
+add_name (GArray *names, const char *name, SlConditionNameKind kind, const char *description, const char *unit,
+          int bound)
+{
+  SlConditionName entry = { name, kind, description, unit ? unit : "", bound };
+
+  g_array_append_val (names, entry);
+}
+
+GArray *
+sl_condition_names (void)
+{
+  /* The interval bounds' names are built once: the array hands out
+   * static strings. */
+  static char *bounds[SL_N_QUANTITIES][2];
+  static gsize made = 0;
+  GArray *names = g_array_new (FALSE, FALSE, sizeof (SlConditionName));
+
+  if (g_once_init_enter (&made))
+    {
+      for (SlQuantity q = 0; q < SL_N_QUANTITIES; q++)
+        if (!sl_quantity_info (q)->is_text)
+          {
+            bounds[q][0] = g_strconcat (sl_quantity_info (q)->name, "_lo", NULL);
+            bounds[q][1] = g_strconcat (sl_quantity_info (q)->name, "_hi", NULL);
+          }
+      g_once_init_leave (&made, 1);
+    }
+  for (SlQuantity q = 0; q < SL_N_QUANTITIES; q++)
+    {
+      Column column;
+
+      const SlQuantityInfo *info = sl_quantity_info (q);
+
+      if (!resolve_name (info->name, &column))
+        continue;
+      add_name (names, info->name, column.is_text ? SL_CONDITION_NAME_TEXT : SL_CONDITION_NAME_NUMBER,
+                info->description, info->unit, 0);
+      if (!column.is_text)
+        {
+          add_name (names, bounds[q][0], SL_CONDITION_NAME_NUMBER, info->description, info->unit, -1);
+          add_name (names, bounds[q][1], SL_CONDITION_NAME_NUMBER, info->description, info->unit, +1);
+        }
+    }
+  for (SlField f = 0; f < SL_N_FIELDS; f++)
+    {
+      Column column;
+
+      /* A field that is also a quantity's name reaches the quantity. */
+      const SlFieldInfo *info = sl_field_info (f);
+
+      if (resolve_name (info->name, &column) && column.join != N_JOINS)
+        add_name (names, info->name, column.is_text ? SL_CONDITION_NAME_TEXT : SL_CONDITION_NAME_NUMBER,
+                  info->description, column.is_text ? "" : sl_unit_name (info->canonical), 0);
+    }
+  for (guint i = 0; i < SL_N_FLAGS; i++)
+    add_name (names, sl_flag_info (i)->name, SL_CONDITION_NAME_FLAG, sl_flag_info (i)->explanation, "", 0);
+  add_name (names, "stale", SL_CONDITION_NAME_FLAG,
+            N_("The inputs or hand-set values changed since the star was derived."), "", 0);
+  return names;
+}
+
+char *
+sl_condition_quote (const char *text)
+{
+  GString *quoted = g_string_new ("'");
+
+  g_return_val_if_fail (text != NULL, NULL);
+
+  for (const char *p = text; *p; p++)
+    {
+      if (*p == '\\' || *p == '\'')
+        g_string_append_c (quoted, '\\');
+      g_string_append_c (quoted, *p);
+    }
+  g_string_append_c (quoted, '\'');
+  return g_string_free (quoted, FALSE);
 }

@@ -66,6 +66,31 @@ char        *sl_condition_select_sql (const SlCondition *condition);
 /* Binds the parameters to STMT's '?' from number FIRST on. */
 void         sl_condition_bind (const SlCondition *condition, sqlite3_stmt *stmt, int first);
 
+/* What a name of the language stands for, for a condition builder. */
+typedef enum {
+  SL_CONDITION_NAME_NUMBER,  /* compared with < <= = >= > != and a NUMBER */
+  SL_CONDITION_NAME_TEXT,    /* compared with = != ~ and a STRING */
+  SL_CONDITION_NAME_FLAG,    /* written flag:NAME, true or false */
+} SlConditionNameKind;
+
+typedef struct {
+  const char         *name;         /* static: "teff", "teff_lo", "vmag", "id", "stale" ... */
+  SlConditionNameKind kind;
+  const char         *description;  /* what it is, English, marked N_(): translate with _() */
+  const char         *unit;         /* its unit's name, "" for none */
+  int                 bound;        /* -1 for NAME_lo, +1 for NAME_hi (68% interval), else 0 */
+} SlConditionName;
+
+/* Every name the language accepts, in the order a chooser shows them:
+ * the derived quantities (each number followed by its _lo and _hi), the
+ * inputs of the vocabulary (id first), then the flags and 'stale'.  A
+ * GArray of SlConditionName. */
+GArray      *sl_condition_names (void);
+
+/* TEXT as a STRING of the language: in '...', a backslash before every
+ * quote and backslash inside. */
+char        *sl_condition_quote (const char *text);
+
 G_DEFINE_AUTOPTR_CLEANUP_FUNC (SlCondition, sl_condition_free)
 
 G_END_DECLS

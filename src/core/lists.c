@@ -3,7 +3,8 @@
  *
  * Contents:
  *   names and look-ups .. check_name, find_list, unknown_list
- *   making lists ........ sl_list_create_from_condition, sl_list_create
+ *   making lists ........ sl_list_create_from_condition, sl_list_create,
+ *                         sl_list_create_with_stars, sl_list_count_matching
  *   members ............. sl_list_add_stars, sl_list_remove_stars, sl_list_set_member
  *   deleting ............ sl_list_delete
  *   reading ............. sl_list_names, sl_list_star_ids, sl_list_infos, sl_list_members
@@ -305,6 +306,160 @@ sl_list_create (SlProject *project, const char *name, const char *description, G
 fail:
   sl_project_rollback (project);
   return FALSE;
+}
+
+static gboolean star_exists (SlProject *project, const char *designation, GError **error);
+
+gint64
+sl_list_create_with_stars (SlProject *project, const char *name, const char *condition_text,
+                           const char *const *designations, const char *description, GError **error)
+{
+  g_autoptr (SlCondition) condition = NULL;
+  g_autofree char *now = sl_now_utc ();
+  g_autofree char *insert_sql = NULL;
+  g_autofree char *summary = NULL;
+  g_autoptr (GString) details = g_string_new ("{\"list\": ");
+  sqlite3_stmt *stmt = NULL;
+  gint64 list_id, n_condition = 0, n_hand = 0, n;
+
+  g_return_val_if_fail (project != NULL, -1);
+
+  if (!check_name (name, error) || !check_text (_("description"), description, error))
+    return -1;
+  if (condition_text && (condition = sl_condition_compile (condition_text, error)) == NULL)
+    return -1;
+
+  if (!sl_project_begin (project, error))
+    return -1;
+  if (!find_list (project, name, &list_id, error))
+    goto fail;
+  if (list_id != 0)
+    {
+      g_set_error (error, SL_ERROR, SL_ERROR_EXISTS, _("%s: there is already a list '%s'"),
+                   sl_project_path (project), name);
+      goto fail;
+    }
+  stmt = sl_project_prepare (project,
+                             "INSERT INTO lists (name, description, condition, created_by, created_at) "
+                             "VALUES (?, ?, ?, ?, ?)", error);
+  if (stmt == NULL)
+    goto fail;
+  sqlite3_bind_text (stmt, 1, name, -1, SQLITE_STATIC);
+  sqlite3_bind_text (stmt, 2, description ? description : "", -1, SQLITE_STATIC);
+  if (condition_text)
+    sqlite3_bind_text (stmt, 3, condition_text, -1, SQLITE_STATIC);
+  else
+    sqlite3_bind_null (stmt, 3);
+  sqlite3_bind_text (stmt, 4, sl_current_user (), -1, SQLITE_TRANSIENT);
+  sqlite3_bind_text (stmt, 5, now, -1, SQLITE_STATIC);
+  if (sqlite3_step (stmt) != SQLITE_DONE)
+    {
+      sl_project_set_db_error (project, error, "lists");
+      goto fail;
+    }
+  g_clear_pointer (&stmt, sqlite3_finalize);
+  list_id = sqlite3_last_insert_rowid (sl_project_db (project));
+
+  if (condition)
+    {
+      insert_sql = g_strdup_printf ("INSERT OR IGNORE INTO list_members (list_id, star_id) "
+                                    "SELECT ?1, d.star_id FROM derived d%s WHERE %s",
+                                    condition->joins, condition->where);
+      if (!run_with_condition (project, insert_sql, list_id, condition, error)
+          || (n_condition = count_members (project, list_id, error)) < 0)
+        goto fail;
+    }
+
+  sl_json_append_string (details, name);
+  g_string_append (details, ", \"condition\": ");
+  if (condition_text)
+    sl_json_append_string (details, condition_text);
+  else
+    g_string_append (details, "null");
+  g_string_append (details, ", \"description\": ");
+  sl_json_append_string (details, description ? description : "");
+  g_string_append (details, ", \"added\": [");
+  if (designations && designations[0])
+    {
+      stmt = sl_project_prepare (project,
+                                 "INSERT OR IGNORE INTO list_members (list_id, star_id) "
+                                 "SELECT ?1, id FROM stars WHERE designation = ?2", error);
+      if (stmt == NULL)
+        goto fail;
+      for (guint i = 0; designations[i]; i++)
+        {
+          sqlite3_reset (stmt);
+          sqlite3_bind_int64 (stmt, 1, list_id);
+          sqlite3_bind_text (stmt, 2, designations[i], -1, SQLITE_STATIC);
+          if (sqlite3_step (stmt) != SQLITE_DONE)
+            {
+              sl_project_set_db_error (project, error, "list_members");
+              goto fail;
+            }
+          /* Already in by the condition, or unknown. */
+          if (sqlite3_changes (sl_project_db (project)) == 0)
+            {
+              if (!star_exists (project, designations[i], error))
+                goto fail;
+              continue;
+            }
+          if (n_hand++ > 0)
+            g_string_append (details, ", ");
+          sl_json_append_string (details, designations[i]);
+        }
+      g_clear_pointer (&stmt, sqlite3_finalize);
+    }
+  n = n_condition + n_hand;
+  g_string_append_printf (details, "], \"stars\": %" G_GINT64_FORMAT "}", n);
+
+  if (condition_text && n_hand == 0)
+    summary = g_strdup_printf (g_dngettext (GETTEXT_PACKAGE, "made list %s: %" G_GINT64_FORMAT " star where %s",
+                                            "made list %s: %" G_GINT64_FORMAT " stars where %s", n),
+                               name, n, condition_text);
+  else if (condition_text)
+    summary = g_strdup_printf (g_dngettext (GETTEXT_PACKAGE,
+                                            "made list %s: %" G_GINT64_FORMAT " star where %s, and %" G_GINT64_FORMAT " more by hand",
+                                            "made list %s: %" G_GINT64_FORMAT " stars where %s, and %" G_GINT64_FORMAT " more by hand",
+                                            n_condition),
+                               name, n_condition, condition_text, n_hand);
+  else
+    summary = g_strdup_printf (g_dngettext (GETTEXT_PACKAGE, "made list %s by hand: %" G_GINT64_FORMAT " star",
+                                            "made list %s by hand: %" G_GINT64_FORMAT " stars", n),
+                               name, n);
+  if (!append_to_ledger (project, summary, details, error) || !sl_project_commit (project, error))
+    goto fail;
+  return n;
+
+fail:
+  sqlite3_finalize (stmt);
+  sl_project_rollback (project);
+  return -1;
+}
+
+gint64
+sl_list_count_matching (SlProject *project, const char *condition_text, GError **error)
+{
+  g_autoptr (SlCondition) condition = NULL;
+  g_autofree char *sql = NULL;
+  sqlite3_stmt *stmt;
+  gint64 n = -1;
+
+  g_return_val_if_fail (project != NULL && condition_text != NULL, -1);
+
+  condition = sl_condition_compile (condition_text, error);
+  if (condition == NULL)
+    return -1;
+  sql = g_strdup_printf ("SELECT count(*) FROM derived d%s WHERE %s", condition->joins, condition->where);
+  stmt = sl_project_prepare (project, sql, error);
+  if (stmt == NULL)
+    return -1;
+  sl_condition_bind (condition, stmt, 1);
+  if (sqlite3_step (stmt) == SQLITE_ROW)
+    n = sqlite3_column_int64 (stmt, 0);
+  else
+    sl_project_set_db_error (project, error, "derived");
+  sqlite3_finalize (stmt);
+  return n;
 }
 
 /* ------------------------------------------------------------------ */

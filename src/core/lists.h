@@ -23,6 +23,19 @@ G_BEGIN_DECLS
 gint64   sl_list_create_from_condition (SlProject *project, const char *name, const char *condition,
                                         const char *description, gboolean replace, GError **error);
 
+/* Makes list NAME of the stars that satisfy CONDITION (NULL: none) and
+ * the stars named in DESIGNATIONS (NULL-terminated; NULL: none), say a
+ * condition and a selection in the window, in one transaction with one
+ * ledger entry.  An existing NAME or an unknown designation is an error
+ * and changes nothing.  Returns the number of stars in the list, or -1. */
+gint64   sl_list_create_with_stars (SlProject *project, const char *name, const char *condition,
+                                    const char *const *designations, const char *description,
+                                    GError **error);
+
+/* How many stars satisfy CONDITION now, without making a list (a live
+ * count while a condition is written); -1 with ERROR from the compiler. */
+gint64   sl_list_count_matching (SlProject *project, const char *condition, GError **error);
+
 /* Makes an empty list by hand; an existing NAME is an error. */
 gboolean sl_list_create (SlProject *project, const char *name, const char *description,
                          GError **error);
