@@ -4,6 +4,7 @@
 #include <string.h>
 
 #include "cli-util.h"
+#include "derive/engine.h"
 #include "test-util.h"
 
 static void
@@ -209,6 +210,38 @@ test_locale_independent (void)
   sl_test_scratch_free (g_steal_pointer (&dir));
 }
 
+/* `methods` lists every module of the registry, in the engine's order,
+ * with its citation, and every run parameter with its default. */
+static void
+test_methods_lists_registry (void)
+{
+  g_autoptr (GPtrArray) modules = sl_modules_in_order ();
+  g_auto (CliResult) r = { 0 };
+  g_auto (CliResult) extra = { 0 };
+  const char *at;
+
+  run_cli (&r, "methods", NULL);
+  g_assert_cmpint (r.status, ==, 0);
+  at = r.out;
+  for (guint i = 0; i < modules->len; i++)
+    {
+      const SlModule *m = modules->pdata[i];
+      g_autofree char *heading = g_strdup_printf ("\n%s (version %d)\n", m->name, m->version);
+      const char *found = strstr (at, heading);
+
+      if (found == NULL)
+        g_error ("'%s' is missing or out of order in:\n%s", m->name, r.out);
+      assert_contains (found, m->citation);
+      at = found + 1;
+    }
+  for (SlParam p = 0; p < SL_N_PARAMS; p++)
+    assert_contains (r.out, sl_param_info (p)->name);
+  assert_contains (r.out, "length_scale_pc      default 1350 pc");
+
+  run_cli (&extra, "methods", "surplus", NULL);
+  g_assert_cmpint (extra.status, ==, 2);
+}
+
 int
 main (int argc, char **argv)
 {
@@ -221,6 +254,7 @@ main (int argc, char **argv)
   g_test_add_func ("/cli/demo/export-ledger-summary", test_demo_export_ledger_summary);
   g_test_add_func ("/cli/errors-are-one-line", test_errors_are_one_line);
   g_test_add_func ("/cli/locale/comma-decimal-locale", test_locale_independent);
+  g_test_add_func ("/cli/methods/lists-registry", test_methods_lists_registry);
 
   return g_test_run ();
 }

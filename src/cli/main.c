@@ -23,6 +23,7 @@ static const SlCliCommand commands[] = {
   { "lists",   sl_cli_lists,   N_("Show the project's target lists") },
   { "summary", sl_cli_summary, N_("Show what a project holds") },
   { "ledger",  sl_cli_ledger,  N_("Show the project's audit log") },
+  { "methods", sl_cli_methods, N_("List every derivation method with its source and validity") },
 };
 
 static void
