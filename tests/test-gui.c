@@ -14,6 +14,7 @@
 #include <errno.h>
 #include <glib/gstdio.h>
 #include <locale.h>
+#include <math.h>
 #include <stdlib.h>
 #include <string.h>
 
@@ -1629,9 +1630,11 @@ test_maximize_view (void)
       PAINT (demo);
       for (guint i = 0; i < 3; i++)
         g_assert_true (gtk_widget_is_visible (views[i]));
-      g_assert_cmpint (gtk_paned_get_position (upper), ==, upper_position);
-      g_assert_cmpint (gtk_paned_get_position (lower), ==, lower_position);
-      g_assert_cmpint (gtk_widget_get_width (sky), ==, sky_width);
+      /* Within a pixel: a paned rounds its position when its children
+       * come back. */
+      g_assert_cmpint (ABS (gtk_paned_get_position (upper) - upper_position), <=, 1);
+      g_assert_cmpint (ABS (gtk_paned_get_position (lower) - lower_position), <=, 1);
+      g_assert_cmpint (ABS (gtk_widget_get_width (sky) - sky_width), <=, 1);
     }
 
   /* One maximised view, then another: straight there; show all restores. */
@@ -1642,8 +1645,8 @@ test_maximize_view (void)
   g_assert_true (gtk_widget_is_visible (parallax));
   g_assert_true (gtk_widget_activate_action (GTK_WIDGET (demo), "win.restore-views", NULL));
   PAINT (demo);
-  g_assert_cmpint (gtk_paned_get_position (upper), ==, upper_position);
-  g_assert_cmpint (gtk_paned_get_position (lower), ==, lower_position);
+  g_assert_cmpint (ABS (gtk_paned_get_position (upper) - upper_position), <=, 1);
+  g_assert_cmpint (ABS (gtk_paned_get_position (lower) - lower_position), <=, 1);
 }
 
 /* ------------------------------------------------------------------ */
@@ -2447,6 +2450,80 @@ test_lists_export_delete (void)
   g_rmdir (dir);
 }
 
+/* ------------------------------------------------------------------ */
+/* Pictures of many stars                                             */
+
+/* A sky of N stars made by hand, spread over the sphere, with V and Teff. */
+static SlStarSet *
+many_stars (guint n)
+{
+  SlStarSet *set = g_new0 (SlStarSet, 1);
+  g_autoptr (GRand) rand = g_rand_new_with_seed (7);
+
+  set->stars = g_array_sized_new (FALSE, TRUE, sizeof (SlPlotStar), n);
+  set->strings = g_string_chunk_new (4096);
+  for (guint i = 0; i < n; i++)
+    {
+      g_autofree char *name = g_strdup_printf ("MANY %06u", i);
+      SlPlotStar s;
+
+      memset (&s, 0, sizeof s);
+      s.star_id = i + 1;
+      s.designation = g_string_chunk_insert (set->strings, name);
+      s.ra = g_rand_double_range (rand, 0, 360);
+      s.dec = asin (g_rand_double_range (rand, -1, 1)) * 180.0 / G_PI;
+      s.epoch = 2026.0;
+      s.parallax = s.parallax_err = s.pmra = s.pmdec = NAN;
+      s.vmag = g_rand_double_range (rand, 4, 15);
+      s.bv0 = s.bv0_lo = s.bv0_hi = s.absmag = s.absmag_lo = s.absmag_hi = NAN;
+      s.teff = g_rand_double_range (rand, 3000, 20000);
+      s.teff_lo = s.teff_hi = s.lum = s.lum_lo = s.lum_hi = NAN;
+      s.logt_sigma = s.logl_sigma = s.logt_logl_corr = s.elat = NAN;
+      s.ellipse_a = s.ellipse_b = s.ellipse_pa = NAN;
+      g_array_append_val (set->stars, s);
+    }
+  return set;
+}
+
+/* A sky of 200,000 stars is drawn in a worker thread while the window
+ * keeps painting; the picture is then reused: repaints, a tooltip or a
+ * region being dragged out draw no star again; a new selection or zoom
+ * does. */
+static void
+test_view_picture_in_thread (void)
+{
+  GtkWidget *window = gtk_window_new ();
+  SlPlotView *sky = sl_plot_view_new (SL_PLOT_KIND_SKY);
+  SlStarSet *stars = many_stars (200000);
+  const char *selection[] = { "MANY 000042", NULL };
+  guint pictures;
+
+  gtk_window_set_default_size (GTK_WINDOW (window), 600, 400);
+  gtk_window_set_child (GTK_WINDOW (window), GTK_WIDGET (sky));
+  gtk_window_present (GTK_WINDOW (window));
+  sl_plot_view_set_stars (sky, stars);
+  sl_star_set_free (stars);   /* the view keeps its own reference */
+  PAINT (window);
+  WAIT_UNTIL (sl_plot_view_get_n_drawn (sky) == 200000, LOAD_TIMEOUT_S, "the worker's picture");
+  g_assert_false (sl_plot_view_is_drawing (sky));
+  pictures = sl_plot_view_get_n_pictures (sky);
+
+  for (guint i = 0; i < 3; i++)
+    {
+      gtk_widget_queue_draw (GTK_WIDGET (sky));
+      PAINT (window);
+    }
+  g_assert_cmpuint (sl_plot_view_get_n_pictures (sky), ==, pictures);
+  g_assert_false (sl_plot_view_is_drawing (sky));
+
+  sl_plot_view_set_selection (sky, selection);
+  PAINT (window);
+  WAIT_UNTIL (sl_plot_view_get_n_pictures (sky) == pictures + 1 && !sl_plot_view_is_drawing (sky),
+              LOAD_TIMEOUT_S, "the picture with the selection");
+
+  gtk_window_destroy (GTK_WINDOW (window));
+}
+
 int
 main (int argc, char **argv)
 {
@@ -2505,6 +2582,7 @@ main (int argc, char **argv)
   g_test_add_func ("/gui/figure/export", test_figure_export);
   g_test_add_func ("/gui/figure/export-refused", test_figure_export_refused);
   g_test_add_func ("/gui/views/maximize", test_maximize_view);
+  g_test_add_func ("/gui/views/picture-in-thread", test_view_picture_in_thread);
   g_test_add_func ("/gui/derive/dialog", test_derive_dialog);
   g_test_add_func ("/gui/welcome/recent-projects", test_welcome_recent);
   g_test_add_func ("/gui/lists/create-from-condition", test_lists_create_from_condition);

@@ -6,6 +6,13 @@
  * finds stars there: hover shows a star's key values, a click selects it
  * (Ctrl adds), a drag with Shift selects a region, a plain drag pans, the
  * scroll wheel and a pinch zoom, a double click resets.
+ *
+ * The figure is drawn into a picture (an image surface) that is kept
+ * until what it shows changes: a region being dragged out, a tooltip or
+ * a repaint of the window costs one paint, not a redraw of every star.
+ * A figure of many stars (a million take seconds) is drawn in a worker
+ * thread; meanwhile the last picture is shown moved and scaled to the
+ * new zoom and pan, so the window never waits for the stars.
  */
 #include "sl-plot-view.h"
 
@@ -18,13 +25,29 @@
 
 #define PICK_RADIUS_PX 6.0
 
+/* What a picture shows: a drawn picture is good while its key is the
+ * view's. */
+typedef struct {
+  int     width, height, scale;   /* widget px, device scale */
+  double  zoom, pan_x, pan_y;
+  guint   stars_serial;           /* bumped by each set_stars */
+  guint   selection_serial;       /* bumped by each set_selection */
+} PictureKey;
+
 struct _SlPlotView {
   GtkWidget        parent_instance;
 
   SlPlotKind       kind;
-  const SlStarSet *stars;          /* borrowed */
+  SlStarSet       *stars;          /* a reference (sl_star_set_ref) */
   SlStarSet       *chosen;         /* the selected stars, for the parallax view */
   GStrv            selection;
+  guint            stars_serial, selection_serial;
+
+  cairo_surface_t *picture;        /* the last picture drawn, or NULL */
+  PictureKey       picture_key;
+  GCancellable    *drawing;        /* a worker drawing, or NULL */
+  PictureKey       drawing_key;
+  guint            n_pictures;     /* pictures drawn so far (tests) */
 
   double           zoom;           /* 1: the whole figure */
   double           pan_x, pan_y;   /* px, after zoom */
@@ -32,8 +55,7 @@ struct _SlPlotView {
   gboolean         region_drag;
   double           region[4];      /* x0, y0, x1, y1 in widget px while region-selecting */
 
-  GArray          *positions;      /* SlPlotPosition from the last draw, page coordinates */
-  gint64           last_draw_us;   /* how long the last draw took */
+  GArray          *positions;      /* SlPlotPosition of the picture, page coordinates */
 };
 
 G_DEFINE_FINAL_TYPE (SlPlotView, sl_plot_view, GTK_TYPE_WIDGET)
@@ -92,35 +114,89 @@ update_chosen (SlPlotView *self)
     self->chosen = selected_subset (self->stars, (const char *const *) self->selection);
 }
 
+/* Beyond this many stars a picture is drawn in a worker thread. */
+#define DRAW_IN_THREAD_STARS 50000
+
+/* Everything one drawing needs, copied or referenced, so that a worker
+ * thread can draw while the view changes. */
+typedef struct {
+  SlPlotKind  kind;
+  SlStarSet  *stars;        /* a reference */
+  GStrv       selection;
+  PictureKey  key;
+  char       *empty_message;
+  cairo_surface_t *picture; /* the result */
+  GArray     *positions;    /* the result */
+} Drawing;
+
 static void
-draw_figure (SlPlotView *self, cairo_t *cr, double width, double height)
+drawing_free (Drawing *d)
 {
+  g_clear_pointer (&d->stars, sl_star_set_free);
+  g_strfreev (d->selection);
+  g_free (d->empty_message);
+  g_clear_pointer (&d->picture, cairo_surface_destroy);
+  g_clear_pointer (&d->positions, g_array_unref);
+  g_free (d);
+}
+
+static gboolean
+same_key (const PictureKey *a, const PictureKey *b)
+{
+  return a->width == b->width && a->height == b->height && a->scale == b->scale && a->zoom == b->zoom
+         && a->pan_x == b->pan_x && a->pan_y == b->pan_y && a->stars_serial == b->stars_serial
+         && a->selection_serial == b->selection_serial;
+}
+
+static PictureKey
+current_key (SlPlotView *self)
+{
+  PictureKey key = {
+    gtk_widget_get_width (GTK_WIDGET (self)), gtk_widget_get_height (GTK_WIDGET (self)),
+    gtk_widget_get_scale_factor (GTK_WIDGET (self)), self->zoom, self->pan_x, self->pan_y,
+    self->stars_serial, self->selection_serial,
+  };
+
+  return key;
+}
+
+/* Draws D's figure into a new picture, with the same functions as
+ * starledger-cli figure; any thread. */
+static void
+draw_picture (Drawing *d)
+{
+  const PictureKey *k = &d->key;
   SlFigureStyle style;
   SlFigure fig;
-  gint64 start = g_get_monotonic_time ();
+  cairo_t *cr;
 
-  screen_style (&style);
+  d->picture = cairo_image_surface_create (CAIRO_FORMAT_RGB24, MAX (k->width * k->scale, 1),
+                                           MAX (k->height * k->scale, 1));
+  cairo_surface_set_device_scale (d->picture, k->scale, k->scale);
+  d->positions = g_array_new (FALSE, FALSE, sizeof (SlPlotPosition));
+  cr = cairo_create (d->picture);
   cairo_set_source_rgb (cr, 1, 1, 1);
   cairo_paint (cr);
   cairo_set_source_rgb (cr, 0, 0, 0);
-  if (self->stars == NULL)
-    return;
-
-  cairo_translate (cr, self->pan_x, self->pan_y);
-  cairo_scale (cr, self->zoom, self->zoom);
-  sl_figure_init (&fig, cr, width, height, &style);
-  g_array_set_size (self->positions, 0);
-  fig.positions = self->positions;
-
-  switch (self->kind)
+  if (d->stars == NULL)
+    {
+      cairo_destroy (cr);
+      return;
+    }
+  screen_style (&style);
+  cairo_translate (cr, k->pan_x, k->pan_y);
+  cairo_scale (cr, k->zoom, k->zoom);
+  sl_figure_init (&fig, cr, k->width, k->height, &style);
+  fig.positions = d->positions;
+  switch (d->kind)
     {
     case SL_PLOT_KIND_HRD:
       {
         SlHrdOptions options;
 
         sl_hrd_options_init (&options);
-        options.highlight = (const char *const *) self->selection;
-        sl_hrd_draw (&fig, self->stars, &options, NULL, NULL, NULL);
+        options.highlight = (const char *const *) d->selection;
+        sl_hrd_draw (&fig, d->stars, &options, NULL, NULL, NULL);
         break;
       }
     case SL_PLOT_KIND_SKY:
@@ -128,8 +204,8 @@ draw_figure (SlPlotView *self, cairo_t *cr, double width, double height)
         SlSkyOptions options;
 
         sl_sky_options_init (&options);
-        options.highlight = (const char *const *) self->selection;
-        sl_sky_draw (&fig, self->stars, &options, NULL, NULL);
+        options.highlight = (const char *const *) d->selection;
+        sl_sky_draw (&fig, d->stars, &options, NULL, NULL);
         break;
       }
     case SL_PLOT_KIND_PARALLAX:
@@ -137,16 +213,94 @@ draw_figure (SlPlotView *self, cairo_t *cr, double width, double height)
         SlParallaxOptions options;
 
         sl_parallax_options_init (&options);
-        options.empty_message = _("Select stars in the table or a view to see their parallax paths.");
-        sl_parallax_draw (&fig, self->chosen, &options, NULL, NULL);
+        options.empty_message = d->empty_message;
+        sl_parallax_draw (&fig, d->stars, &options, NULL, NULL);
         break;
       }
     }
   sl_figure_clear (&fig);
-  self->last_draw_us = g_get_monotonic_time () - start;
+  cairo_destroy (cr);
+}
+
+static Drawing *
+drawing_new (SlPlotView *self, const PictureKey *key)
+{
+  Drawing *d = g_new0 (Drawing, 1);
+  SlStarSet *drawn = self->kind == SL_PLOT_KIND_PARALLAX ? self->chosen : self->stars;
+
+  d->kind = self->kind;
+  d->stars = drawn ? sl_star_set_ref (drawn) : NULL;
+  d->selection = g_strdupv (self->selection);
+  d->key = *key;
+  d->empty_message = g_strdup (_("Select stars in the table or a view to see their parallax paths."));
+  return d;
+}
+
+static void
+take_picture (SlPlotView *self, Drawing *d, gint64 took_us)
+{
+  g_clear_pointer (&self->picture, cairo_surface_destroy);
+  self->picture = g_steal_pointer (&d->picture);
+  self->picture_key = d->key;
+  g_array_unref (self->positions);
+  self->positions = g_steal_pointer (&d->positions);
+  self->n_pictures++;
   if (g_getenv ("STARLEDGER_DEBUG_TIMING"))
-    g_printerr ("starledger: view %d drawn in %.1f ms (%u stars)\n", self->kind,
-                self->last_draw_us / 1000.0, self->stars->stars->len);
+    g_printerr ("starledger: view %d drawn in %.1f ms (%u stars)\n", self->kind, took_us / 1000.0,
+                d->stars ? d->stars->stars->len : 0);
+}
+
+static void
+draw_thread (GTask *task, gpointer source, gpointer task_data, GCancellable *cancellable)
+{
+  gint64 start = g_get_monotonic_time ();
+
+  draw_picture (task_data);
+  g_task_return_int (task, g_get_monotonic_time () - start);
+}
+
+static void
+on_picture_drawn (GObject *source, GAsyncResult *result, gpointer user_data)
+{
+  SlPlotView *self = SL_PLOT_VIEW (source);
+  Drawing *d = g_task_get_task_data (G_TASK (result));
+  gint64 took_us = g_task_propagate_int (G_TASK (result), NULL);
+
+  g_clear_object (&self->drawing);
+  take_picture (self, d, took_us);
+  /* Shown if it is still what the view wants; otherwise the next
+   * snapshot starts the picture it does want. */
+  gtk_widget_queue_draw (GTK_WIDGET (self));
+}
+
+static void
+start_drawing (SlPlotView *self, const PictureKey *key)
+{
+  g_autoptr (GTask) task = NULL;
+
+  self->drawing = g_cancellable_new ();
+  self->drawing_key = *key;
+  task = g_task_new (self, self->drawing, on_picture_drawn, NULL);
+  g_task_set_task_data (task, drawing_new (self, key), (GDestroyNotify) drawing_free);
+  g_task_run_in_thread (task, draw_thread);
+}
+
+/* The last picture, moved and scaled from the zoom and pan it was drawn at
+ * to the view's: a page point p is at p zoom + pan in both. */
+static void
+paint_stand_in (SlPlotView *self, cairo_t *cr)
+{
+  const PictureKey *k = &self->picture_key;
+  double factor = self->zoom / k->zoom;
+
+  cairo_set_source_rgb (cr, 1, 1, 1);
+  cairo_paint (cr);
+  cairo_save (cr);
+  cairo_translate (cr, self->pan_x - k->pan_x * factor, self->pan_y - k->pan_y * factor);
+  cairo_scale (cr, factor, factor);
+  cairo_set_source_surface (cr, self->picture, 0, 0);
+  cairo_paint (cr);
+  cairo_restore (cr);
 }
 
 static void
@@ -155,8 +309,38 @@ sl_plot_view_snapshot (GtkWidget *widget, GtkSnapshot *snapshot)
   SlPlotView *self = SL_PLOT_VIEW (widget);
   double width = gtk_widget_get_width (widget), height = gtk_widget_get_height (widget);
   cairo_t *cr = gtk_snapshot_append_cairo (snapshot, &GRAPHENE_RECT_INIT (0, 0, width, height));
+  PictureKey key = current_key (self);
+  const SlStarSet *drawn = self->kind == SL_PLOT_KIND_PARALLAX ? self->chosen : self->stars;
 
-  draw_figure (self, cr, width, height);
+  if (self->picture == NULL || !same_key (&self->picture_key, &key))
+    {
+      if (drawn == NULL || drawn->stars->len < DRAW_IN_THREAD_STARS)
+        {
+          Drawing *d = drawing_new (self, &key);
+          gint64 start = g_get_monotonic_time ();
+
+          draw_picture (d);
+          take_picture (self, d, g_get_monotonic_time () - start);
+          drawing_free (d);
+        }
+      else if (self->drawing == NULL)
+        start_drawing (self, &key);
+      /* else: the worker's picture comes first, then the next snapshot
+       * asks for this key if it still differs. */
+    }
+  if (self->picture && same_key (&self->picture_key, &key))
+    {
+      cairo_set_source_surface (cr, self->picture, 0, 0);
+      cairo_paint (cr);
+    }
+  else if (self->picture && self->picture_key.stars_serial == key.stars_serial)
+    paint_stand_in (self, cr);
+  else
+    {
+      cairo_set_source_rgb (cr, 1, 1, 1);
+      cairo_paint (cr);
+    }
+
   if (self->region_drag)
     {
       cairo_identity_matrix (cr);
@@ -344,10 +528,12 @@ on_pinch (GtkGestureZoom *gesture, double scale, SlPlotView *self)
 /* Public                                                             */
 
 void
-sl_plot_view_set_stars (SlPlotView *self, const SlStarSet *stars)
+sl_plot_view_set_stars (SlPlotView *self, SlStarSet *stars)
 {
   g_return_if_fail (SL_IS_PLOT_VIEW (self));
-  self->stars = stars;
+  g_clear_pointer (&self->stars, sl_star_set_free);
+  self->stars = stars ? sl_star_set_ref (stars) : NULL;
+  self->stars_serial++;
   update_chosen (self);
   g_array_set_size (self->positions, 0);
   gtk_widget_queue_draw (GTK_WIDGET (self));
@@ -359,6 +545,7 @@ sl_plot_view_set_selection (SlPlotView *self, const char *const *designations)
   g_return_if_fail (SL_IS_PLOT_VIEW (self));
   g_strfreev (self->selection);
   self->selection = g_strdupv ((char **) designations);
+  self->selection_serial++;
   update_chosen (self);
   gtk_widget_queue_draw (GTK_WIDGET (self));
 }
@@ -384,12 +571,28 @@ sl_plot_view_get_n_drawn (SlPlotView *self)
   return self->positions->len;
 }
 
+guint
+sl_plot_view_get_n_pictures (SlPlotView *self)
+{
+  g_return_val_if_fail (SL_IS_PLOT_VIEW (self), 0);
+  return self->n_pictures;
+}
+
+gboolean
+sl_plot_view_is_drawing (SlPlotView *self)
+{
+  g_return_val_if_fail (SL_IS_PLOT_VIEW (self), FALSE);
+  return self->drawing != NULL;
+}
+
 static void
 sl_plot_view_finalize (GObject *object)
 {
   SlPlotView *self = SL_PLOT_VIEW (object);
 
   g_clear_pointer (&self->chosen, sl_star_set_free);
+  g_clear_pointer (&self->stars, sl_star_set_free);
+  g_clear_pointer (&self->picture, cairo_surface_destroy);
   g_strfreev (self->selection);
   g_array_unref (self->positions);
   G_OBJECT_CLASS (sl_plot_view_parent_class)->finalize (object);

@@ -22,9 +22,9 @@ G_DECLARE_FINAL_TYPE (SlPlotView, sl_plot_view, SL, PLOT_VIEW, GtkWidget)
 SlPlotView *sl_plot_view_new (SlPlotKind kind);
 SlPlotKind  sl_plot_view_get_kind (SlPlotView *view);
 
-/* The stars to draw (borrowed: the caller keeps STARS alive until it sets
- * another set or NULL). */
-void        sl_plot_view_set_stars (SlPlotView *view, const SlStarSet *stars);
+/* The stars to draw; the view takes a reference (sl_star_set_ref) and
+ * frees it when it has another set or goes. */
+void        sl_plot_view_set_stars (SlPlotView *view, SlStarSet *stars);
 
 /* The selected stars by designation (NULL-terminated; NULL: none): ringed
  * and labelled; the parallax view draws their paths. */
@@ -36,6 +36,10 @@ void        sl_plot_view_reset (SlPlotView *view);
 /* For tests only (tests/test-gui.c): how many stars (parallax view:
  * panels) the last draw recorded positions for. */
 guint       sl_plot_view_get_n_drawn (SlPlotView *view);
+/* How many pictures the view has drawn, and whether a worker is drawing
+ * one now (large star sets). */
+guint       sl_plot_view_get_n_pictures (SlPlotView *view);
+gboolean    sl_plot_view_is_drawing (SlPlotView *view);
 
 /* Signals:
  *   "star-selected" (const char *designation, gboolean extend):

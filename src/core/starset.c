@@ -237,11 +237,29 @@ sl_star_set_load_list_full (SlProject *project, const char *name, GCancellable *
   return ok ? g_steal_pointer (&set) : NULL;
 }
 
+SlStarSet *
+sl_star_set_ref (SlStarSet *set)
+{
+  g_return_val_if_fail (set != NULL, NULL);
+  g_atomic_int_inc (&set->extra_refs);
+  return set;
+}
+
 void
 sl_star_set_free (SlStarSet *set)
 {
   if (set == NULL)
     return;
+  /* Each sl_star_set_ref asks for one more free before the set goes. */
+  for (;;)
+    {
+      int extra = g_atomic_int_get (&set->extra_refs);
+
+      if (extra == 0)
+        break;
+      if (g_atomic_int_compare_and_exchange (&set->extra_refs, extra, extra - 1))
+        return;
+    }
   g_array_unref (set->stars);
   g_string_chunk_free (set->strings);
   g_free (set);

@@ -33,6 +33,7 @@ typedef struct {
   const char   *run_finished_at;  /* when it finished, ISO 8601 UTC (in strings); NULL if none */
   guint         n_derived;   /* stars with a derived row */
   GStringChunk *strings;
+  int           extra_refs;  /* sl_star_set_ref's, atomic; 0 for a set made once */
 } SlStarSet;
 
 /* Loads every star, or only those named in DESIGNATIONS (NULL-terminated,
@@ -48,6 +49,10 @@ SlStarSet *sl_star_set_load_full (SlProject *project, const char *const *designa
                                   GCancellable *cancellable, GError **error);
 SlStarSet *sl_star_set_load_list_full (SlProject *project, const char *name, GCancellable *cancellable,
                                        GError **error);
+/* A set is read-only once loaded, so threads may share it: each
+ * sl_star_set_ref (a window's drawing thread, say) is matched by one more
+ * sl_star_set_free; the last free frees it. */
+SlStarSet *sl_star_set_ref  (SlStarSet *set);
 void       sl_star_set_free (SlStarSet *set);
 
 static inline SlPlotStar *
