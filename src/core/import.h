@@ -10,6 +10,7 @@
 
 #include <gio/gio.h>
 
+#include "matching.h"
 #include "project.h"
 #include "vocabulary.h"
 
@@ -37,6 +38,7 @@ typedef struct {
   double         epoch;         /* Julian year for rows without an epoch column; NAN: none */
   const char    *source_name;   /* NULL: the file's base name */
   gboolean       again;         /* import a file whose SHA-256 was imported before */
+  double         match_radius;  /* arcsec: join rows to stars by position (matching.h); 0: by id */
   GCancellable  *cancellable;
   SlProgressFunc progress;      /* called now and then with the fraction read */
   gpointer       progress_data;
@@ -61,6 +63,10 @@ typedef struct {
   GArray    *rejections;      /* SlRejection, in file order */
   GPtrArray *ignored_columns; /* header names that map to no field */
   GPtrArray *notes;           /* things the user should know, one sentence each */
+  /* With a match radius: */
+  guint64    matched;         /* rows joined to an existing star by position */
+  GArray    *ambiguous;       /* SlAmbiguousRow: rows made stars of their own, in order found */
+  double     match_epoch;     /* the common epoch, Julian year; NAN: none */
 } SlImportReport;
 
 SlImportReport *sl_import_csv (SlProject *project, const char *path,

@@ -157,10 +157,33 @@ static const char migration_to_3[] =
   ") STRICT;"
   "CREATE UNIQUE INDEX overrides_active ON overrides (star_id, quantity) WHERE cleared_at IS NULL;";
 
+/* Version 4: how each row imported with --match-radius was joined to a
+ * star by position: the star it joined (or was given when no star or
+ * more than one could be chosen), its separation at the common epoch, the
+ * stars within the radius, and whether the match was later undone. */
+static const char migration_to_4[] =
+  "CREATE TABLE matches ("
+  "  id                INTEGER PRIMARY KEY,"
+  "  measurement_id    INTEGER NOT NULL UNIQUE REFERENCES measurements (id),"
+  "  row_designation   TEXT NOT NULL,"      /* the row's own id in its file */
+  "  status            TEXT NOT NULL CHECK (status IN ('matched', 'ambiguous', 'split')),"
+  "  star_id           INTEGER REFERENCES stars (id),"  /* matched: the star joined; else NULL */
+  "  separation_arcsec REAL,"               /* to the nearest star, at the common epoch */
+  "  epoch             REAL,"               /* the common epoch, Julian year; NULL: none known */
+  "  radius_arcsec     REAL NOT NULL,"
+  "  candidates        TEXT NOT NULL DEFAULT '[]',"  /* JSON [{star_id, designation, separation_arcsec}] */
+  "  reason            TEXT NOT NULL DEFAULT '',"    /* why ambiguous, in words */
+  "  split_by          TEXT,"
+  "  split_at          TEXT,"
+  "  split_from        INTEGER REFERENCES stars (id)" /* split: the star it had joined */
+  ") STRICT;"
+  "CREATE INDEX matches_by_star ON matches (star_id);";
+
 static const char *const migrations[] = {
   migration_to_1,
   migration_to_2,
   migration_to_3,
+  migration_to_4,
 };
 
 int
