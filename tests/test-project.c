@@ -421,9 +421,9 @@ test_migrate_from_v3 (Fixture *f, gconstpointer data)
    * position, and it refuses a measurement that does not exist and a
    * status it does not know. */
   g_assert_true (sl_project_exec (project,
-                                  "INSERT INTO matches (measurement_id, row_designation, status, star_id, "
+                                  "INSERT INTO matches (measurement_id, row_designation, status, "
                                   "separation_arcsec, epoch, radius_arcsec) "
-                                  "VALUES (2, 'B 7', 'matched', 2, 0.4, 2016.0, 1.0)", &error));
+                                  "VALUES (2, 'B 7', 'matched', 0.4, 2016.0, 1.0)", &error));
   g_assert_no_error (error);
   status = sl_test_query_text (db, "SELECT status || ' ' || candidates FROM matches");
   g_assert_cmpstr (status, ==, "matched []");

@@ -187,18 +187,19 @@ prepare (SlRowMatcher *matcher, GError **error)
       && (matcher->designation_of = sl_project_prepare (p,
             "SELECT designation FROM stars WHERE id = ?", error))
       && (matcher->insert_match = sl_project_prepare (p,
-            "INSERT INTO matches (measurement_id, row_designation, status, star_id, separation_arcsec, "
-            "epoch, radius_arcsec, candidates, reason) VALUES (?, ?, ?, ?, ?, ?, ?, ?, ?)", error))
+            "INSERT INTO matches (measurement_id, row_designation, status, separation_arcsec, "
+            "epoch, radius_arcsec, candidates, reason) VALUES (?, ?, ?, ?, ?, ?, ?, ?)", error))
       && (matcher->demote_load = sl_project_prepare (p,
             "SELECT x.measurement_id, x.row_designation, m.line, x.candidates FROM matches x "
             "JOIN measurements m ON m.id = x.measurement_id WHERE x.id = ?", error))
-      && (matcher->move_measurement = sl_project_prepare (p,
-            "UPDATE measurements SET star_id = ? WHERE id = ?", error))
+      /* The star it had joined becomes its candidate: before the move. */
       && (matcher->demote_match = sl_project_prepare (p,
-            "UPDATE matches SET status = 'ambiguous', reason = ?, "
-            "candidates = json_array (json_object ('star_id', star_id, 'designation', "
-            "(SELECT designation FROM stars WHERE id = star_id), 'separation_arcsec', separation_arcsec)), "
-            "star_id = NULL WHERE id = ?", error));
+            "UPDATE matches SET status = 'ambiguous', reason = ?1, candidates = "
+            "(SELECT json_array (json_object ('star_id', s.id, 'designation', s.designation, "
+            "'separation_arcsec', matches.separation_arcsec)) FROM measurements m "
+            "JOIN stars s ON s.id = m.star_id WHERE m.id = matches.measurement_id) WHERE id = ?2", error))
+      && (matcher->move_measurement = sl_project_prepare (p,
+            "UPDATE measurements SET star_id = ? WHERE id = ?", error));
 }
 
 /* Builds the index of every position the project's stars have (a star
@@ -345,16 +346,16 @@ demote (SlRowMatcher *matcher, gint64 match_id, const char *star_name, guint lin
   matcher->renamed += renamed;
   reason = g_strdup_printf (_("%s is also the nearest star of line %u"), star_name, line);
 
-  sqlite3_bind_int64 (matcher->move_measurement, 1, star_id);
-  sqlite3_bind_int64 (matcher->move_measurement, 2, measurement_id);
-  rc = sqlite3_step (matcher->move_measurement);
-  sqlite3_reset (matcher->move_measurement);
+  sqlite3_bind_text (matcher->demote_match, 1, reason, -1, SQLITE_STATIC);
+  sqlite3_bind_int64 (matcher->demote_match, 2, match_id);
+  rc = sqlite3_step (matcher->demote_match);
+  sqlite3_reset (matcher->demote_match);
   if (rc == SQLITE_DONE)
     {
-      sqlite3_bind_text (matcher->demote_match, 1, reason, -1, SQLITE_STATIC);
-      sqlite3_bind_int64 (matcher->demote_match, 2, match_id);
-      rc = sqlite3_step (matcher->demote_match);
-      sqlite3_reset (matcher->demote_match);
+      sqlite3_bind_int64 (matcher->move_measurement, 1, star_id);
+      sqlite3_bind_int64 (matcher->move_measurement, 2, measurement_id);
+      rc = sqlite3_step (matcher->move_measurement);
+      sqlite3_reset (matcher->move_measurement);
     }
   if (rc != SQLITE_DONE)
     {
@@ -467,18 +468,14 @@ sl_row_matcher_record (SlRowMatcher *matcher, gint64 measurement_id, GError **er
   sqlite3_bind_int64 (stmt, 1, measurement_id);
   sqlite3_bind_text (stmt, 2, matcher->row_designation, -1, SQLITE_STATIC);
   sqlite3_bind_text (stmt, 3, matched ? "matched" : "ambiguous", -1, SQLITE_STATIC);
-  if (matched)
-    sqlite3_bind_int64 (stmt, 4, g_array_index (matcher->star_ids, gint64, matcher->star_index));
-  else
-    sqlite3_bind_null (stmt, 4);
-  sqlite3_bind_double (stmt, 5, matcher->separation);
+  sqlite3_bind_double (stmt, 4, matcher->separation);
   if (isfinite (matcher->epoch))
-    sqlite3_bind_double (stmt, 6, matcher->epoch);
+    sqlite3_bind_double (stmt, 5, matcher->epoch);
   else
-    sqlite3_bind_null (stmt, 6);
-  sqlite3_bind_double (stmt, 7, matcher->radius);
-  sqlite3_bind_text (stmt, 8, matcher->candidates ? matcher->candidates : "[]", -1, SQLITE_STATIC);
-  sqlite3_bind_text (stmt, 9, matcher->reason ? matcher->reason : "", -1, SQLITE_STATIC);
+    sqlite3_bind_null (stmt, 5);
+  sqlite3_bind_double (stmt, 6, matcher->radius);
+  sqlite3_bind_text (stmt, 7, matcher->candidates ? matcher->candidates : "[]", -1, SQLITE_STATIC);
+  sqlite3_bind_text (stmt, 8, matcher->reason ? matcher->reason : "", -1, SQLITE_STATIC);
   rc = sqlite3_step (stmt);
   sqlite3_reset (stmt);
   if (rc != SQLITE_DONE)
@@ -637,7 +634,7 @@ split_one (SlProject *project, const SlRowRef *ref, GPtrArray *new_designations,
   if (!sl_project_exec (project, sql, error))
     return FALSE;
   stmt = sl_project_prepare (project,
-                             "UPDATE matches SET status = 'split', star_id = NULL, split_from = ?, "
+                             "UPDATE matches SET status = 'split', split_from = ?, "
                              "split_by = ?, split_at = ? WHERE id = ?", error);
   if (stmt == NULL)
     return FALSE;
@@ -734,7 +731,8 @@ sl_match_infos_for_star (SlProject *project, gint64 star_id, GError **error)
                                            "JOIN sources src ON src.id = m.source_id "
                                            "JOIN stars cur ON cur.id = m.star_id "
                                            "LEFT JOIN stars old ON old.id = x.split_from "
-                                           "WHERE m.star_id = ?1 OR x.split_from = ?1 "
+                                           "WHERE x.measurement_id IN (SELECT id FROM measurements WHERE star_id = ?1 "
+                                           "UNION SELECT measurement_id FROM matches WHERE split_from = ?1) "
                                            "ORDER BY src.id, m.line", error);
   GArray *infos;
   int rc;

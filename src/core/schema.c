@@ -166,8 +166,9 @@ static const char migration_to_4[] =
   "  id                INTEGER PRIMARY KEY,"
   "  measurement_id    INTEGER NOT NULL UNIQUE REFERENCES measurements (id),"
   "  row_designation   TEXT NOT NULL,"      /* the row's own id in its file */
+  /* matched: the row is part of the star its measurement belongs to;
+   * ambiguous: a star of its own; split: no longer part of split_from. */
   "  status            TEXT NOT NULL CHECK (status IN ('matched', 'ambiguous', 'split')),"
-  "  star_id           INTEGER REFERENCES stars (id),"  /* matched: the star joined; else NULL */
   "  separation_arcsec REAL,"               /* to the nearest star, at the common epoch */
   "  epoch             REAL,"               /* the common epoch, Julian year; NULL: none known */
   "  radius_arcsec     REAL NOT NULL,"
@@ -177,7 +178,9 @@ static const char migration_to_4[] =
   "  split_at          TEXT,"
   "  split_from        INTEGER REFERENCES stars (id)" /* split: the star it had joined */
   ") STRICT;"
-  "CREATE INDEX matches_by_star ON matches (star_id);";
+  /* Few rows are ever split: a partial index finds them from the star
+   * they left without slowing every import down. */
+  "CREATE INDEX matches_split_from ON matches (split_from) WHERE split_from IS NOT NULL;";
 
 static const char *const migrations[] = {
   migration_to_1,

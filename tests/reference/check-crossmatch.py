@@ -56,9 +56,10 @@ def project_matches(project):
     of the second source's rows with a match record."""
     db = sqlite3.connect(project)
     rows = db.execute(
-        "SELECT m.line, x.status, COALESCE (s.designation, x.candidates ->> '$[0].designation'), "
-        "x.separation_arcsec FROM matches x JOIN measurements m ON m.id = x.measurement_id "
-        "LEFT JOIN stars s ON s.id = x.star_id WHERE m.source_id = 2").fetchall()
+        "SELECT m.line, x.status, CASE x.status WHEN 'matched' THEN s.designation "
+        "ELSE x.candidates ->> '$[0].designation' END, x.separation_arcsec "
+        "FROM matches x JOIN measurements m ON m.id = x.measurement_id "
+        "JOIN stars s ON s.id = m.star_id WHERE m.source_id = 2").fetchall()
     db.close()
     return {line: (status, star, sep) for line, status, star, sep in rows}
 
