@@ -15,6 +15,7 @@
 
 import argparse
 import sys
+import warnings
 
 import erfa
 import numpy as np
@@ -32,6 +33,8 @@ def main(argv):
     ap.add_argument("--seed", type=int, default=2)
     args = ap.parse_args(argv)
     rng = np.random.default_rng(args.seed)
+    # Stars without a usable parallax: ERFA puts them far away and says so.
+    warnings.simplefilter("ignore", erfa.ErfaWarning)
 
     ids = np.loadtxt(args.first, delimiter=",", skiprows=1, usecols=0, dtype=str)
     ra, dec, plx, pmra, pmdec, vmag = np.loadtxt(args.first, delimiter=",", skiprows=1,
