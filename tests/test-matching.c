@@ -407,6 +407,51 @@ test_explain (SlTestProject *f, gconstpointer data)
   g_assert_nonnull (strstr (after->str, "split off into star B1 by test-user"));
 }
 
+/* With --epoch the common epoch is that one, whatever the rows say;
+ * without any epoch the positions are matched as they are, and a star
+ * that moved is not found (nothing pretends to know where it was). */
+static void
+test_common_epoch (SlTestProject *f, gconstpointer data)
+{
+  g_autoptr (GError) error = NULL;
+  g_autoptr (SlImportReport) first = import_text (f, "a.csv", catalogue_a, 0, &error);
+  g_autofree char *path = sl_test_write_file (f->dir, "c.csv",
+                                              "id,ra,dec\n"
+                                              "C1,10.00002,20.00001\n"
+                                              "C2,50.0256600,-30.0133333\n", -1);
+  g_autofree char *b2 = NULL;
+  g_autoptr (SlImportReport) second = NULL;
+  g_autoptr (SlImportReport) third = NULL;
+  g_autoptr (GString) text = g_string_new (NULL);
+  SlImportOptions options;
+
+  sl_import_options_init (&options);
+  options.match_radius = 1.0;
+  second = sl_import_csv (f->project, path, &options, &error);
+  g_assert_no_error (error);
+  g_assert_true (isnan (second->match_epoch));
+  g_assert_cmpuint (second->matched, ==, 1);
+  g_assert_cmpuint (second->new_stars, ==, 1);   /* C2: A3 is 93 arcsec from where it was in 2000 */
+  g_assert_cmpint (query_int (f, "SELECT count(*) FROM matches WHERE row_designation = 'C1' AND epoch IS NULL"), ==, 1);
+  g_assert_true (sl_explain (f->project, "A1", "ra", SL_EXPLAIN_TEXT, text, &error));
+  g_assert_nonnull (strstr (text->str, "moved to the positions' own epochs (none known)"));
+
+  /* The same rows said to be of 2016: A3 is carried there and found,
+   * beside the star C2 made of the same row just now, so that row is
+   * ambiguous between the two. */
+  options.epoch = 2016.0;
+  options.again = TRUE;
+  third = sl_import_csv (f->project, path, &options, &error);
+  g_assert_no_error (error);
+  sl_assert_close (third->match_epoch, 2016.0, 0, "--epoch is the common epoch");
+  g_assert_cmpuint (third->matched, ==, 1);
+  g_assert_cmpuint (third->ambiguous->len, ==, 1);
+  b2 = query_text (f, "SELECT group_concat (value ->> 'designation', ' ') FROM matches x, "
+                      "json_each (x.candidates) JOIN measurements m ON m.id = x.measurement_id "
+                      "WHERE m.source_id = 3 AND m.line = 3");
+  g_assert_true (g_str_equal (b2, "C2 A3") || g_str_equal (b2, "A3 C2"));
+}
+
 /* Without a match radius nothing changes: rows join by id. */
 static void
 test_by_id_unchanged (SlTestProject *f, gconstpointer data)
@@ -437,6 +482,7 @@ main (int argc, char **argv)
   ADD ("/matching/import/no-position-rejected", test_no_position_rejected);
   ADD ("/matching/import/ledger-counts", test_ledger_counts);
   ADD ("/matching/import/by-id-unchanged", test_by_id_unchanged);
+  ADD ("/matching/import/common-epoch", test_common_epoch);
   ADD ("/matching/split/one-row", test_split);
   ADD ("/matching/split/all-or-nothing", test_split_all_or_nothing);
   ADD ("/matching/split/bad-references", test_split_bad_references);
