@@ -77,7 +77,7 @@ struct SlRowMatcher {
   gboolean    epoch_fixed;   /* --epoch given, or chosen from the first row */
   SlSkyIndex *index;         /* built at the first row; keys index star_ids */
   GArray     *star_ids;      /* gint64, the project's stars with a position */
-  gint64     *claims;        /* per star: its unique match's id, 0, or -1 if contested */
+  gint64     *claims;        /* per star: the measurement of its unique match, 0, or -1 if contested */
   GArray     *found;         /* SlSkyCandidate scratch */
   GArray     *ambiguous;     /* SlAmbiguousRow */
   guint64     matched, renamed;
@@ -191,13 +191,13 @@ prepare (SlRowMatcher *matcher, GError **error)
             "epoch, radius_arcsec, candidates, reason) VALUES (?, ?, ?, ?, ?, ?, ?, ?)", error))
       && (matcher->demote_load = sl_project_prepare (p,
             "SELECT x.measurement_id, x.row_designation, m.line, x.candidates FROM matches x "
-            "JOIN measurements m ON m.id = x.measurement_id WHERE x.id = ?", error))
+            "JOIN measurements m ON m.id = x.measurement_id WHERE x.measurement_id = ?", error))
       /* The star it had joined becomes its candidate: before the move. */
       && (matcher->demote_match = sl_project_prepare (p,
             "UPDATE matches SET status = 'ambiguous', reason = ?1, candidates = "
             "(SELECT json_array (json_object ('star_id', s.id, 'designation', s.designation, "
             "'separation_arcsec', matches.separation_arcsec)) FROM measurements m "
-            "JOIN stars s ON s.id = m.star_id WHERE m.id = matches.measurement_id) WHERE id = ?2", error))
+            "JOIN stars s ON s.id = m.star_id WHERE m.id = matches.measurement_id) WHERE measurement_id = ?2", error))
       && (matcher->move_measurement = sl_project_prepare (p,
             "UPDATE measurements SET star_id = ? WHERE id = ?", error));
 }
@@ -577,7 +577,7 @@ split_one (SlProject *project, const SlRowRef *ref, GPtrArray *new_designations,
   if (source_id == 0)
     return FALSE;
   stmt = sl_project_prepare (project,
-                             "SELECT x.id, x.status, m.id, m.star_id, x.row_designation, s.designation, src.file_name "
+                             "SELECT x.measurement_id, x.status, m.id, m.star_id, x.row_designation, s.designation, src.file_name "
                              "FROM measurements m JOIN sources src ON src.id = m.source_id "
                              "JOIN stars s ON s.id = m.star_id "
                              "LEFT JOIN matches x ON x.measurement_id = m.id "
@@ -635,7 +635,7 @@ split_one (SlProject *project, const SlRowRef *ref, GPtrArray *new_designations,
     return FALSE;
   stmt = sl_project_prepare (project,
                              "UPDATE matches SET status = 'split', split_from = ?, "
-                             "split_by = ?, split_at = ? WHERE id = ?", error);
+                             "split_by = ?, split_at = ? WHERE measurement_id = ?", error);
   if (stmt == NULL)
     return FALSE;
   sqlite3_bind_int64 (stmt, 1, old_star);

@@ -163,8 +163,8 @@ static const char migration_to_3[] =
  * stars within the radius, and whether the match was later undone. */
 static const char migration_to_4[] =
   "CREATE TABLE matches ("
-  "  id                INTEGER PRIMARY KEY,"
-  "  measurement_id    INTEGER NOT NULL UNIQUE REFERENCES measurements (id),"
+  /* Keyed by the row itself: one B-tree, appended to in import order. */
+  "  measurement_id    INTEGER PRIMARY KEY REFERENCES measurements (id),"
   "  row_designation   TEXT NOT NULL,"      /* the row's own id in its file */
   /* matched: the row is part of the star its measurement belongs to;
    * ambiguous: a star of its own; split: no longer part of split_from. */
