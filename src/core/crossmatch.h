@@ -46,7 +46,8 @@ void sl_astrometry_init (SlAstrometry *a);
 gboolean sl_astrometry_propagate (const SlAstrometry *a, double epoch, double *ra, double *dec);
 
 /* Great-circle separation of two positions in degrees, in arcseconds
- * (Vincenty's formula: accurate at every distance). */
+ * (ERFA's eraSeps, from the cross and dot products: accurate at every
+ * distance). */
 double sl_sky_separation (double ra1, double dec1, double ra2, double dec2);
 
 typedef struct SlSkyIndex SlSkyIndex;
@@ -91,9 +92,10 @@ typedef struct {
 
 /* The whole rule in one call (what the import does row by row): moves
  * STARS and ROWS to EPOCH, and for each row finds the stars within
- * RADIUS_ARCSEC.  A row with one star whose nearest row it is alone is
- * UNIQUE; two or more stars, or a star that is the nearest of several
- * rows, make AMBIGUOUS (for every one of those rows).  OUT has N_ROWS
+ * RADIUS_ARCSEC.  A row is UNIQUE when exactly one star lies within the
+ * radius and no other row has that star as its nearest; with two or more
+ * stars, or a star that is the nearest of several rows, it is AMBIGUOUS
+ * (and so is every other row with that nearest star).  OUT has N_ROWS
  * entries. */
 void sl_crossmatch (const SlAstrometry *stars, gsize n_stars,
                     const SlAstrometry *rows, gsize n_rows,

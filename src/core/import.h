@@ -1,7 +1,8 @@
 /* import.h: bringing a CSV file of measurements into a project.
  *
  * One file is one source.  Each row becomes one measurement of one star
- * (joined by designation), in canonical units, with the line it came from.
+ * (joined by designation, or with a match radius by position: see
+ * matching.h), in canonical units, with the line it came from.
  * A row with a bad value is rejected with its line, column and reason and
  * kept in rejected_rows; the import goes on.  The whole import is one
  * transaction: a failure or a cancel leaves the project as it was.
