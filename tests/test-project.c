@@ -387,6 +387,57 @@ test_migrate_from_v2 (Fixture *f, gconstpointer data)
   g_assert_cmpint (sl_test_query_int (db, "SELECT count(*) FROM list_members"), ==, 0);
 }
 
+/* tests/data/project-v3.sql is a frozen version-3 file: version 2's rows,
+ * a derivation run with two derived rows, and two values set by hand (one
+ * cleared).  Version 4 adds the matches table. */
+static void
+test_migrate_from_v3 (Fixture *f, gconstpointer data)
+{
+  g_autoptr (GError) error = NULL;
+  g_autoptr (SlProject) project = open_fixture (f, "project-v3.sql");
+  sqlite3 *db = sl_project_db (project);
+  g_autofree char *parameters = NULL;
+  g_autofree char *reason = NULL;
+  g_autofree char *status = NULL;
+
+  assert_schema_as_new (f, project);
+  assert_version_1_rows (db);
+  g_assert_cmpint (sl_test_query_int (db, "SELECT count(*) FROM list_members"), ==, 2);
+
+  /* Version 3's rows are kept. */
+  g_assert_cmpint (sl_test_query_int (db, "SELECT count(*) FROM derivation_runs"), ==, 1);
+  parameters = sl_test_query_text (db, "SELECT parameters FROM derivation_runs WHERE id = 1");
+  g_assert_nonnull (strstr (parameters, "errors=linear"));
+  g_assert_cmpint (sl_test_query_int (db, "SELECT count(*) FROM derived"), ==, 2);
+  sl_assert_close (sl_test_query_int (db, "SELECT round (dist_hi * 1e6) FROM derived WHERE star_id = 1"),
+                   82051282, 0, "a derived interval kept");
+  g_assert_cmpint (sl_test_query_int (db, "SELECT stale * 10 + flags FROM derived WHERE star_id = 2"), ==, 14);
+  g_assert_cmpint (sl_test_query_int (db, "SELECT count(*) FROM overrides"), ==, 2);
+  reason = sl_test_query_text (db, "SELECT reason FROM overrides WHERE cleared_at IS NULL");
+  g_assert_cmpstr (reason, ==, "cluster membership");
+  assert_upgrade_logged (db, 3, 3);
+
+  /* Version 4's table works: a row of a source joined to a star by
+   * position, and it refuses a measurement that does not exist and a
+   * status it does not know. */
+  g_assert_true (sl_project_exec (project,
+                                  "INSERT INTO matches (measurement_id, row_designation, status, "
+                                  "separation_arcsec, epoch, radius_arcsec) "
+                                  "VALUES (2, 'B 7', 'matched', 0.4, 2016.0, 1.0)", &error));
+  g_assert_no_error (error);
+  status = sl_test_query_text (db, "SELECT status || ' ' || candidates FROM matches");
+  g_assert_cmpstr (status, ==, "matched []");
+  g_assert_false (sl_project_exec (project,
+                                   "INSERT INTO matches (measurement_id, row_designation, status, radius_arcsec) "
+                                   "VALUES (99, 'x', 'matched', 1)", &error));
+  g_assert_error (error, SL_ERROR, SL_ERROR_DATABASE);
+  g_clear_error (&error);
+  g_assert_false (sl_project_exec (project,
+                                   "INSERT INTO matches (measurement_id, row_designation, status, radius_arcsec) "
+                                   "VALUES (1, 'x', 'merged', 1)", &error));
+  g_assert_error (error, SL_ERROR, SL_ERROR_DATABASE);
+}
+
 static void
 test_hardening (Fixture *f, gconstpointer data)
 {
@@ -436,6 +487,7 @@ main (int argc, char **argv)
   ADD ("/project/open/refuses-newer-schema", test_open_newer_schema);
   ADD ("/project/migrate/from-version-1", test_migrate_from_v1);
   ADD ("/project/migrate/from-version-2", test_migrate_from_v2);
+  ADD ("/project/migrate/from-version-3", test_migrate_from_v3);
   ADD ("/project/hardening", test_hardening);
 #undef ADD
 

@@ -1,6 +1,7 @@
 /* cmd-import.c: starledger-cli import PROJECT FILE [options], and with --dry-run
  * the same report of an import that writes nothing. */
 #include <glib/gi18n.h>
+#include <float.h>
 #include <math.h>
 #include <stdio.h>
 #include <string.h>
@@ -46,8 +47,45 @@ fields_help (void)
                      "maps to it in the stored unit.\nEmpty cells and NaN are missing values, as "
                      "is every --missing token.\nA row with a bad value is rejected and reported "
                      "as FILE:LINE: COLUMN: reason on stderr;\nthe rest of the file is imported "
-                     "in one transaction."));
+                     "in one transaction.\n\nWith --match-radius, each row joins the nearest existing star within the radius, "
+                     "both moved to one epoch\n(the --epoch, else the first row's) with their proper motions; "
+                     "a row with no star within the\nradius is a new star named by its id.  A row with two or "
+                     "more stars within the radius, or whose\nstar is also the nearest of another row, is "
+                     "ambiguous: it is not merged but kept as a star of its own,\nreported, and recorded with "
+                     "its candidates.  'starledger-cli split' undoes a match."));
   return g_string_free (help, FALSE);
+}
+
+/* Ambiguous rows past this many are counted, not listed: each is in the
+ * project, where explain shows it. */
+#define MAX_AMBIGUOUS_LISTED 100
+
+static void
+print_matches (const SlImportReport *report, const char *path)
+{
+  char epoch[G_ASCII_DTOSTR_BUF_SIZE];
+
+  if (report->ambiguous->len == 0 && report->matched == 0 && !isfinite (report->match_epoch))
+    return;
+  if (isfinite (report->match_epoch))
+    printf (_("matched by position at epoch J%s: %" G_GUINT64_FORMAT " rows joined existing stars, "
+              "%u ambiguous\n"),
+            g_ascii_formatd (epoch, sizeof epoch, "%.3f", report->match_epoch), report->matched,
+            report->ambiguous->len);
+  else
+    printf (_("matched by position as given (no epoch known): %" G_GUINT64_FORMAT " rows joined existing "
+              "stars, %u ambiguous\n"),
+            report->matched, report->ambiguous->len);
+  for (guint i = 0; i < report->ambiguous->len && i < MAX_AMBIGUOUS_LISTED; i++)
+    {
+      const SlAmbiguousRow *a = &g_array_index (report->ambiguous, SlAmbiguousRow, i);
+
+      printf (_("%s:%u: ambiguous, not merged: %s; kept as star '%s'\n"), path, a->line,
+              a->explanation, a->designation);
+    }
+  if (report->ambiguous->len > MAX_AMBIGUOUS_LISTED)
+    printf (_("… and %u more ambiguous rows, each kept as a star of its own\n"),
+            report->ambiguous->len - MAX_AMBIGUOUS_LISTED);
 }
 
 static void
@@ -82,6 +120,7 @@ print_report (const SlImportReport *report, const char *path, gboolean dry_run)
     }
   for (guint i = 0; i < report->notes->len; i++)
     printf (_("note: %s\n"), (const char *) report->notes->pdata[i]);
+  print_matches (report, path);
 
   for (guint i = 0; i < report->rejections->len; i++)
     {
@@ -102,6 +141,7 @@ sl_cli_import (int argc, char **argv)
   g_autofree char *delimiter_text = NULL;
   g_autofree char *epoch_text = NULL;
   g_autofree char *source_name = NULL;
+  g_autofree char *radius_text = NULL;
   gboolean again = FALSE;
   gboolean dry_run = FALSE;
   const GOptionEntry entries[] = {
@@ -119,6 +159,9 @@ sl_cli_import (int argc, char **argv)
       N_("Import a file even if the same file was imported before"), NULL },
     { "dry-run", 'n', 0, G_OPTION_ARG_NONE, &dry_run,
       N_("Check the whole file and report as an import would, but write nothing"), NULL },
+    { "match-radius", 0, 0, G_OPTION_ARG_STRING, &radius_text,
+      N_("Join rows to existing stars by position, within ARCSEC at a common epoch, instead of by id"),
+      N_("ARCSEC") },
     { NULL }
   };
   g_autofree char *description = fields_help ();
@@ -154,6 +197,11 @@ sl_cli_import (int argc, char **argv)
           return SL_EXIT_USAGE;
         }
     }
+  /* Up to a degree: beyond it "the same star" means little, and the
+   * index would gain nothing. */
+  if (!sl_cli_parse_number_option (radius_text, &options.match_radius, DBL_TRUE_MIN, 3600.0))
+    return sl_cli_usage_error ("import", _("--match-radius %s: expected a number of arcseconds above 0 "
+                                           "and at most 3600"), radius_text);
   for (guint i = 0; map_specs && map_specs[i]; i++)
     {
       SlColumnMap map;

@@ -13,6 +13,7 @@
 
 #include "derivation.h"
 #include "inputs.h"
+#include "matching.h"
 #include "derive/engine.h"
 #include "sl-error.h"
 #include "util.h"
@@ -543,6 +544,81 @@ write_hr_ellipse (Writer *w, const SlDerivedValues *v)
                           g_ascii_formatd (c, sizeof c, "%.3f", v->logt_logl_corr));
 }
 
+/* How the star's rows were joined to it by position (import
+ * --match-radius), or left it (split): the evidence that two rows are one
+ * star. */
+static gboolean
+write_matches (Writer *w, SlProject *project, gint64 star_id, GError **error)
+{
+  g_autoptr (GArray) infos = sl_match_infos_for_star (project, star_id, error);
+  char sep[G_ASCII_DTOSTR_BUF_SIZE], ep[G_ASCII_DTOSTR_BUF_SIZE], rad[G_ASCII_DTOSTR_BUF_SIZE];
+
+  if (infos == NULL)
+    return FALSE;
+  if (w->format == SL_EXPLAIN_JSON)
+    {
+      json_open (w, "matches", '[');
+      for (guint i = 0; i < infos->len; i++)
+        {
+          const SlMatchInfo *m = &g_array_index (infos, SlMatchInfo, i);
+
+          json_open (w, NULL, '{');
+          json_string (w, "status", m->status);
+          json_number (w, "source_id", (double) m->source_id);
+          json_string (w, "source", m->source_name);
+          json_string (w, "file", m->file_name);
+          json_number (w, "line", m->line);
+          json_string (w, "row_id", m->row_designation);
+          json_string (w, "star", m->star);
+          json_number (w, "separation_arcsec", m->separation);
+          json_number (w, "epoch", m->epoch);
+          json_number (w, "radius_arcsec", m->radius);
+          json_key (w, "candidates");
+          g_string_append (w->out, m->candidates);
+          json_string (w, "reason", m->reason);
+          json_string (w, "split_from", m->other_star);
+          json_string (w, "split_by", m->split_by);
+          json_string (w, "split_at", m->split_at);
+          json_close (w, '}');
+        }
+      json_close (w, ']');
+      return TRUE;
+    }
+
+  if (infos->len == 0)
+    return TRUE;
+  g_string_append (w->out, _("Rows joined by position (import --match-radius):\n"));
+  for (guint i = 0; i < infos->len; i++)
+    {
+      const SlMatchInfo *m = &g_array_index (infos, SlMatchInfo, i);
+
+      g_string_append_printf (w->out, _("  %s line %u (source %" G_GINT64_FORMAT " '%s'), its id '%s': "),
+                              m->file_name, m->line, m->source_id, m->source_name, m->row_designation);
+      g_ascii_formatd (sep, sizeof sep, "%.3f", m->separation);
+      if (isfinite (m->epoch))
+        {
+          ep[0] = 'J';
+          g_ascii_formatd (ep + 1, sizeof ep - 1, "%.3f", m->epoch);
+        }
+      else
+        g_strlcpy (ep, _("the positions' own epochs (none known)"), sizeof ep);
+      sl_format_double (rad, m->radius);
+      if (strcmp (m->status, "matched") == 0)
+        g_string_append_printf (w->out, _("taken as this star: the only star within %s arcsec, %s arcsec "
+                                          "away, both positions moved to %s with their proper motions\n"
+                                          "    (undo with 'starledger-cli split PROJECT %" G_GINT64_FORMAT ":%u')\n"),
+                                rad, sep, ep, m->source_id, m->line);
+      else if (strcmp (m->status, "ambiguous") == 0)
+        g_string_append_printf (w->out, _("ambiguous at %s, so not merged but kept as this star of its own: %s\n"),
+                                ep, m->reason);
+      else
+        g_string_append_printf (w->out, _("had been taken as star %s (%s arcsec away at %s); split off "
+                                          "into star %s by %s at %s\n"),
+                                m->other_star, sep, ep, m->star, m->split_by, m->split_at);
+    }
+  return TRUE;
+}
+
 static gboolean
 explain_input (SlProject *project, const char *designation, SlField field, Writer *w, GError **error)
 {
@@ -577,7 +653,7 @@ explain_input (SlProject *project, const char *designation, SlField field, Write
       write_raw_input (w, &r);
     }
   raw_input_clear (&r);
-  return TRUE;
+  return write_matches (w, project, star_id, error);
 }
 
 gboolean
@@ -658,10 +734,10 @@ sl_explain (SlProject *project, const char *designation, const char *quantity,
     }
 
   if (format == SL_EXPLAIN_JSON)
-    {
-      json_close (&w, ']');
-      g_string_append (out, "}\n");
-    }
+    json_close (&w, ']');
+  ok = ok && write_matches (&w, project, star_id, error);
+  if (format == SL_EXPLAIN_JSON)
+    g_string_append (out, "}\n");
   run_info_clear (&run);
   return ok;
 }

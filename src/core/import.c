@@ -540,7 +540,74 @@ typedef struct {
   ColumnPlan             plan;
   ImportStatements       st;
   const SlCsvRecord     *header;
+  SlRowMatcher          *matcher;   /* with --match-radius: rows join stars by position */
 } Import;
+
+/* The hook that decides which star a row belongs to: by its id, or with
+ * a match radius by position (matching.h).  Returns the star's id, 0 on a
+ * database error, or -1 when the row cannot be matched (*REASON says
+ * why). */
+static gint64
+star_for_row (Import *im, const RowValues *row, guint line, char **reason, GError **error)
+{
+  SlAstrometry a;
+  gint64 star_id;
+
+  if (im->matcher == NULL)
+    {
+      star_id = star_for_designation (&im->st, row->text[SL_FIELD_ID], im->report->source_id,
+                                      &im->report->new_stars);
+      if (star_id == 0)
+        sl_project_set_db_error (im->project, error, "stars");
+      return star_id;
+    }
+  a.ra = row->present[SL_FIELD_RA] ? row->number[SL_FIELD_RA] : NAN;
+  a.dec = row->present[SL_FIELD_DEC] ? row->number[SL_FIELD_DEC] : NAN;
+  a.pmra = row->present[SL_FIELD_PMRA] ? row->number[SL_FIELD_PMRA] : NAN;
+  a.pmdec = row->present[SL_FIELD_PMDEC] ? row->number[SL_FIELD_PMDEC] : NAN;
+  a.parallax = row->present[SL_FIELD_PARALLAX] ? row->number[SL_FIELD_PARALLAX] : NAN;
+  a.vrad = row->present[SL_FIELD_VRAD] ? row->number[SL_FIELD_VRAD] : NAN;
+  a.epoch = row->present[SL_FIELD_EPOCH] ? row->number[SL_FIELD_EPOCH] : NAN;
+  return sl_row_matcher_find (im->matcher, row->text[SL_FIELD_ID], &a, line,
+                              &im->report->new_stars, reason, error);
+}
+
+/* Starts matching by position once the source exists. */
+static gboolean
+start_matcher (Import *im, GError **error)
+{
+  if (im->options->match_radius > 0.0)
+    im->matcher = sl_row_matcher_new (im->project, im->report->source_id,
+                                      im->options->match_radius, im->options->epoch);
+  return TRUE;
+}
+
+/* Copies the matcher's outcome into the report, before the ledger entry. */
+static gboolean
+finish_matcher (Import *im, GError **error)
+{
+  SlImportReport *report = im->report;
+  GArray *ambiguous;
+
+  if (im->matcher == NULL)
+    return TRUE;
+  ambiguous = sl_row_matcher_ambiguous (im->matcher);
+  report->matched = sl_row_matcher_matched (im->matcher);
+  report->match_epoch = sl_row_matcher_epoch (im->matcher);
+  for (guint i = 0; i < ambiguous->len; i++)
+    {
+      SlAmbiguousRow *a = &g_array_index (ambiguous, SlAmbiguousRow, i);
+      SlAmbiguousRow copy = { a->line, g_strdup (a->designation), g_strdup (a->explanation) };
+
+      g_array_append_val (report->ambiguous, copy);
+    }
+  if (sl_row_matcher_renamed (im->matcher) > 0)
+    g_ptr_array_add (report->notes,
+                     g_strdup_printf (_("%" G_GUINT64_FORMAT " new stars were named with the source's "
+                                        "number because their id is taken by another star"),
+                                      sl_row_matcher_renamed (im->matcher)));
+  return TRUE;
+}
 
 /* Converts and stores one data record; FALSE only on a database error. */
 static gboolean
@@ -587,13 +654,16 @@ import_record (Import *im, SlCsvRecord *record, GError **error)
       row.present[SL_FIELD_EPOCH] = TRUE;
     }
 
-  star_id = star_for_designation (&im->st, row.text[SL_FIELD_ID], report->source_id,
-                                  &report->new_stars);
-  if (star_id == 0)
-    {
-      sl_project_set_db_error (im->project, error, "stars");
+  {
+    char *reason = NULL;
+
+    star_id = star_for_row (im, &row, record->line, &reason, error);
+    if (star_id < 0)
+      return store_rejection (&im->st, report->source_id, record, NULL, reason, report)
+             || (sl_project_set_db_error (im->project, error, "rejected_rows"), FALSE);
+    if (star_id == 0)
       return FALSE;
-    }
+  }
 
   rc = store_measurement (&im->st, star_id, report->source_id, record->line, &row);
   if (rc == SQLITE_CONSTRAINT)
@@ -609,6 +679,9 @@ import_record (Import *im, SlCsvRecord *record, GError **error)
       sl_project_set_db_error (im->project, error, "measurements");
       return FALSE;
     }
+  if (im->matcher
+      && !sl_row_matcher_record (im->matcher, sqlite3_last_insert_rowid (sl_project_db (im->project)), error))
+    return FALSE;
   report->rows_accepted++;
   return TRUE;
 }
@@ -756,6 +829,15 @@ finish_source (Import *im, GError **error)
 
     summary = g_strdup_printf (_("imported %s: %s, %u rejected, %s"), report->file_name, accepted,
                                report->rejections->len, new_stars);
+    if (im->matcher)
+      {
+        g_autofree char *n_matched = g_strdup_printf ("%" G_GUINT64_FORMAT, report->matched);
+        char *with_matches = g_strdup_printf (_("%s, %s matched by position, %u ambiguous"), summary,
+                                              n_matched, report->ambiguous->len);
+
+        g_free (summary);
+        summary = with_matches;
+      }
   }
   g_string_append_printf (details, "{\"source_id\":%" G_GINT64_FORMAT ",\"file\":", report->source_id);
   sl_json_append_string (details, report->file_name);
@@ -765,6 +847,16 @@ finish_source (Import *im, GError **error)
                           ",\"rejected\":%u,\"new_stars\":%" G_GUINT64_FORMAT "}",
                           report->rows_read, report->rows_accepted, report->rejections->len,
                           report->new_stars);
+  if (im->matcher)
+    {
+      g_string_truncate (details, details->len - 1);
+      g_string_append (details, ",\"match_radius_arcsec\":");
+      sl_json_append_number (details, im->options->match_radius);
+      g_string_append (details, ",\"match_epoch\":");
+      sl_json_append_number (details, report->match_epoch);
+      g_string_append_printf (details, ",\"matched\":%" G_GUINT64_FORMAT ",\"ambiguous\":%u}",
+                              report->matched, report->ambiguous->len);
+    }
   ok = sl_ledger_append (im->project, "import", summary, details->str, error);
   g_string_free (details, TRUE);
   return ok;
@@ -779,6 +871,15 @@ rejection_clear (gpointer data)
   g_free (rejection->reason);
 }
 
+static void
+ambiguous_row_clear (gpointer data)
+{
+  SlAmbiguousRow *row = data;
+
+  g_free (row->designation);
+  g_free (row->explanation);
+}
+
 static SlImportReport *
 report_new (const char *file_name)
 {
@@ -789,6 +890,9 @@ report_new (const char *file_name)
   g_array_set_clear_func (report->rejections, rejection_clear);
   report->ignored_columns = g_ptr_array_new_with_free_func (g_free);
   report->notes = g_ptr_array_new_with_free_func (g_free);
+  report->ambiguous = g_array_new (FALSE, FALSE, sizeof (SlAmbiguousRow));
+  g_array_set_clear_func (report->ambiguous, ambiguous_row_clear);
+  report->match_epoch = NAN;
   return report;
 }
 
@@ -802,6 +906,7 @@ sl_import_report_free (SlImportReport *report)
   g_array_unref (report->rejections);
   g_ptr_array_unref (report->ignored_columns);
   g_ptr_array_unref (report->notes);
+  g_array_unref (report->ambiguous);
   g_free (report);
 }
 
@@ -887,7 +992,7 @@ sl_import_csv (SlProject *project, const char *path, const SlImportOptions *opti
   SlCsvRecord header;
   const char *data;
   gsize length;
-  Import im = { project, options, NULL };
+  Import im = { project, options, NULL, .matcher = NULL };
 
   g_return_val_if_fail (project != NULL && path != NULL && options != NULL, NULL);
 
@@ -949,16 +1054,20 @@ sl_import_csv (SlProject *project, const char *path, const SlImportOptions *opti
         || (report->source_id = insert_source (project, path, file_name, options, report,
                                                mapping, length, error)) == 0
         || !prepare_statements (project, &im.st, error)
+        || !start_matcher (&im, error)
         || !import_records (&im, reader, length, error)
         || !fail_if_nothing_accepted (&im, error)
+        || !finish_matcher (&im, error)
         || !finish_source (&im, error)
         || !end_import (project, options, error))
       {
         finalize_statements (&im.st);
+        g_clear_pointer (&im.matcher, sl_row_matcher_free);
         sl_project_rollback (project);
         return NULL;
       }
     finalize_statements (&im.st);
+    g_clear_pointer (&im.matcher, sl_row_matcher_free);
   }
   return g_steal_pointer (&report);
 }

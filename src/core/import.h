@@ -1,7 +1,8 @@
 /* import.h: bringing a CSV file of measurements into a project.
  *
  * One file is one source.  Each row becomes one measurement of one star
- * (joined by designation), in canonical units, with the line it came from.
+ * (joined by designation, or with a match radius by position: see
+ * matching.h), in canonical units, with the line it came from.
  * A row with a bad value is rejected with its line, column and reason and
  * kept in rejected_rows; the import goes on.  The whole import is one
  * transaction: a failure or a cancel leaves the project as it was.
@@ -14,6 +15,7 @@
 
 #include <gio/gio.h>
 
+#include "matching.h"
 #include "project.h"
 #include "vocabulary.h"
 
@@ -44,6 +46,7 @@ typedef struct {
   gboolean       explicit_only; /* take only the columns in MAPS; no header name maps itself */
   gboolean       dry_run;       /* do everything, then roll back: the report of an import
                                  * that writes nothing (source_id is the one it would get) */
+  double         match_radius;  /* arcsec: join rows to stars by position (matching.h); 0: by id */
   GCancellable  *cancellable;
   SlProgressFunc progress;      /* called now and then with the fraction read */
   gpointer       progress_data;
@@ -68,6 +71,10 @@ typedef struct {
   GArray    *rejections;      /* SlRejection, in file order */
   GPtrArray *ignored_columns; /* header names that map to no field */
   GPtrArray *notes;           /* things the user should know, one sentence each */
+  /* With a match radius: */
+  guint64    matched;         /* rows joined to an existing star by position */
+  GArray    *ambiguous;       /* SlAmbiguousRow: rows made stars of their own, in order found */
+  double     match_epoch;     /* the common epoch, Julian year; NAN: none */
 } SlImportReport;
 
 SlImportReport *sl_import_csv (SlProject *project, const char *path,

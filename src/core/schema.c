@@ -157,10 +157,36 @@ static const char migration_to_3[] =
   ") STRICT;"
   "CREATE UNIQUE INDEX overrides_active ON overrides (star_id, quantity) WHERE cleared_at IS NULL;";
 
+/* Version 4: how each row imported with --match-radius was joined to a
+ * star by position: the star it joined (or was given when no star or
+ * more than one could be chosen), its separation at the common epoch, the
+ * stars within the radius, and whether the match was later undone. */
+static const char migration_to_4[] =
+  "CREATE TABLE matches ("
+  /* Keyed by the row itself: one B-tree, appended to in import order. */
+  "  measurement_id    INTEGER PRIMARY KEY REFERENCES measurements (id),"
+  "  row_designation   TEXT NOT NULL,"      /* the row's own id in its file */
+  /* matched: the row is part of the star its measurement belongs to;
+   * ambiguous: a star of its own; split: no longer part of split_from. */
+  "  status            TEXT NOT NULL CHECK (status IN ('matched', 'ambiguous', 'split')),"
+  "  separation_arcsec REAL,"               /* to the nearest star, at the common epoch */
+  "  epoch             REAL,"               /* the common epoch, Julian year; NULL: none known */
+  "  radius_arcsec     REAL NOT NULL,"
+  "  candidates        TEXT NOT NULL DEFAULT '[]',"  /* JSON [{star_id, designation, separation_arcsec}] */
+  "  reason            TEXT NOT NULL DEFAULT '',"    /* why ambiguous, in words */
+  "  split_by          TEXT,"
+  "  split_at          TEXT,"
+  "  split_from        INTEGER REFERENCES stars (id)" /* split: the star it had joined */
+  ") STRICT;"
+  /* Few rows are ever split: a partial index finds them from the star
+   * they left without slowing every import down. */
+  "CREATE INDEX matches_split_from ON matches (split_from) WHERE split_from IS NOT NULL;";
+
 static const char *const migrations[] = {
   migration_to_1,
   migration_to_2,
   migration_to_3,
+  migration_to_4,
 };
 
 int
