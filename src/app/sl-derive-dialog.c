@@ -14,6 +14,7 @@
  */
 #include "sl-derive-dialog.h"
 
+#include <inttypes.h>
 #include <glib/gi18n.h>
 
 #include "derivation.h"
@@ -272,7 +273,7 @@ load_latest (SlDeriveDialog *self)
   project = path ? sl_project_open (path, &error) : NULL;
   if (project && sl_derivation_latest_params (project, &self->params, &run_id, &error) && run_id > 0)
     {
-      g_autofree char *run = g_strdup_printf ("%" G_GINT64_FORMAT, run_id);
+      g_autofree char *run = g_strdup_printf ("%" PRId64, run_id);
 
       origin = g_strdup_printf (_("As in run %s, the project's latest. Stars derived with other parameters are "
                                   "derived again."), run);

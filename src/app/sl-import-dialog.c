@@ -16,6 +16,7 @@
  */
 #include "sl-import-dialog.h"
 
+#include <inttypes.h>
 #include <glib/gi18n.h>
 #include <math.h>
 #include <string.h>
@@ -276,9 +277,9 @@ append_rejection (GString *text, const SlRejection *rejection)
 static char *
 report_summary (const SlImportReport *report)
 {
-  g_autofree char *n_accepted = g_strdup_printf ("%" G_GUINT64_FORMAT, report->rows_accepted);
-  g_autofree char *n_new = g_strdup_printf ("%" G_GUINT64_FORMAT, report->new_stars);
-  g_autofree char *n_read = g_strdup_printf ("%" G_GUINT64_FORMAT, report->rows_read);
+  g_autofree char *n_accepted = g_strdup_printf ("%" PRIu64, report->rows_accepted);
+  g_autofree char *n_new = g_strdup_printf ("%" PRIu64, report->new_stars);
+  g_autofree char *n_read = g_strdup_printf ("%" PRIu64, report->rows_read);
   GString *text = g_string_new (NULL);
   g_autofree char *new_stars = g_strdup_printf (g_dngettext (GETTEXT_PACKAGE, "%s new star", "%s new stars",
                                                              report->new_stars), n_new);
@@ -483,7 +484,7 @@ on_imported (GObject *source, GAsyncResult *result, gpointer user_data)
                                : error->message);
       return;
     }
-  accepted = g_strdup_printf ("%" G_GUINT64_FORMAT, report->rows_accepted);
+  accepted = g_strdup_printf ("%" PRIu64, report->rows_accepted);
   rows = g_strdup_printf (g_dngettext (GETTEXT_PACKAGE, "Imported %s row", "Imported %s rows",
                                        report->rows_accepted), accepted);
   message = g_strdup_printf (g_dngettext (GETTEXT_PACKAGE, "%s, rejected %u", "%s, rejected %u",

@@ -17,6 +17,7 @@
  */
 #include "sl-lists-panel.h"
 
+#include <inttypes.h>
 #include <glib/gi18n.h>
 #include <string.h>
 
@@ -75,8 +76,8 @@ list_row (const SlListInfo *info)
   GtkWidget *row = gtk_list_box_row_new ();
   GtkWidget *grid = gtk_grid_new ();
   GtkWidget *name = gtk_label_new (info->name);
-  g_autofree char *count = g_strdup_printf (g_dngettext (GETTEXT_PACKAGE, "%" G_GINT64_FORMAT " star",
-                                                         "%" G_GINT64_FORMAT " stars", info->n_stars),
+  g_autofree char *count = g_strdup_printf (g_dngettext (GETTEXT_PACKAGE, "%" PRId64 " star",
+                                                         "%" PRId64 " stars", info->n_stars),
                                             info->n_stars);
   GtkWidget *size = gtk_label_new (count);
   g_autoptr (GString) subtitle = g_string_new (NULL);
@@ -335,7 +336,7 @@ bind_member_cell (GtkSignalListItemFactory *factory, GtkListItem *item, gpointer
       gtk_label_set_text (label, member->designation);
       break;
     case MEMBER_PRIORITY:
-      priority = g_strdup_printf ("%" G_GINT64_FORMAT, member->priority);
+      priority = g_strdup_printf ("%" PRId64, member->priority);
       gtk_label_set_text (label, priority);
       break;
     case MEMBER_TAGS:
@@ -484,9 +485,9 @@ on_delete_clicked (SlListsPanel *self)
     return;
   heading = g_strdup_printf (_("Delete List %s?"), info->name);
   body = g_strdup_printf (g_dngettext (GETTEXT_PACKAGE,
-                                       "The list of %" G_GINT64_FORMAT " star, with its priorities, tags and "
+                                       "The list of %" PRId64 " star, with its priorities, tags and "
                                        "notes, is deleted. The stars stay in the project.",
-                                       "The list of %" G_GINT64_FORMAT " stars, with their priorities, tags and "
+                                       "The list of %" PRId64 " stars, with their priorities, tags and "
                                        "notes, is deleted. The stars stay in the project.", info->n_stars),
                           info->n_stars);
   dialog = ADW_MESSAGE_DIALOG (adw_message_dialog_new (GTK_WINDOW (self->window), heading, body));
@@ -706,8 +707,8 @@ sl_lists_panel_create_list (SlWindow *window, const char *name, const char *desc
                                  description && *description ? description : NULL, error);
   if (n < 0)
     return FALSE;
-  message = g_strdup_printf (g_dngettext (GETTEXT_PACKAGE, "Made list %s of %" G_GINT64_FORMAT " star",
-                                          "Made list %s of %" G_GINT64_FORMAT " stars", n),
+  message = g_strdup_printf (g_dngettext (GETTEXT_PACKAGE, "Made list %s of %" PRId64 " star",
+                                          "Made list %s of %" PRId64 " stars", n),
                              name, n);
   sl_window_toast (window, message);
   g_free (panel_of (window)->current);
@@ -750,12 +751,12 @@ change_members (SlWindow *window, const char *name, gboolean add)
       return;
     }
   if (add)
-    message = g_strdup_printf (g_dngettext (GETTEXT_PACKAGE, "Added %" G_GINT64_FORMAT " star to %s",
-                                            "Added %" G_GINT64_FORMAT " stars to %s", n),
+    message = g_strdup_printf (g_dngettext (GETTEXT_PACKAGE, "Added %" PRId64 " star to %s",
+                                            "Added %" PRId64 " stars to %s", n),
                                n, name);
   else
-    message = g_strdup_printf (g_dngettext (GETTEXT_PACKAGE, "Removed %" G_GINT64_FORMAT " star from %s",
-                                            "Removed %" G_GINT64_FORMAT " stars from %s", n),
+    message = g_strdup_printf (g_dngettext (GETTEXT_PACKAGE, "Removed %" PRId64 " star from %s",
+                                            "Removed %" PRId64 " stars from %s", n),
                                n, name);
   sl_window_toast (window, message);
   sl_window_lists_changed (window, name);

@@ -17,6 +17,7 @@
  */
 #include "sl-window.h"
 
+#include <inttypes.h>
 #include <glib/gi18n.h>
 #include <glib/gstdio.h>
 #include <math.h>
@@ -708,7 +709,7 @@ on_derived (GObject *source, GAsyncResult *result, gpointer user_data)
                      : error->message);
       return;
     }
-  count = g_strdup_printf ("%" G_GUINT64_FORMAT, report->computed);
+  count = g_strdup_printf ("%" PRIu64, report->computed);
   message = g_strdup_printf (g_dngettext (GETTEXT_PACKAGE, "Derived %s star", "Derived %s stars",
                                           report->computed), count);
   toast (self, message);
@@ -826,7 +827,7 @@ on_imported (GObject *source, GAsyncResult *result, gpointer user_data)
                      : error->message);
       return;
     }
-  accepted = g_strdup_printf ("%" G_GUINT64_FORMAT, report->rows_accepted);
+  accepted = g_strdup_printf ("%" PRIu64, report->rows_accepted);
   rows = g_strdup_printf (g_dngettext (GETTEXT_PACKAGE, "Imported %s row", "Imported %s rows",
                                        report->rows_accepted), accepted);
   message = g_strdup_printf (g_dngettext (GETTEXT_PACKAGE, "%s, rejected %u", "%s, rejected %u",

@@ -1,4 +1,5 @@
 /* cmd-lists.c: starledger-cli lists PROJECT */
+#include <inttypes.h>
 #include <glib/gi18n.h>
 #include <stdio.h>
 
@@ -33,8 +34,8 @@ sl_cli_lists (int argc, char **argv)
     {
       const SlListInfo *info = infos->pdata[i];
 
-      printf (g_dngettext (GETTEXT_PACKAGE, "%s: %" G_GINT64_FORMAT " star, made by %s at %s\n",
-                           "%s: %" G_GINT64_FORMAT " stars, made by %s at %s\n", info->n_stars),
+      printf (g_dngettext (GETTEXT_PACKAGE, "%s: %" PRId64 " star, made by %s at %s\n",
+                           "%s: %" PRId64 " stars, made by %s at %s\n", info->n_stars),
               info->name, info->n_stars, info->created_by, info->created_at);
       if (info->condition)
         printf (_("  where %s\n"), g_strdelimit (info->condition, "\t\r\n", ' '));
@@ -43,8 +44,8 @@ sl_cli_lists (int argc, char **argv)
       if (info->description && *info->description)
         printf ("  %s\n", info->description);
       if (info->n_stale > 0)
-        printf (g_dngettext (GETTEXT_PACKAGE, "  %" G_GINT64_FORMAT " star with stale derived values\n",
-                             "  %" G_GINT64_FORMAT " stars with stale derived values\n", info->n_stale),
+        printf (g_dngettext (GETTEXT_PACKAGE, "  %" PRId64 " star with stale derived values\n",
+                             "  %" PRId64 " stars with stale derived values\n", info->n_stale),
                 info->n_stale);
     }
   return SL_EXIT_OK;

@@ -6,6 +6,7 @@
  * with its default, range and source.  --markdown writes the README's
  * Methods section, which tests/check-readme-methods.py keeps identical to
  * it, so the two cannot drift. */
+#include <inttypes.h>
 #include <float.h>
 #include <glib/gi18n.h>
 #include <stdio.h>
@@ -84,7 +85,7 @@ param_range (const SlParamInfo *p)
       append_number_range (text, p);
       break;
     default:
-      g_string_append_printf (text, "%" G_GUINT64_FORMAT " to %" G_GUINT64_FORMAT, p->count_min, p->count_max);
+      g_string_append_printf (text, "%" PRIu64 " to %" PRIu64, p->count_min, p->count_max);
       break;
     }
   return g_string_free (g_steal_pointer (&text), FALSE);

@@ -1,5 +1,6 @@
 /* cmd-select.c: starledger-cli select PROJECT --where EXPR --into LIST
  *               [--replace] [--description TEXT] */
+#include <inttypes.h>
 #include <glib/gi18n.h>
 #include <stdio.h>
 
@@ -70,17 +71,17 @@ sl_cli_select (int argc, char **argv)
   n = sl_list_create_from_condition (project, into, where, description, replace, &error);
   if (n < 0)
     return sl_cli_fail (error);
-  printf (g_dngettext (GETTEXT_PACKAGE, "list %s: %" G_GINT64_FORMAT " star\n",
-                       "list %s: %" G_GINT64_FORMAT " stars\n", n), into, n);
+  printf (g_dngettext (GETTEXT_PACKAGE, "list %s: %" PRId64 " star\n",
+                       "list %s: %" PRId64 " stars\n", n), into, n);
 
   /* What the user should know about the stars the condition could not see. */
   summary = sl_project_summary (project, NULL);
   infos = sl_list_infos (project, NULL);
   if (summary && summary->n_stars > summary->n_derived)
     fprintf (stderr, g_dngettext (GETTEXT_PACKAGE,
-                                  "starledger-cli select: note: %" G_GINT64_FORMAT " star has never been derived "
+                                  "starledger-cli select: note: %" PRId64 " star has never been derived "
                                   "and cannot be selected; run 'derive'\n",
-                                  "starledger-cli select: note: %" G_GINT64_FORMAT " stars have never been derived "
+                                  "starledger-cli select: note: %" PRId64 " stars have never been derived "
                                   "and cannot be selected; run 'derive'\n",
                                   summary->n_stars - summary->n_derived),
              summary->n_stars - summary->n_derived);
@@ -90,9 +91,9 @@ sl_cli_select (int argc, char **argv)
 
       if (g_strcmp0 (info->name, into) == 0 && info->n_stale > 0)
         fprintf (stderr, g_dngettext (GETTEXT_PACKAGE,
-                                      "starledger-cli select: note: %" G_GINT64_FORMAT " star of the list has "
+                                      "starledger-cli select: note: %" PRId64 " star of the list has "
                                       "stale derived values (its inputs changed); run 'derive' and select again\n",
-                                      "starledger-cli select: note: %" G_GINT64_FORMAT " stars of the list have "
+                                      "starledger-cli select: note: %" PRId64 " stars of the list have "
                                       "stale derived values (their inputs changed); run 'derive' and select again\n",
                                       info->n_stale),
                  info->n_stale);

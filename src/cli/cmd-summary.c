@@ -1,4 +1,5 @@
 /* cmd-summary.c: starledger-cli summary PROJECT [--stars N] */
+#include <inttypes.h>
 #include <glib/gi18n.h>
 #include <math.h>
 #include <stdio.h>
@@ -17,8 +18,8 @@ print_sources (const SlProjectSummary *summary)
     {
       const SlSourceInfo *s = summary->sources->pdata[i];
 
-      printf (_("  %" G_GINT64_FORMAT "  %s (%s), imported %s by %s: %" G_GINT64_FORMAT
-                " rows accepted, %" G_GINT64_FORMAT " rejected\n"),
+      printf (_("  %" PRId64 "  %s (%s), imported %s by %s: %" PRId64
+                " rows accepted, %" PRId64 " rejected\n"),
               s->id, s->name, s->file_name, s->imported_at, s->imported_by,
               s->rows_accepted, s->rows_rejected);
     }
@@ -70,7 +71,7 @@ print_stars (SlProject *project, gint64 n_stars, int limit, GError **error)
 
   if (cursor == NULL)
     return FALSE;
-  printf (_("Stars (the first %d of %" G_GINT64_FORMAT "; positions ICRS at the epoch shown):\n"),
+  printf (_("Stars (the first %d of %" PRId64 "; positions ICRS at the epoch shown):\n"),
           (int) MIN (limit, n_stars), n_stars);
   printf ("  %-10s %-14s %-13s %7s %9s %7s %6s %6s %8s %7s %9s %-7s %s\n", _("id"), _("RA (h m s)"),
           _("Dec (d m s)"), _("epoch"), _("parallax"), "±", "V", "B-V", _("dist/pc"), _("Teff/K"),
@@ -120,29 +121,29 @@ sl_cli_summary (int argc, char **argv)
 
   printf (_("Project %s (schema version %d)\n"), argv[1], summary->schema_version);
   printf ("  ");
-  printf (g_dngettext (GETTEXT_PACKAGE, "%" G_GINT64_FORMAT " star", "%" G_GINT64_FORMAT " stars",
+  printf (g_dngettext (GETTEXT_PACKAGE, "%" PRId64 " star", "%" PRId64 " stars",
                        summary->n_stars), summary->n_stars);
   printf (", ");
-  printf (g_dngettext (GETTEXT_PACKAGE, "%" G_GINT64_FORMAT " measurement", "%" G_GINT64_FORMAT " measurements",
+  printf (g_dngettext (GETTEXT_PACKAGE, "%" PRId64 " measurement", "%" PRId64 " measurements",
                        summary->n_measurements), summary->n_measurements);
   printf (g_dngettext (GETTEXT_PACKAGE, " from %u source", " from %u sources", summary->sources->len),
           summary->sources->len);
   printf (", ");
-  printf (g_dngettext (GETTEXT_PACKAGE, "%" G_GINT64_FORMAT " rejected row", "%" G_GINT64_FORMAT " rejected rows",
+  printf (g_dngettext (GETTEXT_PACKAGE, "%" PRId64 " rejected row", "%" PRId64 " rejected rows",
                        summary->n_rejected), summary->n_rejected);
   printf (", ");
-  printf (g_dngettext (GETTEXT_PACKAGE, "%" G_GINT64_FORMAT " ledger entry", "%" G_GINT64_FORMAT " ledger entries",
+  printf (g_dngettext (GETTEXT_PACKAGE, "%" PRId64 " ledger entry", "%" PRId64 " ledger entries",
                        summary->n_ledger), summary->n_ledger);
   printf ("\n");
   if (summary->n_runs == 0)
     printf (_("  not derived yet: run 'starledger-cli derive'\n"));
   else
     {
-      g_autofree char *runs = g_strdup_printf (g_dngettext (GETTEXT_PACKAGE, "%" G_GINT64_FORMAT " run",
-                                                            "%" G_GINT64_FORMAT " runs", summary->n_runs),
+      g_autofree char *runs = g_strdup_printf (g_dngettext (GETTEXT_PACKAGE, "%" PRId64 " run",
+                                                            "%" PRId64 " runs", summary->n_runs),
                                                summary->n_runs);
 
-      printf (_("  %" G_GINT64_FORMAT " of %" G_GINT64_FORMAT " stars derived (%s), %" G_GINT64_FORMAT
+      printf (_("  %" PRId64 " of %" PRId64 " stars derived (%s), %" PRId64
                 " stale (run 'derive' to update them)\n"),
               summary->n_derived, summary->n_stars, runs, summary->n_stale);
     }

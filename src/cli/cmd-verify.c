@@ -1,4 +1,5 @@
 /* cmd-verify.c: starledger-cli verify PROJECT */
+#include <inttypes.h>
 #include <glib/gi18n.h>
 #include <stdio.h>
 #include <string.h>
@@ -36,7 +37,7 @@ sl_cli_verify (int argc, char **argv)
     fprintf (stderr, "%s: %s\n", argv[1], (const char *) report->mismatches->pdata[i]);
   if (!intact)
     fprintf (stderr, _("%s: SQLite integrity check: %s\n"), argv[1], report->integrity);
-  printf (_("checked %" G_GUINT64_FORMAT " stars: %u differences; %" G_GUINT64_FORMAT
+  printf (_("checked %" PRIu64 " stars: %u differences; %" PRIu64
             " stale (inputs changed since their run: run 'derive'); integrity %s\n"),
           report->checked, report->mismatches->len, report->stale, intact ? "ok" : _("FAILED"));
   return report->mismatches->len == 0 && intact ? SL_EXIT_OK : SL_EXIT_FAILURE;

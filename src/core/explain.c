@@ -7,6 +7,7 @@
  */
 #include "explain.h"
 
+#include <inttypes.h>
 #include <glib/gi18n.h>
 #include <math.h>
 #include <string.h>
@@ -113,7 +114,7 @@ load_run (SlProject *project, gint64 run_id, RunInfo *run, GError **error)
       ok = sl_derive_params_from_keyfile (&run->params, run->parameters, error);
     }
   else
-    g_set_error (error, SL_ERROR, SL_ERROR_DATABASE, _("run %" G_GINT64_FORMAT " is not recorded"), run_id);
+    g_set_error (error, SL_ERROR, SL_ERROR_DATABASE, _("run %" PRId64 " is not recorded"), run_id);
   sqlite3_finalize (stmt);
   return ok;
 }
@@ -314,7 +315,7 @@ write_raw_input (Writer *w, const RawInput *r)
       else
         g_string_append_printf (w->out, "%s %s", _(" (no error)"), sl_unit_name (info->canonical));
     }
-  g_string_append_printf (w->out, _("\n        from %s, line %" G_GINT64_FORMAT ", column '%s' (%s)\n"
+  g_string_append_printf (w->out, _("\n        from %s, line %" PRId64 ", column '%s' (%s)\n"
                                     "        source '%s', SHA-256 %s…, imported by %s at %s\n"),
                           r->file_name, r->line, r->column ? r->column : "?",
                           r->unit_declared && *r->unit_declared ? r->unit_declared : _("text"),
@@ -504,7 +505,7 @@ write_header (Writer *w, const char *designation, const char *quantity, const Sl
     }
 
   g_string_append_printf (w->out, _("%s: %s\n"), designation, quantity);
-  g_string_append_printf (w->out, _("Derived in run %" G_GINT64_FORMAT " at %s by %s (Starledger %s)\n"),
+  g_string_append_printf (w->out, _("Derived in run %" PRId64 " at %s by %s (Starledger %s)\n"),
                           run_id, run->started_at, run->who, run->software_version);
   g_string_append_printf (w->out, _("Parameters: %s\n"), described);
   g_string_append_printf (w->out, _("Uncertainties: %s\n"),
@@ -592,7 +593,7 @@ write_matches (Writer *w, SlProject *project, gint64 star_id, GError **error)
     {
       const SlMatchInfo *m = &g_array_index (infos, SlMatchInfo, i);
 
-      g_string_append_printf (w->out, _("  %s line %u (source %" G_GINT64_FORMAT " '%s'), its id '%s': "),
+      g_string_append_printf (w->out, _("  %s line %u (source %" PRId64 " '%s'), its id '%s': "),
                               m->file_name, m->line, m->source_id, m->source_name, m->row_designation);
       g_ascii_formatd (sep, sizeof sep, "%.3f", m->separation);
       if (isfinite (m->epoch))
@@ -606,7 +607,7 @@ write_matches (Writer *w, SlProject *project, gint64 star_id, GError **error)
       if (strcmp (m->status, "matched") == 0)
         g_string_append_printf (w->out, _("taken as this star: the only star within %s arcsec, %s arcsec "
                                           "away, both positions moved to %s with their proper motions\n"
-                                          "    (undo with 'starledger-cli split PROJECT %" G_GINT64_FORMAT ":%u')\n"),
+                                          "    (undo with 'starledger-cli split PROJECT %" PRId64 ":%u')\n"),
                                 rad, sep, ep, m->source_id, m->line);
       else if (strcmp (m->status, "ambiguous") == 0)
         g_string_append_printf (w->out, _("ambiguous at %s, so not merged but kept as this star of its own: %s\n"),

@@ -11,6 +11,7 @@
  */
 #include "lists.h"
 
+#include <inttypes.h>
 #include <glib/gi18n.h>
 #include <string.h>
 
@@ -231,21 +232,21 @@ sl_list_create_from_condition (SlProject *project, const char *name, const char 
     goto fail;
 
   if (existed)
-    summary = g_strdup_printf (g_dngettext (GETTEXT_PACKAGE, "remade list %s: %" G_GINT64_FORMAT " star where %s (it had %" G_GINT64_FORMAT ")",
-                                            "remade list %s: %" G_GINT64_FORMAT " stars where %s (it had %" G_GINT64_FORMAT ")", n),
+    summary = g_strdup_printf (g_dngettext (GETTEXT_PACKAGE, "remade list %s: %" PRId64 " star where %s (it had %" PRId64 ")",
+                                            "remade list %s: %" PRId64 " stars where %s (it had %" PRId64 ")", n),
                                name, n, condition_text, before);
   else
-    summary = g_strdup_printf (g_dngettext (GETTEXT_PACKAGE, "made list %s: %" G_GINT64_FORMAT " star where %s",
-                                            "made list %s: %" G_GINT64_FORMAT " stars where %s", n),
+    summary = g_strdup_printf (g_dngettext (GETTEXT_PACKAGE, "made list %s: %" PRId64 " star where %s",
+                                            "made list %s: %" PRId64 " stars where %s", n),
                                name, n, condition_text);
   sl_json_append_string (details, name);
   g_string_append (details, ", \"condition\": ");
   sl_json_append_string (details, condition_text);
   g_string_append (details, ", \"description\": ");
   sl_json_append_string (details, description ? description : "");
-  g_string_append_printf (details, ", \"stars\": %" G_GINT64_FORMAT ", \"replaced\": %s", n,
+  g_string_append_printf (details, ", \"stars\": %" PRId64 ", \"replaced\": %s", n,
                           existed ? "true" : "false");
-  g_string_append_printf (details, ", \"stars_before\": %" G_GINT64_FORMAT "}", before);
+  g_string_append_printf (details, ", \"stars_before\": %" PRId64 "}", before);
   if (!append_to_ledger (project, summary, details, error) || !sl_project_commit (project, error))
     goto fail;
   return n;
@@ -410,21 +411,21 @@ sl_list_create_with_stars (SlProject *project, const char *name, const char *con
       g_clear_pointer (&stmt, sqlite3_finalize);
     }
   n = n_condition + n_hand;
-  g_string_append_printf (details, "], \"stars\": %" G_GINT64_FORMAT "}", n);
+  g_string_append_printf (details, "], \"stars\": %" PRId64 "}", n);
 
   if (condition_text && n_hand == 0)
-    summary = g_strdup_printf (g_dngettext (GETTEXT_PACKAGE, "made list %s: %" G_GINT64_FORMAT " star where %s",
-                                            "made list %s: %" G_GINT64_FORMAT " stars where %s", n),
+    summary = g_strdup_printf (g_dngettext (GETTEXT_PACKAGE, "made list %s: %" PRId64 " star where %s",
+                                            "made list %s: %" PRId64 " stars where %s", n),
                                name, n, condition_text);
   else if (condition_text)
     summary = g_strdup_printf (g_dngettext (GETTEXT_PACKAGE,
-                                            "made list %s: %" G_GINT64_FORMAT " star where %s, and %" G_GINT64_FORMAT " more by hand",
-                                            "made list %s: %" G_GINT64_FORMAT " stars where %s, and %" G_GINT64_FORMAT " more by hand",
+                                            "made list %s: %" PRId64 " star where %s, and %" PRId64 " more by hand",
+                                            "made list %s: %" PRId64 " stars where %s, and %" PRId64 " more by hand",
                                             n_condition),
                                name, n_condition, condition_text, n_hand);
   else
-    summary = g_strdup_printf (g_dngettext (GETTEXT_PACKAGE, "made list %s by hand: %" G_GINT64_FORMAT " star",
-                                            "made list %s by hand: %" G_GINT64_FORMAT " stars", n),
+    summary = g_strdup_printf (g_dngettext (GETTEXT_PACKAGE, "made list %s by hand: %" PRId64 " star",
+                                            "made list %s by hand: %" PRId64 " stars", n),
                                name, n);
   if (!append_to_ledger (project, summary, details, error) || !sl_project_commit (project, error))
     goto fail;
@@ -539,12 +540,12 @@ change_members (SlProject *project, const char *name, const char *const *designa
   if (changed > 0)
     {
       if (add)
-        summary = g_strdup_printf (g_dngettext (GETTEXT_PACKAGE, "added %" G_GINT64_FORMAT " star to list %s",
-                                                "added %" G_GINT64_FORMAT " stars to list %s", changed),
+        summary = g_strdup_printf (g_dngettext (GETTEXT_PACKAGE, "added %" PRId64 " star to list %s",
+                                                "added %" PRId64 " stars to list %s", changed),
                                    changed, name);
       else
-        summary = g_strdup_printf (g_dngettext (GETTEXT_PACKAGE, "removed %" G_GINT64_FORMAT " star from list %s",
-                                                "removed %" G_GINT64_FORMAT " stars from list %s", changed),
+        summary = g_strdup_printf (g_dngettext (GETTEXT_PACKAGE, "removed %" PRId64 " star from list %s",
+                                                "removed %" PRId64 " stars from list %s", changed),
                                    changed, name);
       if (!append_to_ledger (project, summary, details, error))
         goto fail;
@@ -614,12 +615,12 @@ sl_list_set_member (SlProject *project, const char *name, const char *designatio
   if (!ok)
     goto fail;
 
-  summary = g_strdup_printf (_("set %s in list %s: priority %" G_GINT64_FORMAT ", tags '%s', notes '%s'"),
+  summary = g_strdup_printf (_("set %s in list %s: priority %" PRId64 ", tags '%s', notes '%s'"),
                              designation, name, priority, tags ? tags : "", notes ? notes : "");
   sl_json_append_string (details, name);
   g_string_append (details, ", \"star\": ");
   sl_json_append_string (details, designation);
-  g_string_append_printf (details, ", \"priority\": %" G_GINT64_FORMAT ", \"tags\": ", priority);
+  g_string_append_printf (details, ", \"priority\": %" PRId64 ", \"tags\": ", priority);
   sl_json_append_string (details, tags ? tags : "");
   g_string_append (details, ", \"notes\": ");
   sl_json_append_string (details, notes ? notes : "");
@@ -667,11 +668,11 @@ sl_list_delete (SlProject *project, const char *name, GError **error)
     goto db_fail;
   g_clear_pointer (&stmt, sqlite3_finalize);
 
-  summary = g_strdup_printf (g_dngettext (GETTEXT_PACKAGE, "deleted list %s (%" G_GINT64_FORMAT " star)",
-                                          "deleted list %s (%" G_GINT64_FORMAT " stars)", n),
+  summary = g_strdup_printf (g_dngettext (GETTEXT_PACKAGE, "deleted list %s (%" PRId64 " star)",
+                                          "deleted list %s (%" PRId64 " stars)", n),
                              name, n);
   sl_json_append_string (details, name);
-  g_string_append_printf (details, ", \"stars\": %" G_GINT64_FORMAT "}", n);
+  g_string_append_printf (details, ", \"stars\": %" PRId64 "}", n);
   if (!append_to_ledger (project, summary, details, error) || !sl_project_commit (project, error))
     goto fail;
   return TRUE;

@@ -10,6 +10,7 @@
  */
 #include "matching.h"
 
+#include <inttypes.h>
 #include <glib/gi18n.h>
 #include <math.h>
 #include <string.h>
@@ -39,8 +40,8 @@ new_star (sqlite3_stmt *insert, const char *base, gint64 source_id, char **desig
   for (guint attempt = 0; attempt < 1000; attempt++)
     {
       g_autofree char *name = attempt == 0 ? g_strdup (base)
-                              : attempt == 1 ? g_strdup_printf (_("%s (source %" G_GINT64_FORMAT ")"), base, source_id)
-                              : g_strdup_printf (_("%s (source %" G_GINT64_FORMAT ", %u)"), base, source_id, attempt);
+                              : attempt == 1 ? g_strdup_printf (_("%s (source %" PRId64 ")"), base, source_id)
+                              : g_strdup_printf (_("%s (source %" PRId64 ", %u)"), base, source_id, attempt);
       int rc;
 
       sqlite3_bind_text (insert, 1, name, -1, SQLITE_STATIC);
@@ -285,7 +286,7 @@ describe_candidates (SlRowMatcher *matcher, char **json, char **words)
       gint64 star_id = g_array_index (matcher->star_ids, gint64, c->key);
       g_autofree char *name = designation_of (matcher, star_id);
 
-      g_string_append_printf (j, "%s{\"star_id\":%" G_GINT64_FORMAT ",\"designation\":", i ? "," : "", star_id);
+      g_string_append_printf (j, "%s{\"star_id\":%" PRId64 ",\"designation\":", i ? "," : "", star_id);
       sl_json_append_string (j, name);
       g_string_append (j, ",\"separation_arcsec\":");
       sl_json_append_number (j, c->separation);
@@ -599,7 +600,7 @@ split_one (SlProject *project, const SlRowRef *ref, GPtrArray *new_designations,
   if (measurement_id == 0)
     {
       g_set_error (error, SL_ERROR, SL_ERROR_UNKNOWN_NAME,
-                   _("%s: source %" G_GINT64_FORMAT " has no imported row at line %u"),
+                   _("%s: source %" PRId64 " has no imported row at line %u"),
                    sl_project_path (project), source_id, ref->line);
       return FALSE;
     }
@@ -628,8 +629,8 @@ split_one (SlProject *project, const SlRowRef *ref, GPtrArray *new_designations,
       return FALSE;
     }
 
-  sql = g_strdup_printf ("UPDATE measurements SET star_id = %" G_GINT64_FORMAT " WHERE id = %" G_GINT64_FORMAT ";"
-                         "UPDATE derived SET stale = 1 WHERE star_id = %" G_GINT64_FORMAT ";",
+  sql = g_strdup_printf ("UPDATE measurements SET star_id = %" PRId64 " WHERE id = %" PRId64 ";"
+                         "UPDATE derived SET stale = 1 WHERE star_id = %" PRId64 ";",
                          new_star_id, measurement_id, old_star);
   if (!sl_project_exec (project, sql, error))
     return FALSE;
@@ -652,8 +653,8 @@ split_one (SlProject *project, const SlRowRef *ref, GPtrArray *new_designations,
 
   g_string_append_printf (summary, _("%s%s:%u (%s) from %s into %s"), summary->len ? "; " : "",
                           file_name, ref->line, row_designation, old_name, new_name);
-  g_string_append_printf (details, "%s{\"source_id\":%" G_GINT64_FORMAT ",\"line\":%u,\"measurement_id\":%"
-                          G_GINT64_FORMAT ",\"from_star\":", details->len > 1 ? "," : "",
+  g_string_append_printf (details, "%s{\"source_id\":%" PRId64 ",\"line\":%u,\"measurement_id\":%"
+                          PRId64 ",\"from_star\":", details->len > 1 ? "," : "",
                           source_id, ref->line, measurement_id);
   sl_json_append_string (details, old_name);
   g_string_append (details, ",\"new_star\":");

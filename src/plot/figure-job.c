@@ -11,6 +11,7 @@
  */
 #include "figure-job.h"
 
+#include <inttypes.h>
 #include <glib/gi18n.h>
 #include <math.h>
 #include <string.h>
@@ -217,9 +218,9 @@ char *
 sl_figure_job_subject (const SlFigureJob *job, const SlStarSet *stars, const char *project_path)
 {
   if (job->list != NULL)
-    return g_strdup_printf (_("project %s, list %s, derivation run %" G_GINT64_FORMAT), project_path, job->list,
+    return g_strdup_printf (_("project %s, list %s, derivation run %" PRId64), project_path, job->list,
                             stars->run_id);
-  return g_strdup_printf (_("project %s, derivation run %" G_GINT64_FORMAT), project_path, stars->run_id);
+  return g_strdup_printf (_("project %s, derivation run %" PRId64), project_path, stars->run_id);
 }
 
 gboolean

@@ -1,6 +1,7 @@
 /* registry.c: the tables of derived quantities, flags and modules, and
  * the parameters of a run.  Adding a module: one file, one line in
  * module_list below. */
+#include <inttypes.h>
 #include <float.h>
 #include <glib/gi18n.h>
 #include <math.h>
@@ -163,7 +164,7 @@ sl_derive_params_to_json (const SlDeriveParams *p)
   sl_json_append_number (json, p->rv);
   g_string_append (json, ",\"rv_err\":");
   sl_json_append_number (json, p->rv_err);
-  g_string_append_printf (json, ",\"teff\":\"%s\",\"errors\":\"%s\",\"draws\":%u,\"seed\":%" G_GUINT64_FORMAT
+  g_string_append_printf (json, ",\"teff\":\"%s\",\"errors\":\"%s\",\"draws\":%u,\"seed\":%" PRIu64
                           ",\"mc_below_snr\":",
                           p->teff == SL_TEFF_BALLESTEROS ? "ballesteros" : "flower",
                           p->errors == SL_ERRORS_MONTE_CARLO ? "mc" : "linear", p->draws, p->seed);
@@ -188,9 +189,9 @@ sl_derive_params_describe (const SlDeriveParams *p)
     g_string_append_printf (text, " +/- %s", sl_format_double (buf[3], p->rv_err));
   g_string_append_printf (text, ", teff %s", p->teff == SL_TEFF_BALLESTEROS ? "ballesteros" : "flower");
   if (p->errors == SL_ERRORS_MONTE_CARLO)
-    g_string_append_printf (text, ", errors mc:%u (seed %" G_GUINT64_FORMAT ")", p->draws, p->seed);
+    g_string_append_printf (text, ", errors mc:%u (seed %" PRIu64 ")", p->draws, p->seed);
   else
-    g_string_append_printf (text, ", errors linear (Monte Carlo, %u draws, seed %" G_GUINT64_FORMAT
+    g_string_append_printf (text, ", errors linear (Monte Carlo, %u draws, seed %" PRIu64
                             ", below parallax S/N %s)", p->draws, p->seed, sl_format_double (buf[3], p->mc_below_snr));
   return g_string_free (text, FALSE);
 }
@@ -424,7 +425,7 @@ sl_param_to_text (const SlDeriveParams *p, SlParam param)
       return g_strdup (sl_format_double (buf, *number_field ((SlDeriveParams *) p, param)));
     case SL_PARAM_KIND_COUNT:
     default:
-      return g_strdup_printf ("%" G_GUINT64_FORMAT, get_count (p, param));
+      return g_strdup_printf ("%" PRIu64, get_count (p, param));
     }
 }
 
@@ -446,7 +447,7 @@ set_range_error (GError **error, SlParam param, const char *text)
         g_set_error (error, SL_ERROR, SL_ERROR_BAD_INPUT, _("%s: expected a whole number, not “%s”"), label, text);
       else
         g_set_error (error, SL_ERROR, SL_ERROR_BAD_INPUT,
-                     _("%s: expected a whole number from %" G_GUINT64_FORMAT " to %" G_GUINT64_FORMAT ", not “%s”"),
+                     _("%s: expected a whole number from %" PRIu64 " to %" PRIu64 ", not “%s”"),
                      label, info->count_min, info->count_max, text);
       break;
     case SL_PARAM_KIND_NUMBER:
