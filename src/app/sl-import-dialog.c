@@ -240,20 +240,22 @@ report_check_progress (double fraction, gpointer task)
   g_idle_add_full (G_PRIORITY_DEFAULT, apply_check_progress, progress, check_progress_free);
 }
 
+/* The import with CHOICES in a worker thread, written or (DRY_RUN) rolled
+ * back; the task returns its SlImportReport. */
 static void
-check_thread (GTask *task, gpointer source, gpointer task_data, GCancellable *cancellable)
+import_in_thread (GTask *task, const ImportChoices *choices, gboolean dry_run, GCancellable *cancellable,
+                  SlProgressFunc progress, gpointer progress_data)
 {
-  const ImportChoices *choices = task_data;
   g_autoptr (SlProject) project = NULL;
   SlImportReport *report = NULL;
   SlImportOptions options;
   GError *error = NULL;
 
   import_choices_fill_options (choices, &options);
-  options.dry_run = TRUE;
+  options.dry_run = dry_run;
   options.cancellable = cancellable;
-  options.progress = report_check_progress;
-  options.progress_data = task;
+  options.progress = progress;
+  options.progress_data = progress_data;
   project = sl_project_open (choices->project, &error);
   if (project)
     report = sl_import_csv (project, choices->path, &options, &error);
@@ -261,6 +263,12 @@ check_thread (GTask *task, gpointer source, gpointer task_data, GCancellable *ca
     g_task_return_pointer (task, report, (GDestroyNotify) sl_import_report_free);
   else
     g_task_return_error (task, error);
+}
+
+static void
+check_thread (GTask *task, gpointer source, gpointer task_data, GCancellable *cancellable)
+{
+  import_in_thread (task, task_data, TRUE, cancellable, report_check_progress, task);
 }
 
 /* One rejected row as a line of text: "line 12, plx: not a number: 'x'". */
@@ -383,23 +391,7 @@ stop_check_action (GtkWidget *widget, const char *action, GVariant *parameter)
 static void
 import_thread (GTask *task, gpointer source, gpointer task_data, GCancellable *cancellable)
 {
-  const ImportChoices *choices = task_data;
-  g_autoptr (SlProject) project = NULL;
-  SlImportReport *report = NULL;
-  SlImportOptions options;
-  GError *error = NULL;
-
-  import_choices_fill_options (choices, &options);
-  options.cancellable = cancellable;
-  options.progress = sl_window_report_progress;
-  options.progress_data = source;
-  project = sl_project_open (choices->project, &error);
-  if (project)
-    report = sl_import_csv (project, choices->path, &options, &error);
-  if (report)
-    g_task_return_pointer (task, report, (GDestroyNotify) sl_import_report_free);
-  else
-    g_task_return_error (task, error);
+  import_in_thread (task, task_data, FALSE, cancellable, sl_window_report_progress, source);
 }
 
 #define LAST_REPORT "sl-import-last-report"

@@ -5,7 +5,7 @@
  *   the selection ......... set_selection: one selection for the table and every view
  *   trail and ledger ...... show_trail (kept current by reload), show_ledger
  *   actions ............... open, new, open-demo
- *   long work ............. sl_window_run_work: derive, import (GTask threads,
+ *   long work ............. sl_window_run_work: derive, import, export (GTask threads,
  *                           progress bar, Cancel)
  *   the views ............. Export Figure… (sl-figure-dialog.c), maximise one view
  *   drag and drop ......... a project opens, a CSV file opens the import assistant
@@ -768,90 +768,6 @@ cancel_work_action (GtkWidget *widget, const char *action, GVariant *parameter)
 
   if (self->work_cancel)
     g_cancellable_cancel (self->work_cancel);
-}
-
-/* Import: a CSV file into the open project, with the importer's defaults
- * (the delimiter detected, columns mapped by their names). */
-
-typedef struct {
-  char *project;
-  char *file;
-} ImportJob;
-
-static void
-import_job_free (gpointer data)
-{
-  ImportJob *job = data;
-
-  g_free (job->project);
-  g_free (job->file);
-  g_free (job);
-}
-
-static void
-import_thread (GTask *task, gpointer source, gpointer task_data, GCancellable *cancellable)
-{
-  ImportJob *job = task_data;
-  g_autoptr (SlProject) project = NULL;
-  SlImportReport *report = NULL;
-  SlImportOptions options;
-  GError *error = NULL;
-
-  sl_import_options_init (&options);
-  options.cancellable = cancellable;
-  options.progress = sl_window_report_progress;
-  options.progress_data = source;
-  project = sl_project_open (job->project, &error);
-  if (project)
-    report = sl_import_csv (project, job->file, &options, &error);
-  if (report)
-    g_task_return_pointer (task, report, (GDestroyNotify) sl_import_report_free);
-  else
-    g_task_return_error (task, error);
-}
-
-static void
-on_imported (GObject *source, GAsyncResult *result, gpointer user_data)
-{
-  SlWindow *self = SL_WINDOW (source);
-  g_autoptr (GError) error = NULL;
-  g_autoptr (SlImportReport) report = g_task_propagate_pointer (G_TASK (result), &error);
-  g_autofree char *accepted = NULL;
-  g_autofree char *rows = NULL;
-  g_autofree char *message = NULL;
-
-  if (report == NULL)
-    {
-      toast (self, g_error_matches (error, G_IO_ERROR, G_IO_ERROR_CANCELLED)
-                     ? _("Import cancelled: the project is as it was")
-                     : error->message);
-      return;
-    }
-  accepted = g_strdup_printf ("%" PRIu64, report->rows_accepted);
-  rows = g_strdup_printf (g_dngettext (GETTEXT_PACKAGE, "Imported %s row", "Imported %s rows",
-                                       report->rows_accepted), accepted);
-  message = g_strdup_printf (g_dngettext (GETTEXT_PACKAGE, "%s, rejected %u", "%s, rejected %u",
-                                          report->rejections->len), rows, report->rejections->len);
-  toast (self, message);
-  reload (self);
-}
-
-gboolean
-sl_window_import_file (SlWindow *self, const char *path)
-{
-  ImportJob *job;
-  g_autofree char *what = NULL;
-  g_autofree char *name = NULL;
-
-  g_return_val_if_fail (SL_IS_WINDOW (self), FALSE);
-  if (self->path == NULL)
-    return FALSE;
-  job = g_new (ImportJob, 1);
-  job->project = g_strdup (self->path);
-  job->file = g_strdup (path);
-  name = g_path_get_basename (path);
-  what = g_strdup_printf (_("Importing %s…"), name);
-  return sl_window_run_work (self, what, import_thread, job, import_job_free, on_imported, NULL);
 }
 
 static void

@@ -23,12 +23,6 @@ gboolean  sl_window_open_project (SlWindow *window, const char *path, GError **e
 /* Makes a fresh demo project in the user's cache directory and opens it. */
 gboolean  sl_window_open_demo (SlWindow *window, GError **error);
 
-/* Imports the CSV file at PATH into the open project in a thread, with the
- * importer's defaults; FALSE if no project is open or a job is running.
- * Not interactive: Import Measurements… and a dropped CSV file open the
- * import assistant (sl-import-dialog.h) instead. */
-gboolean  sl_window_import_file (SlWindow *window, const char *path);
-
 /* For the window's dialogs and panels.
  * Long work: runs THREAD in a GTask (source object: the window; cancellable:
  * the Cancel button's) while the progress bar shows WHAT; DONE runs on the

@@ -311,6 +311,59 @@ fail:
 
 static gboolean star_exists (SlProject *project, const char *designation, GError **error);
 
+/* Whether a star of that designation exists; FALSE with ERROR naming it
+ * if not. */
+static gboolean
+star_exists (SlProject *project, const char *designation, GError **error)
+{
+  sqlite3_stmt *stmt = sl_project_prepare (project, "SELECT 1 FROM stars WHERE designation = ?", error);
+  gboolean found;
+
+  if (stmt == NULL)
+    return FALSE;
+  sqlite3_bind_text (stmt, 1, designation, -1, SQLITE_STATIC);
+  found = sqlite3_step (stmt) == SQLITE_ROW;
+  sqlite3_finalize (stmt);
+  if (!found)
+    g_set_error (error, SL_ERROR, SL_ERROR_UNKNOWN_NAME, _("%s: no star '%s' in the project"),
+                 sl_project_path (project), designation);
+  return found;
+}
+
+/* Runs STMT (?1: the list, ?2: a designation) for each of DESIGNATIONS,
+ * adding or removing a member; the designations it changed go to DETAILS
+ * as JSON array items.  A star that changed nothing must exist (already a
+ * member, or not one to remove); an unknown one is an error.  Returns how
+ * many changed, or -1 with ERROR set. */
+static gint64
+apply_to_members (SlProject *project, sqlite3_stmt *stmt, gint64 list_id, const char *const *designations,
+                  GString *details, GError **error)
+{
+  gint64 changed = 0;
+
+  for (guint i = 0; designations[i]; i++)
+    {
+      sqlite3_reset (stmt);
+      sqlite3_bind_int64 (stmt, 1, list_id);
+      sqlite3_bind_text (stmt, 2, designations[i], -1, SQLITE_STATIC);
+      if (sqlite3_step (stmt) != SQLITE_DONE)
+        {
+          sl_project_set_db_error (project, error, "list_members");
+          return -1;
+        }
+      if (sqlite3_changes (sl_project_db (project)) == 0)
+        {
+          if (!star_exists (project, designations[i], error))
+            return -1;
+          continue;
+        }
+      if (changed++ > 0)
+        g_string_append (details, ", ");
+      sl_json_append_string (details, designations[i]);
+    }
+  return changed;
+}
+
 gint64
 sl_list_create_with_stars (SlProject *project, const char *name, const char *condition_text,
                            const char *const *designations, const char *description, GError **error)
@@ -387,27 +440,10 @@ sl_list_create_with_stars (SlProject *project, const char *name, const char *con
                                  "SELECT ?1, id FROM stars WHERE designation = ?2", error);
       if (stmt == NULL)
         goto fail;
-      for (guint i = 0; designations[i]; i++)
-        {
-          sqlite3_reset (stmt);
-          sqlite3_bind_int64 (stmt, 1, list_id);
-          sqlite3_bind_text (stmt, 2, designations[i], -1, SQLITE_STATIC);
-          if (sqlite3_step (stmt) != SQLITE_DONE)
-            {
-              sl_project_set_db_error (project, error, "list_members");
-              goto fail;
-            }
-          /* Already in by the condition, or unknown. */
-          if (sqlite3_changes (sl_project_db (project)) == 0)
-            {
-              if (!star_exists (project, designations[i], error))
-                goto fail;
-              continue;
-            }
-          if (n_hand++ > 0)
-            g_string_append (details, ", ");
-          sl_json_append_string (details, designations[i]);
-        }
+      /* A star already in by the condition changes nothing. */
+      n_hand = apply_to_members (project, stmt, list_id, designations, details, error);
+      if (n_hand < 0)
+        goto fail;
       g_clear_pointer (&stmt, sqlite3_finalize);
     }
   n = n_condition + n_hand;
@@ -466,25 +502,6 @@ sl_list_count_matching (SlProject *project, const char *condition_text, GError *
 /* ------------------------------------------------------------------ */
 /* Members                                                            */
 
-/* Whether a star of that designation exists; FALSE with ERROR naming it
- * if not. */
-static gboolean
-star_exists (SlProject *project, const char *designation, GError **error)
-{
-  sqlite3_stmt *stmt = sl_project_prepare (project, "SELECT 1 FROM stars WHERE designation = ?", error);
-  gboolean found;
-
-  if (stmt == NULL)
-    return FALSE;
-  sqlite3_bind_text (stmt, 1, designation, -1, SQLITE_STATIC);
-  found = sqlite3_step (stmt) == SQLITE_ROW;
-  sqlite3_finalize (stmt);
-  if (!found)
-    g_set_error (error, SL_ERROR, SL_ERROR_UNKNOWN_NAME, _("%s: no star '%s' in the project"),
-                 sl_project_path (project), designation);
-  return found;
-}
-
 /* Adds (ADD) or removes the stars; one statement per star, and a second
  * look only for a star that changed nothing (already in, or unknown). */
 static gint64
@@ -513,26 +530,9 @@ change_members (SlProject *project, const char *name, const char *const *designa
     goto fail;
   sl_json_append_string (details, name);
   g_string_append (details, add ? ", \"added\": [" : ", \"removed\": [");
-  for (guint i = 0; designations[i]; i++)
-    {
-      sqlite3_reset (stmt);
-      sqlite3_bind_int64 (stmt, 1, list_id);
-      sqlite3_bind_text (stmt, 2, designations[i], -1, SQLITE_STATIC);
-      if (sqlite3_step (stmt) != SQLITE_DONE)
-        {
-          sl_project_set_db_error (project, error, "list_members");
-          goto fail;
-        }
-      if (sqlite3_changes (sl_project_db (project)) == 0)
-        {
-          if (!star_exists (project, designations[i], error))
-            goto fail;
-          continue;
-        }
-      if (changed++ > 0)
-        g_string_append (details, ", ");
-      sl_json_append_string (details, designations[i]);
-    }
+  changed = apply_to_members (project, stmt, list_id, designations, details, error);
+  if (changed < 0)
+    goto fail;
   g_clear_pointer (&stmt, sqlite3_finalize);
   g_string_append (details, "]}");
 
