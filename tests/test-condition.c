@@ -348,12 +348,12 @@ test_depth (void)
     g_string_append (deep, "(not ");
   g_string_append (deep, "teff > 1");
   g_assert_null (sl_condition_compile (deep->str, &error));
-  g_assert_true (strstr (error->message, "nests deeper than 100 levels") != NULL);
+  g_assert_true (strstr (error->message, "nests deeper than 32 levels") != NULL);
 
-  for (int i = 0; i < 40; i++)
+  for (int i = 0; i < 30; i++)
     g_string_append (fine, "(");
   g_string_append (fine, "teff > 1");
-  for (int i = 0; i < 40; i++)
+  for (int i = 0; i < 30; i++)
     g_string_append (fine, ")");
   ok = compile_ok (fine->str);
   g_assert_cmpstr (ok->where, ==, "d.teff > ?");
@@ -485,6 +485,48 @@ select_ids (SlTestProject *f, const SlCondition *condition)
   g_assert_cmpint (rc, ==, SQLITE_DONE);
   sqlite3_finalize (stmt);
   return ids;
+}
+
+/* At the limits of nesting and length, the worst shapes the compiler
+ * accepts still make SQL that SQLite prepares and runs (its parser stack
+ * and expression depth are bounded); one step beyond, the compiler says
+ * so.  Fuzzing found "(a or not (a or not ( ..." overflowing SQLite's
+ * parser at 18 levels. */
+static void
+test_limits_make_runnable_sql (SlTestProject *f, gconstpointer data)
+{
+  g_autoptr (GString) mixed = g_string_new (NULL);
+  g_autoptr (GString) nots = g_string_new (NULL);
+  g_autoptr (GString) long_or = g_string_new ("teff > 0");
+  g_autoptr (GString) too_long = NULL;
+  g_autoptr (GError) error = NULL;
+  int levels = 15;   /* two nesting levels each: '(' and 'not' */
+
+  for (int i = 0; i < levels; i++)
+    g_string_append (mixed, "(flag:low_parallax_snr or not ");
+  g_string_append (mixed, "flag:stale");
+  for (int i = 0; i < levels; i++)
+    g_string_append_c (mixed, ')');
+  for (int i = 0; i < 31; i++)
+    g_string_append (nots, "not ");
+  g_string_append (nots, "teff > 1");
+  for (int i = 1; i < 128; i++)
+    g_string_append_printf (long_or, " or (teff > %d and not vmag < 3)", i);
+  g_string_append (long_or, " or vmag > 1");   /* the 256th comparison */
+
+  {
+    g_autoptr (SlCondition) a = compile_ok (mixed->str);
+    g_autoptr (SlCondition) b = compile_ok (nots->str);
+    g_autoptr (SlCondition) c = compile_ok (long_or->str);
+    g_autoptr (GArray) ids_a = select_ids (f, a);
+    g_autoptr (GArray) ids_b = select_ids (f, b);
+    g_autoptr (GArray) ids_c = select_ids (f, c);
+  }
+
+  too_long = g_string_new (long_or->str);
+  g_string_append (too_long, " or teff > 9");
+  g_assert_null (sl_condition_compile (too_long->str, &error));
+  g_assert_true (strstr (error->message, "more than 256 comparisons") != NULL);
 }
 
 static guint
@@ -1250,6 +1292,8 @@ main (int argc, char **argv)
               test_missing_semantics, sl_test_project_tear_down);
   g_test_add ("/condition/select/stale-as-stored", SlTestProject, NULL, sl_test_project_set_up,
               test_stale_as_stored, sl_test_project_tear_down);
+  g_test_add ("/condition/select/limits-make-runnable-sql", SlTestProject, NULL, sl_test_project_set_up,
+              test_limits_make_runnable_sql, sl_test_project_tear_down);
 
   return g_test_run ();
 }

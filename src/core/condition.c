@@ -23,9 +23,12 @@
 #include "units.h"
 #include "vocabulary.h"
 
-/* Deep enough for any condition a person writes; shallow enough that the
- * recursion cannot exhaust the stack. */
-#define MAX_DEPTH 100
+/* Deep and long enough for any condition a person writes; small enough
+ * that neither this parser's recursion nor SQLite's (its parser stack
+ * holds 100 entries, its expression trees 1000 levels) can overflow on the
+ * SQL it is compiled to: found by fuzzing (tests/fuzz/regressions). */
+#define MAX_DEPTH 32
+#define MAX_TERMS 256
 
 /* ------------------------------------------------------------------ */
 /* Names                                                              */
@@ -250,6 +253,7 @@ typedef struct {
   gsize       pos;        /* bytes read */
   Token       token;      /* the current token */
   guint       depth;
+  guint       n_terms;    /* comparisons and flags so far */
   GString    *where;
   GArray     *params;
   gboolean    joins[N_JOINS];
@@ -587,6 +591,8 @@ parse_primary (Parser *p)
       what = g_strdup_printf (_("'and', 'or' or ')' to close the '(' at %ld"), column_at (p, open));
       return fail_expected (p, what);
     }
+  if ((p->token.kind == TOKEN_FLAG || p->token.kind == TOKEN_NAME) && ++p->n_terms > MAX_TERMS)
+    return fail_at (p, p->token.start, _("the condition has more than %d comparisons"), MAX_TERMS);
   if (p->token.kind == TOKEN_FLAG)
     return parse_flag (p);
   if (p->token.kind == TOKEN_NAME && !is_keyword (&p->token, "and") && !is_keyword (&p->token, "or")
