@@ -582,9 +582,9 @@ on_exported (GObject *source, GAsyncResult *result, gpointer user_data)
       return;
     }
   base = g_path_get_basename (job->file);
-  message = g_strdup_printf (g_dngettext (GETTEXT_PACKAGE, "Wrote %" G_GSSIZE_FORMAT " star to %s",
-                                          "Wrote %" G_GSSIZE_FORMAT " stars to %s", n),
-                             n, base);
+  message = g_strdup_printf (g_dngettext (GETTEXT_PACKAGE, "Wrote %" PRId64 " star to %s",
+                                          "Wrote %" PRId64 " stars to %s", n),
+                             (gint64) n, base);
   sl_window_toast (window, message);
 }
 
@@ -847,6 +847,7 @@ export_list_action (GtkWidget *widget, const char *action, GVariant *parameter)
   title = g_strdup_printf (_("Export List %s"), self->current);
   dialog = gtk_file_chooser_native_new (title, GTK_WINDOW (window), GTK_FILE_CHOOSER_ACTION_SAVE, _("_Export"),
                                         _("_Cancel"));
+  /* xgettext:no-c-format */
   csv = export_filter (_("CSV table (values with their 68% bounds)"), "*.csv", ".csv");
   tex = export_filter (_("LaTeX table (rounded to the uncertainty)"), "*.tex", ".tex");
   gtk_file_chooser_add_filter (GTK_FILE_CHOOSER (dialog), csv);

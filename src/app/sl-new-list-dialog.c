@@ -15,6 +15,7 @@
  * condition-text, match-count, with-selection, create-list.
  */
 #include "sl-new-list-dialog.h"
+#include <inttypes.h>
 
 #include <glib/gi18n.h>
 #include <string.h>
@@ -420,9 +421,9 @@ on_counted (GObject *source, GAsyncResult *result, gpointer user_data)
       return;
     }
   self->condition_ok = TRUE;
-  message = g_strdup_printf (g_dngettext (GETTEXT_PACKAGE, "%" G_GSSIZE_FORMAT " derived star matches now.",
-                                          "%" G_GSSIZE_FORMAT " derived stars match now.", n),
-                             n);
+  message = g_strdup_printf (g_dngettext (GETTEXT_PACKAGE, "%" PRId64 " derived star matches now.",
+                                          "%" PRId64 " derived stars match now.", n),
+                             (gint64) n);
   set_status (self, message, FALSE);
   update_create (self);
 }

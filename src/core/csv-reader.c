@@ -1,5 +1,6 @@
 /* csv-reader.c: record boundaries and line numbers here, quoting in libcsv. */
 #include "csv-reader.h"
+#include <inttypes.h>
 
 #include <csv.h>
 #include <glib/gi18n.h>
@@ -187,8 +188,8 @@ sl_csv_reader_new (const char *data, gsize length, char delimiter,
   if (nul != NULL)
     {
       g_set_error (error, SL_ERROR, SL_ERROR_BAD_INPUT,
-                   _("%s: not a text file (a NUL byte at offset %" G_GSIZE_FORMAT ")"),
-                   file_name, (gsize) (nul - data));
+                   _("%s: not a text file (a NUL byte at offset %" PRIu64 ")"),
+                   file_name, (guint64) (nul - data));
       return NULL;
     }
   if (memchr (data, '\n', length) == NULL && memchr (data, '\r', length) != NULL)
