@@ -626,7 +626,9 @@ add_kind_options (SlFigureDialog *self, AdwPreferencesPage *page)
         group = add_group (page, _("Diagram"));
         self->plane = choice_row (self, group, _("Plane"), "plane", planes, 0);
         adw_action_row_set_subtitle (ADW_ACTION_ROW (self->plane), _("log Teff and log L, or (B−V)₀ and M_V"));
-        self->errors = switch_row (self, group, _("Error ellipses"), _("Or bars, from the 68% intervals"), "errors",
+        self->errors = switch_row (self, group, _("Error ellipses"),
+                                   /* xgettext:no-c-format */
+                                   _("Or bars, from the 68% intervals"), "errors",
                                    self->job.hrd.errors);
         break;
       }

@@ -582,8 +582,8 @@ on_exported (GObject *source, GAsyncResult *result, gpointer user_data)
       return;
     }
   base = g_path_get_basename (job->file);
-  message = g_strdup_printf (g_dngettext (GETTEXT_PACKAGE, "Wrote %" G_GSSIZE_FORMAT " star to %s",
-                                          "Wrote %" G_GSSIZE_FORMAT " stars to %s", n),
+  message = g_strdup_printf (g_dngettext (GETTEXT_PACKAGE, "Wrote %zd star to %s",
+                                          "Wrote %zd stars to %s", n),
                              n, base);
   sl_window_toast (window, message);
 }

@@ -420,8 +420,8 @@ on_counted (GObject *source, GAsyncResult *result, gpointer user_data)
       return;
     }
   self->condition_ok = TRUE;
-  message = g_strdup_printf (g_dngettext (GETTEXT_PACKAGE, "%" G_GSSIZE_FORMAT " derived star matches now.",
-                                          "%" G_GSSIZE_FORMAT " derived stars match now.", n),
+  message = g_strdup_printf (g_dngettext (GETTEXT_PACKAGE, "%zd derived star matches now.",
+                                          "%zd derived stars match now.", n),
                              n);
   set_status (self, message, FALSE);
   update_create (self);

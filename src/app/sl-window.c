@@ -963,8 +963,12 @@ override_action (GtkWidget *widget, const char *action, GVariant *parameter)
   gtk_grid_set_column_spacing (grid, 12);
   form->window = self;
   form->value = form_row (grid, 0, _("Value"), _("for example 6530"));
-  form->lo = form_row (grid, 1, _("Lower bound"), _("68% interval, optional"));
-  form->hi = form_row (grid, 2, _("Upper bound"), _("68% interval, optional"));
+  form->lo = form_row (grid, 1, _("Lower bound"),
+                      /* xgettext:no-c-format */
+                      _("68% interval, optional"));
+  form->hi = form_row (grid, 2, _("Upper bound"),
+                      /* xgettext:no-c-format */
+                      _("68% interval, optional"));
   form->reason = form_row (grid, 3, _("Reason"), _("for example: spectroscopic Teff, our 2026 run"));
   adw_message_dialog_set_extra_child (dialog, GTK_WIDGET (grid));
   adw_message_dialog_add_responses (dialog, "cancel", _("_Cancel"), "set", _("_Set"), NULL);

@@ -1,4 +1,5 @@
 /* cmd-derive.c: starledger-cli derive PROJECT [options] */
+#include <inttypes.h>
 #include <glib/gi18n.h>
 #include <math.h>
 #include <stdio.h>
@@ -169,8 +170,8 @@ sl_cli_derive (int argc, char **argv)
     return sl_cli_fail (error);
   described = sl_derive_params_describe (&params);
   /* g_ascii_formatd: a '.' decimal point whatever the locale (README). */
-  printf (_("derived %" G_GUINT64_FORMAT " stars, %" G_GUINT64_FORMAT " already up to date (run %"
-            G_GINT64_FORMAT ", %s s)\n"),
+  printf (_("derived %" PRIu64 " stars, %" PRIu64 " already up to date (run %"
+            PRId64 ", %s s)\n"),
           report.computed, report.up_to_date, report.run_id,
           g_ascii_formatd (seconds, sizeof seconds, "%.2f", report.seconds));
   printf (_("parameters: %s\n"), described);

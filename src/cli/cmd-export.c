@@ -27,6 +27,7 @@ sl_cli_export (int argc, char **argv)
   };
   g_autoptr (GOptionContext) context =
     sl_cli_context_new ("export", _("PROJECT"), _("Write the stars' values as a CSV or LaTeX table."),
+                        /* xgettext:no-c-format */
                         _("One row per star. Each number q is written as three columns: q, q_lo "
                           "and q_hi, the value and the bounds of its 68% interval; an empty cell "
                           "means no value.\nRight ascension and declination are ICRS, in degrees, "

@@ -1,5 +1,6 @@
 /* cmd-import.c: starledger-cli import PROJECT FILE [options], and with --dry-run
  * the same report of an import that writes nothing. */
+#include <inttypes.h>
 #include <glib/gi18n.h>
 #include <float.h>
 #include <math.h>
@@ -68,12 +69,12 @@ print_matches (const SlImportReport *report, const char *path)
   if (report->ambiguous->len == 0 && report->matched == 0 && !isfinite (report->match_epoch))
     return;
   if (isfinite (report->match_epoch))
-    printf (_("matched by position at epoch J%s: %" G_GUINT64_FORMAT " rows joined existing stars, "
+    printf (_("matched by position at epoch J%s: %" PRIu64 " rows joined existing stars, "
               "%u ambiguous\n"),
             g_ascii_formatd (epoch, sizeof epoch, "%.3f", report->match_epoch), report->matched,
             report->ambiguous->len);
   else
-    printf (_("matched by position as given (no epoch known): %" G_GUINT64_FORMAT " rows joined existing "
+    printf (_("matched by position as given (no epoch known): %" PRIu64 " rows joined existing "
               "stars, %u ambiguous\n"),
             report->matched, report->ambiguous->len);
   for (guint i = 0; i < report->ambiguous->len && i < MAX_AMBIGUOUS_LISTED; i++)
@@ -94,17 +95,17 @@ print_report (const SlImportReport *report, const char *path, gboolean dry_run)
   if (dry_run)
     {
       /* The same report, worded as what would happen: nothing was written. */
-      printf (_("dry run: would import %" G_GUINT64_FORMAT " rows, reject %u; nothing was written\n"),
+      printf (_("dry run: would import %" PRIu64 " rows, reject %u; nothing was written\n"),
               report->rows_accepted, report->rejections->len);
-      printf (_("file %s, %s-delimited, SHA-256 %.16s…, %" G_GUINT64_FORMAT " new stars\n"),
+      printf (_("file %s, %s-delimited, SHA-256 %.16s…, %" PRIu64 " new stars\n"),
               report->file_name, sl_csv_delimiter_name (report->delimiter), report->sha256,
               report->new_stars);
     }
   else
     {
-      printf (_("imported %" G_GUINT64_FORMAT " rows, rejected %u\n"),
+      printf (_("imported %" PRIu64 " rows, rejected %u\n"),
               report->rows_accepted, report->rejections->len);
-      printf (_("source %" G_GINT64_FORMAT ": %s, %s-delimited, SHA-256 %.16s…, %" G_GUINT64_FORMAT
+      printf (_("source %" PRId64 ": %s, %s-delimited, SHA-256 %.16s…, %" PRIu64
                 " new stars\n"),
               report->source_id, report->file_name, sl_csv_delimiter_name (report->delimiter),
               report->sha256, report->new_stars);

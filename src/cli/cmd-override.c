@@ -17,7 +17,9 @@ sl_cli_override (int argc, char **argv)
   g_autofree char *reason = NULL;
   gboolean clear = FALSE;
   const GOptionEntry entries[] = {
+    /* xgettext:no-c-format */
     { "lo", 0, 0, G_OPTION_ARG_STRING, &lo_text, N_("Lower bound of the value's 68% interval"), N_("X") },
+    /* xgettext:no-c-format */
     { "hi", 0, 0, G_OPTION_ARG_STRING, &hi_text, N_("Upper bound of the value's 68% interval"), N_("Y") },
     { "reason", 0, 0, G_OPTION_ARG_STRING, &reason, N_("Why (required to set a value)"), N_("TEXT") },
     { "clear", 0, 0, G_OPTION_ARG_NONE, &clear, N_("Remove the hand-set value"), NULL },

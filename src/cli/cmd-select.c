@@ -27,6 +27,7 @@ sl_cli_select (int argc, char **argv)
   };
   g_autoptr (GOptionContext) context =
     sl_cli_context_new ("select", _("PROJECT"), _("Make a named target list of the stars that satisfy a condition."),
+                        /* xgettext:no-c-format */
                         _("A condition compares names with numbers or text and joins the comparisons with "
                           "and, or, not and parentheses:\n"
                           "  teff > 5000 and dist < 100\n"

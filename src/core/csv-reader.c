@@ -187,7 +187,7 @@ sl_csv_reader_new (const char *data, gsize length, char delimiter,
   if (nul != NULL)
     {
       g_set_error (error, SL_ERROR, SL_ERROR_BAD_INPUT,
-                   _("%s: not a text file (a NUL byte at offset %" G_GSIZE_FORMAT ")"),
+                   _("%s: not a text file (a NUL byte at offset %zu)"),
                    file_name, (gsize) (nul - data));
       return NULL;
     }

@@ -9,6 +9,7 @@
  */
 #include "derivation.h"
 
+#include <inttypes.h>
 #include <glib/gi18n.h>
 #include <math.h>
 #include <string.h>
@@ -716,7 +717,7 @@ engine_for_run (SlProject *project, GHashTable *engines, gint64 run_id, GError *
   if (sqlite3_step (stmt) == SQLITE_ROW)
     ok = sl_derive_params_from_keyfile (&params, (const char *) sqlite3_column_text (stmt, 0), error);
   else
-    g_set_error (error, SL_ERROR, SL_ERROR_DATABASE, _("derived values refer to run %" G_GINT64_FORMAT
+    g_set_error (error, SL_ERROR, SL_ERROR_DATABASE, _("derived values refer to run %" PRId64
                                                        ", which is not recorded"), run_id);
   sqlite3_finalize (stmt);
   if (!ok)
@@ -865,7 +866,7 @@ sl_verify (SlProject *project, GCancellable *cancellable, GError **error)
       if (!have_inputs || inputs.star_id != star_id)
         {
           g_ptr_array_add (report->mismatches,
-                           g_strdup_printf (_("star %" G_GINT64_FORMAT ": derived values but no measurements"),
+                           g_strdup_printf (_("star %" PRId64 ": derived values but no measurements"),
                                             star_id));
           continue;
         }

@@ -9,6 +9,7 @@
  */
 #include "import.h"
 
+#include <inttypes.h>
 #include <glib/gi18n.h>
 #include <math.h>
 #include <string.h>
@@ -603,7 +604,7 @@ finish_matcher (Import *im, GError **error)
     }
   if (sl_row_matcher_renamed (im->matcher) > 0)
     g_ptr_array_add (report->notes,
-                     g_strdup_printf (_("%" G_GUINT64_FORMAT " new stars were named with the source's "
+                     g_strdup_printf (_("%" PRIu64 " new stars were named with the source's "
                                         "number because their id is taken by another star"),
                                       sl_row_matcher_renamed (im->matcher)));
   return TRUE;
@@ -714,13 +715,13 @@ check_not_imported (SlProject *project, const char *sha256, const char *file_nam
       if (again)
         g_ptr_array_add (report->notes,
                          g_strdup_printf (_("the same file (SHA-256) was imported before as source %"
-                                            G_GINT64_FORMAT " (%s, %s); imported again as asked"),
+                                            PRId64 " (%s, %s); imported again as asked"),
                                           id, earlier, when));
       else
         {
           g_set_error (error, SL_ERROR, SL_ERROR_ALREADY_IMPORTED,
                        _("%s: this file (same SHA-256) was already imported as source %"
-                         G_GINT64_FORMAT " (%s, %s); use --again to import it again"),
+                         PRId64 " (%s, %s); use --again to import it again"),
                        file_name, id, earlier, when);
           ok = FALSE;
         }
@@ -962,7 +963,7 @@ fail_if_nothing_accepted (Import *im, GError **error)
     }
   first = &g_array_index (report->rejections, SlRejection, 0);
   g_set_error (error, SL_ERROR, SL_ERROR_NOTHING_ACCEPTED,
-               _("%s: no row could be imported; all %" G_GUINT64_FORMAT " were rejected, "
+               _("%s: no row could be imported; all %" PRIu64 " were rejected, "
                  "the first at line %u: %s%s%s"),
                report->file_name, report->rows_read, first->line,
                first->column ? first->column : "", first->column ? ": " : "", first->reason);

@@ -270,6 +270,7 @@ static const SlParamInfo param_table[SL_N_PARAMS] = {
                                 N_("1000 / parallax; only where the parallax signal-to-noise ratio is 5 or more."),
                                 "Bailer-Jones 2015, PASP 127, 994" },
       [SL_DISTANCE_EDSD] = { "edsd", N_("Space density prior"),
+                             /* xgettext:no-c-format */
                              N_("An exponentially decreasing space density prior: the posterior's mode with its "
                                 "68% highest-density interval; any parallax with an error."),
                              "Bailer-Jones 2015, PASP 127, 994; Bailer-Jones et al. 2018, AJ 156, 58" },
