@@ -1,4 +1,5 @@
 /* cmd-derive.c: starledger-cli derive PROJECT [options] */
+#include <inttypes.h>
 #include <glib/gi18n.h>
 #include <inttypes.h>
 #include <math.h>

@@ -1,5 +1,6 @@
 /* cmd-import.c: starledger-cli import PROJECT FILE [options], and with --dry-run
  * the same report of an import that writes nothing. */
+#include <inttypes.h>
 #include <glib/gi18n.h>
 #include <inttypes.h>
 #include <float.h>

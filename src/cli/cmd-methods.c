@@ -141,7 +141,7 @@ print_text (GPtrArray *modules, const SlDeriveParams *defaults)
 
       printf ("\n%s (%s %d)\n", m->name, _("version"), m->version);
       printf ("  %s -> %s\n", inputs, outputs);
-      printf ("  %s\n", m->method);
+      printf ("  %s\n", _(m->method));
       printf (_("  formula: %s\n"), _(m->formula));
       printf (_("  valid: %s\n"), _(m->validity));
       printf (_("  source: %s\n"), m->citation);

@@ -10,6 +10,7 @@
 #include "derivation.h"
 #include <inttypes.h>
 
+#include <inttypes.h>
 #include <glib/gi18n.h>
 #include <math.h>
 #include <string.h>

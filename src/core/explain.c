@@ -417,7 +417,7 @@ write_step (Writer *w, const SlModule *m, const SlDerivedRow *row, const RunInfo
       return;
     }
 
-  g_string_append_printf (w->out, _("  %d. %s (version %d): %s\n"), number, m->name, m->version, m->method);
+  g_string_append_printf (w->out, _("  %d. %s (version %d): %s\n"), number, m->name, m->version, _(m->method));
   g_string_append_printf (w->out, _("     formula: %s\n"), _(m->formula));
   g_string_append_printf (w->out, _("     source: %s\n"), m->citation);
   g_string_append_printf (w->out, _("     valid: %s\n"), _(m->validity));

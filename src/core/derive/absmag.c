@@ -26,7 +26,7 @@ compute_absmag (SlEval *ev)
 const SlModule sl_module_absmag = {
   .name = "absolute-magnitude",
   .version = 1,
-  .method = "distance modulus and absolute magnitude",
+  .method = N_("distance modulus and absolute magnitude"),
   .citation = "definition of absolute magnitude",
   .formula = N_("distmod = 5 log10(dist) - 5; absmag = vmag - distmod - av"),
   .validity = N_("any distance"),

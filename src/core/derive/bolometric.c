@@ -95,7 +95,7 @@ compute_bolometric (SlEval *ev)
 const SlModule sl_module_bolometric = {
   .name = "bolometric",
   .version = 1,
-  .method = "Flower (1996) BC_V(log Teff) with Torres (2010) coefficients",
+  .method = N_("Flower (1996) BC_V(log Teff) with Torres (2010) coefficients"),
   .citation = "Flower 1996, ApJ 469, 355; Torres 2010, AJ 140, 1158 (Table 1)",
   .formula = N_("bc = polynomial in log10 teff (three pieces, boundaries 3.70 and 3.90); mbol = absmag + bc"),
   .validity = N_("2900 K <= teff <= 52 500 K"),

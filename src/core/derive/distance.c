@@ -238,7 +238,7 @@ compute_distance (SlEval *ev)
 const SlModule sl_module_distance = {
   .name = "distance",
   .version = 1,
-  .method = "inverse parallax (S/N >= 5), or the EDSD-prior posterior mode with its 68% HDI",
+  .method = N_("inverse parallax (S/N >= 5), or the EDSD-prior posterior mode with its 68% HDI"),
   .citation = "Bailer-Jones 2015, PASP 127, 994; Bailer-Jones et al. 2018, AJ 156, 58",
   .formula = N_("inverse: dist = 1000 / parallax; edsd: the mode of r^2 exp(-r/L) N(parallax | 1/r, sigma), "
                 "a root of r^3/L - 2r^2 + (parallax/sigma^2) r - 1/sigma^2 = 0"),

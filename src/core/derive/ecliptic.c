@@ -103,7 +103,7 @@ compute_ecliptic (SlEval *ev)
 const SlModule sl_module_ecliptic = {
   .name = "ecliptic",
   .version = 1,
-  .method = "ICRS to mean ecliptic and equinox of J2000 (IAU 2006), ERFA eraEqec06",
+  .method = N_("ICRS to mean ecliptic and equinox of J2000 (IAU 2006), ERFA eraEqec06"),
   .citation = "IAU 2006 precession (Hilton et al. 2006, CeMDA 94, 351); ERFA/SOFA eraEqec06",
   .formula = N_("(elon, elat) = rotation of (ra, dec) by the J2000 obliquity 23.4392794 deg, with frame bias"),
   .validity = N_("everywhere; ecliptic of J2000, position at its own epoch"),

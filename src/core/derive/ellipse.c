@@ -49,7 +49,7 @@ compute_ellipse (SlEval *ev)
 const SlModule sl_module_ellipse = {
   .name = "parallax-ellipse",
   .version = 1,
-  .method = "annual parallax ellipse for a circular Earth orbit",
+  .method = N_("annual parallax ellipse for a circular Earth orbit"),
   .citation = "Astronomical Almanac (parallax in ecliptic coordinates); REFERENCES.md 7",
   .formula = N_("ellipse_a = parallax; ellipse_b = parallax |sin elat|; ellipse_pa = PA of ecliptic north + 90 deg"),
   .validity = N_("positive parallaxes; circular Earth orbit (axes good to 2 per cent)"),

@@ -41,7 +41,7 @@ compute_extinction (SlEval *ev)
 const SlModule sl_module_extinction = {
   .name = "extinction",
   .version = 1,
-  .method = "A_V = R_V E(B-V), one-parameter extinction law",
+  .method = N_("A_V = R_V E(B-V), one-parameter extinction law"),
   .citation = "Cardelli, Clayton & Mathis 1989, ApJ 345, 245",
   .formula = N_("av = R_V x ebv; bv0 = bv - ebv (without ebv: av = 0, bv0 = bv)"),
   .validity = N_("R_V between about 2.75 and 5.3 in the Galaxy"),

@@ -29,7 +29,7 @@ compute_vtan (SlEval *ev)
 const SlModule sl_module_kinematics = {
   .name = "kinematics",
   .version = 1,
-  .method = "tangential velocity v = A mu r, A = 1 au per Julian year",
+  .method = N_("tangential velocity v = A mu r, A = 1 au per Julian year"),
   .citation = "IAU 2012 Resolution B2 (au); ESA 1997, The Hipparcos Catalogue, Vol. 1, 1.5",
   .formula = N_("vtan = 4.740470 km/s x (sqrt(pmra^2 + pmdec^2) / 1000) x dist"),
   .validity = N_("any proper motion; pmra-pmdec correlation taken as zero"),

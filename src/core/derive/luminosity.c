@@ -29,7 +29,7 @@ compute_luminosity (SlEval *ev)
 const SlModule sl_module_luminosity = {
   .name = "luminosity",
   .version = 1,
-  .method = "L/L_sun from M_bol with M_bol,sun on the Flower/Torres BC scale (4.7312)",
+  .method = N_("L/L_sun from M_bol with M_bol,sun on the Flower/Torres BC scale (4.7312)"),
   .citation = "Torres 2010, AJ 140, 1158; IAU 2015 Resolutions B2 and B3",
   .formula = N_("lum = 10^(-0.4 (mbol - 4.73117)); 4.73117 = V_sun (-26.76) + 31.572 + BC(5772 K)"),
   .validity = N_("the BC scale's zero point holds to about 0.03 mag"),

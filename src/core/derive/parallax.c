@@ -44,7 +44,7 @@ compute_snr (SlEval *ev)
 const SlModule sl_module_parallax = {
   .name = "parallax",
   .version = 1,
-  .method = "parallax signal-to-noise ratio",
+  .method = N_("parallax signal-to-noise ratio"),
   .citation = "definition; S/N 5 threshold after Bailer-Jones 2015, PASP 127, 994",
   .formula = N_("plx_snr = (parallax - zero point) / parallax_err"),
   .validity = N_("any parallax with a positive error"),

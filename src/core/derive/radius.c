@@ -28,7 +28,7 @@ compute_radius (SlEval *ev)
 const SlModule sl_module_radius = {
   .name = "radius",
   .version = 1,
-  .method = "Stefan-Boltzmann law, ratio form with IAU 2015 nominal solar values",
+  .method = N_("Stefan-Boltzmann law, ratio form with IAU 2015 nominal solar values"),
   .citation = "IAU 2015 Resolution B3 (Prsa et al. 2016, AJ 152, 41)",
   .formula = N_("radius = sqrt(lum) x (5772 K / teff)^2"),
   .validity = N_("stars radiating roughly as black bodies of their Teff"),

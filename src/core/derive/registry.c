@@ -180,19 +180,20 @@ sl_derive_params_describe (const SlDeriveParams *p)
   GString *text = g_string_new (NULL);
 
   if (p->distance == SL_DISTANCE_EDSD)
-    g_string_append_printf (text, "distance edsd (L = %s pc)", sl_format_double (buf[0], p->length_scale_pc));
+    g_string_append_printf (text, _("distance edsd (L = %s pc)"), sl_format_double (buf[0], p->length_scale_pc));
   else
-    g_string_append (text, "distance inverse");
-  g_string_append_printf (text, ", parallax zero point %s mas, R_V %s", sl_format_double (buf[1], p->parallax_zero_point),
-                          sl_format_double (buf[2], p->rv));
+    g_string_append (text, _("distance inverse"));
+  g_string_append_printf (text, _(", parallax zero point %s mas, R_V %s"),
+                          sl_format_double (buf[1], p->parallax_zero_point), sl_format_double (buf[2], p->rv));
   if (p->rv_err > 0)
     g_string_append_printf (text, " +/- %s", sl_format_double (buf[3], p->rv_err));
   g_string_append_printf (text, ", teff %s", p->teff == SL_TEFF_BALLESTEROS ? "ballesteros" : "flower");
   if (p->errors == SL_ERRORS_MONTE_CARLO)
-    g_string_append_printf (text, ", errors mc:%u (seed %" PRIu64 ")", p->draws, p->seed);
+    g_string_append_printf (text, _(", errors mc:%u (seed %" PRIu64 ")"), p->draws, p->seed);
   else
-    g_string_append_printf (text, ", errors linear (Monte Carlo, %u draws, seed %" PRIu64
-                            ", below parallax S/N %s)", p->draws, p->seed, sl_format_double (buf[3], p->mc_below_snr));
+    g_string_append_printf (text, _(", errors linear (Monte Carlo, %u draws, seed %" PRIu64
+                                   ", below parallax S/N %s)"),
+                            p->draws, p->seed, sl_format_double (buf[3], p->mc_below_snr));
   return g_string_free (text, FALSE);
 }
 

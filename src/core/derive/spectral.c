@@ -105,7 +105,7 @@ compute_class (SlEval *ev)
 const SlModule sl_module_spectral = {
   .name = "spectral-class",
   .version = 1,
-  .method = "nearest dwarf spectral type, interpolated in log Teff (an estimate on the dwarf scale)",
+  .method = N_("nearest dwarf spectral type, interpolated in log Teff (an estimate on the dwarf scale)"),
   .citation = "Pecaut & Mamajek 2013, ApJS 208, 9 (Table 5; Mamajek's version 2019.3.22)",
   .formula = N_("spclass = the dwarf type whose Teff matches teff, interpolated in log10 teff"),
   .validity = N_("2250 K (L0V) to 46 000 K (O3V); luminosity class V"),

@@ -92,7 +92,7 @@ compute_teff (SlEval *ev)
 const SlModule sl_module_temperature = {
   .name = "temperature",
   .version = 1,
-  .method = "Flower (1996) log Teff((B-V)0) with Torres (2010) coefficients, or Ballesteros (2012)",
+  .method = N_("Flower (1996) log Teff((B-V)0) with Torres (2010) coefficients, or Ballesteros (2012)"),
   .citation = "Flower 1996, ApJ 469, 355; Torres 2010, AJ 140, 1158 (Table 2); Ballesteros 2012, EPL 97, 34008",
   .formula = N_("flower: log10 teff = sum c_i bv0^i (i = 0..7); ballesteros: teff = 4600 K "
                 "(1/(0.92 bv0 + 1.7) + 1/(0.92 bv0 + 0.62))"),
