@@ -9,7 +9,8 @@
  * Pictures of the window, the About window and the shortcuts window are
  * rendered (GtkWidgetPaintable -> render node -> cairo) into the test
  * build directory: gui-snapshot.png, gui-selected.png, gui-about.png,
- * gui-shortcuts.png, gui-derive.png, gui-derive-lower.png, gui-welcome.png.
+ * gui-shortcuts.png, gui-derive.png, gui-derive-lower.png, gui-welcome.png,
+ * gui-columns.png, gui-columns-chooser.png.
  * Look at them after changing what the window shows. */
 #include <errno.h>
 #include <glib/gstdio.h>
@@ -2460,6 +2461,14 @@ shown_columns (void)
   return g_strjoinv ("|", names);
 }
 
+static gboolean
+shown_columns_start_with (const char *prefix)
+{
+  g_autofree char *shown = shown_columns ();
+
+  return g_str_has_prefix (shown, prefix);
+}
+
 static char *
 stored_columns (GSettings *settings)
 {
@@ -2657,6 +2666,23 @@ test_catalogue_columns (void)
   g_assert_cmpstr ((shown = shown_columns ()), ==, USUAL_COLUMNS);
   g_assert_cmpstr ((stored = stored_columns (settings)), ==, USUAL_COLUMNS);
   g_assert_cmpuint (catalogue_rows (), ==, DEMO_STARS);
+
+  /* A header dragged elsewhere (what the column view's drag does): the
+   * order is kept and stored. */
+  {
+    GtkWidget *table = find_descendant (catalogue, GTK_TYPE_COLUMN_VIEW);
+    g_autoptr (GtkColumnViewColumn) teff = g_list_model_get_item (gtk_column_view_get_columns (GTK_COLUMN_VIEW (table)), 8);
+
+    g_assert_cmpstr (gtk_column_view_column_get_title (teff), ==, "Teff (K)");
+    gtk_column_view_insert_column (GTK_COLUMN_VIEW (table), 1, teff);
+    WAIT_UNTIL (shown_columns_start_with ("designation|teff|ra|"), FRAME_TIMEOUT_S, "the new order");
+    g_clear_pointer (&stored, g_free);
+    g_assert_cmpstr ((stored = stored_columns (settings)), ==,
+                     "designation|teff|ra|dec|parallax|vmag|bv|dist|absmag|lum|radius|spclass|sptype|flags");
+  }
+  g_assert_true (gtk_widget_activate_action (catalogue, "catalogue.reset-columns", NULL));
+  g_clear_pointer (&shown, g_free);
+  g_assert_cmpstr ((shown = shown_columns ()), ==, USUAL_COLUMNS);
 }
 
 int
