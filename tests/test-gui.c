@@ -2583,9 +2583,11 @@ test_catalogue_columns (void)
   GtkWidget *chooser, *popover, *name;
   g_autofree char *shown = NULL, *stored = NULL, *titles = NULL, *want_pmra = NULL, *want_vtan = NULL;
   g_autofree char *designation = NULL;
+  guint rows;
 
   ENSURE_DEMO ();
   catalogue = GTK_WIDGET (sl_window_get_catalogue (demo));
+  rows = catalogue_rows ();
   g_assert_cmpstr ((shown = shown_columns ()), ==, USUAL_COLUMNS);
   g_assert_cmpstr ((stored = stored_columns (settings)), ==, USUAL_COLUMNS);
 
@@ -2665,7 +2667,7 @@ test_catalogue_columns (void)
   g_clear_pointer (&stored, g_free);
   g_assert_cmpstr ((shown = shown_columns ()), ==, USUAL_COLUMNS);
   g_assert_cmpstr ((stored = stored_columns (settings)), ==, USUAL_COLUMNS);
-  g_assert_cmpuint (catalogue_rows (), ==, DEMO_STARS);
+  g_assert_cmpuint (catalogue_rows (), ==, rows);
 
   /* A header dragged elsewhere (what the column view's drag does): the
    * order is kept and stored. */

@@ -1,12 +1,15 @@
 /* sl-catalogue-model.c: the Catalogue's list model: the star ids in display
- * order, and rows read a page at a time into a small cache.
+ * order, and rows read a page at a time into a small cache, with the
+ * shown columns only.
  *
  * Contents:
- *   the inputs in SQL ...... the choice inputs.c makes, as SQL joins
+ *   the columns in SQL ..... the choice inputs.c makes, as SQL joins; the
+ *                            page query built from the shown columns
  *   the order .............. query_order: the star ids sorted in SQL
  *   pages .................. load_page, get_page, the LRU cache, check_state
  *   GListModel ............. get_item_type, get_n_items, get_item
- *   the project ............ set_project, set_list, reload, sort (and async), find
+ *   the project ............ set_project, set_list, set_columns, reload, sort
+ *                            (and async), find
  */
 #include "sl-catalogue-model.h"
 

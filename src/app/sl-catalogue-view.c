@@ -689,6 +689,7 @@ make_strip (SlCatalogueView *self)
   GtkWidget *label = gtk_label_new (_("Catalogue"));
   GtkWidget *content = gtk_box_new (GTK_ORIENTATION_VERTICAL, 8);
   GtkWidget *grid = gtk_grid_new ();
+  GtkWidget *scroller = gtk_scrolled_window_new ();
   GtkWidget *reset = gtk_button_new_with_mnemonic (_("_Reset to the Usual Columns"));
   GtkWidget *popover = gtk_popover_new ();
 
@@ -705,7 +706,13 @@ make_strip (SlCatalogueView *self)
   add_group (self, GTK_GRID (grid), 1, SL_CATALOGUE_GROUP_DERIVED, _("Derived"));
   gtk_actionable_set_action_name (GTK_ACTIONABLE (reset), "catalogue.reset-columns");
   gtk_widget_set_halign (reset, GTK_ALIGN_END);
-  gtk_box_append (GTK_BOX (content), grid);
+  /* On a small screen the list scrolls; the reset stays in sight. */
+  gtk_scrolled_window_set_policy (GTK_SCROLLED_WINDOW (scroller), GTK_POLICY_NEVER, GTK_POLICY_AUTOMATIC);
+  gtk_scrolled_window_set_propagate_natural_height (GTK_SCROLLED_WINDOW (scroller), TRUE);
+  gtk_scrolled_window_set_propagate_natural_width (GTK_SCROLLED_WINDOW (scroller), TRUE);
+  gtk_scrolled_window_set_max_content_height (GTK_SCROLLED_WINDOW (scroller), 640);
+  gtk_scrolled_window_set_child (GTK_SCROLLED_WINDOW (scroller), grid);
+  gtk_box_append (GTK_BOX (content), scroller);
   gtk_box_append (GTK_BOX (content), reset);
   gtk_widget_set_margin_top (content, 6);
   gtk_widget_set_margin_bottom (content, 6);
