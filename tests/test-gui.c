@@ -2469,6 +2469,16 @@ shown_columns_start_with (const char *prefix)
   return g_str_has_prefix (shown, prefix);
 }
 
+/* Whether the table's first row is DESIGNATION's. */
+static gboolean
+first_row_is (const char *designation)
+{
+  GListModel *rows = G_LIST_MODEL (sl_catalogue_view_get_selection_model (sl_window_get_catalogue (demo)));
+  g_autoptr (SlCatalogueRow) row = g_list_model_get_item (rows, 0);
+
+  return row && g_strcmp0 (sl_catalogue_row_get_designation (row), designation) == 0;
+}
+
 static char *
 stored_columns (GSettings *settings)
 {
@@ -2685,6 +2695,30 @@ test_catalogue_columns (void)
   g_assert_true (gtk_widget_activate_action (catalogue, "catalogue.reset-columns", NULL));
   g_clear_pointer (&shown, g_free);
   g_assert_cmpstr ((shown = shown_columns ()), ==, USUAL_COLUMNS);
+
+  /* Sorted by a column: showing another keeps the order; hiding the
+   * sorted one goes back to the order the stars entered the project. */
+  {
+    GtkWidget *table = find_descendant (catalogue, GTK_TYPE_COLUMN_VIEW);
+    g_autoptr (GtkColumnViewColumn) teff = g_list_model_get_item (gtk_column_view_get_columns (GTK_COLUMN_VIEW (table)), 8);
+    g_autofree char *path = demo_path ();
+    g_autoptr (GError) error = NULL;
+    g_autoptr (SlProject) project = sl_project_open (path, &error);
+    g_autofree char *hottest = sl_test_query_text (sl_project_db (project), "SELECT s.designation FROM stars s JOIN derived d "
+                                                   "ON d.star_id = s.id ORDER BY d.teff DESC NULLS LAST, s.id LIMIT 1");
+    g_autofree char *first = sl_test_query_text (sl_project_db (project), "SELECT designation FROM stars ORDER BY id LIMIT 1");
+
+    g_assert_no_error (error);
+    g_assert_cmpstr (hottest, !=, first);
+    gtk_column_view_sort_by_column (GTK_COLUMN_VIEW (table), teff, GTK_SORT_DESCENDING);
+    WAIT_UNTIL (first_row_is (hottest), LOAD_TIMEOUT_S, "the table sorted by temperature");
+    g_assert_true (gtk_widget_activate_action (catalogue, "catalogue.toggle-column", "s", "elat"));
+    g_assert_true (first_row_is (hottest));
+    g_assert_true (gtk_widget_activate_action (catalogue, "catalogue.toggle-column", "s", "teff"));
+    WAIT_UNTIL (first_row_is (first), LOAD_TIMEOUT_S, "the table in the stars' order");
+    g_assert_true (gtk_widget_activate_action (catalogue, "catalogue.reset-columns", NULL));
+    g_assert_true (first_row_is (first));
+  }
 }
 
 int
