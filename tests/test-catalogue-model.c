@@ -4,7 +4,9 @@
  * SQL query), then compared row by row in random access order, in every
  * sort order (the reference sorted with qsort and the same rule: missing
  * values last, ties by id), with the page cache checked against its limit
- * after every access.  No display needed: GListModel only (and the
+ * after every access; every column of the table shown, or a few (the
+ * others then missing from the rows: a hidden column is not read).  No
+ * display needed: GListModel only (and the
  * selection model, which is GTK but no widget). */
 #include <locale.h>
 #include <string.h>
@@ -73,16 +75,7 @@ ref_set (RefStar *s, SlCatalogueColumn c, const SlStarInputs *in, SlField field)
     }
 }
 
-static const struct {
-  SlCatalogueColumn column;
-  const char       *name;
-} derived_columns[] = {
-  { SL_CATALOGUE_COLUMN_DIST, "dist" },   { SL_CATALOGUE_COLUMN_ABSMAG, "absmag" },
-  { SL_CATALOGUE_COLUMN_TEFF, "teff" },   { SL_CATALOGUE_COLUMN_LUM, "lum" },
-  { SL_CATALOGUE_COLUMN_RADIUS, "radius" },
-};
-
-/* Every star, in id order. */
+/* Every star, in id order, every column. */
 static GArray *
 read_reference (SlProject *project)
 {
@@ -90,7 +83,7 @@ read_reference (SlProject *project)
   g_autoptr (GError) error = NULL;
   g_autoptr (SlInputCursor) cursor = sl_input_cursor_new (project, 0, &error);
   g_autoptr (GHashTable) by_id = g_hash_table_new (g_int64_hash, g_int64_equal);
-  g_autoptr (GString) sql = g_string_new ("SELECT star_id, stale, flags, spclass");
+  g_autoptr (GString) sql = g_string_new ("SELECT star_id, stale, flags");
   sqlite3_stmt *stmt;
   SlStarInputs in;
 
@@ -104,21 +97,31 @@ read_reference (SlProject *project)
       for (guint c = 0; c < SL_CATALOGUE_N_COLUMNS; c++)
         s.value[c] = s.lo[c] = s.hi[c] = NAN;
       s.text[SL_CATALOGUE_COLUMN_DESIGNATION] = g_strdup (in.designation);
-      ref_set (&s, SL_CATALOGUE_COLUMN_RA, &in, SL_FIELD_RA);
-      ref_set (&s, SL_CATALOGUE_COLUMN_DEC, &in, SL_FIELD_DEC);
-      ref_set (&s, SL_CATALOGUE_COLUMN_PARALLAX, &in, SL_FIELD_PARALLAX);
-      ref_set (&s, SL_CATALOGUE_COLUMN_VMAG, &in, SL_FIELD_VMAG);
-      ref_set (&s, SL_CATALOGUE_COLUMN_BV, &in, SL_FIELD_BV);
-      s.text[SL_CATALOGUE_COLUMN_SPTYPE] = g_strdup (in.sptype);
+      for (SlCatalogueColumn c = 0; c < SL_CATALOGUE_N_COLUMNS; c++)
+        {
+          SlField field = sl_catalogue_column_info (c)->field;
+
+          if (field == SL_FIELD_SPTYPE)
+            s.text[c] = g_strdup (in.sptype);
+          else if (field != SL_FIELD_NONE)
+            ref_set (&s, c, &in, field);
+        }
       g_array_append_val (stars, s);
     }
   g_assert_no_error (error);
   for (guint i = 0; i < stars->len; i++)
     g_hash_table_insert (by_id, &g_array_index (stars, RefStar, i).id, GUINT_TO_POINTER (i));
 
-  for (gsize i = 0; i < G_N_ELEMENTS (derived_columns); i++)
-    g_string_append_printf (sql, ", %s, %s_lo, %s_hi", derived_columns[i].name, derived_columns[i].name,
-                            derived_columns[i].name);
+  for (SlCatalogueColumn c = 0; c < SL_CATALOGUE_N_COLUMNS; c++)
+    {
+      SlQuantity q = sl_catalogue_column_info (c)->quantity;
+      const char *name = q != SL_Q_NONE ? sl_quantity_info (q)->name : NULL;
+
+      if (name && sl_quantity_info (q)->is_text)
+        g_string_append_printf (sql, ", %s", name);
+      else if (name)
+        g_string_append_printf (sql, ", %s, %s_lo, %s_hi", name, name, name);
+    }
   g_string_append (sql, " FROM derived");
   g_assert_cmpint (sqlite3_prepare_v2 (sl_project_db (project), sql->str, -1, &stmt, NULL), ==, SQLITE_OK);
   while (sqlite3_step (stmt) == SQLITE_ROW)
@@ -126,23 +129,31 @@ read_reference (SlProject *project)
       gint64 id = sqlite3_column_int64 (stmt, 0);
       gpointer index;
       RefStar *s;
+      int next = 3;
 
       g_assert_true (g_hash_table_lookup_extended (by_id, &id, NULL, &index));
       s = &g_array_index (stars, RefStar, GPOINTER_TO_UINT (index));
       s->derived = TRUE;
       s->stale = sqlite3_column_int (stmt, 1);
       s->flags = (guint32) sqlite3_column_int64 (stmt, 2);
-      s->text[SL_CATALOGUE_COLUMN_SPCLASS] = sl_column_text_dup (stmt, 3);
-      for (gsize i = 0; i < G_N_ELEMENTS (derived_columns); i++)
+      for (SlCatalogueColumn c = 0; c < SL_CATALOGUE_N_COLUMNS; c++)
         {
-          SlCatalogueColumn c = derived_columns[i].column;
-          int first = 4 + 3 * (int) i;
+          SlQuantity q = sl_catalogue_column_info (c)->quantity;
 
-          if (sqlite3_column_type (stmt, first) == SQLITE_NULL)
+          if (q == SL_Q_NONE)
             continue;
-          s->value[c] = sl_column_double_or_nan (stmt, first);
-          s->lo[c] = sl_column_double_or_nan (stmt, first + 1);
-          s->hi[c] = sl_column_double_or_nan (stmt, first + 2);
+          if (sl_quantity_info (q)->is_text)
+            {
+              s->text[c] = sl_column_text_dup (stmt, next++);
+              continue;
+            }
+          if (sqlite3_column_type (stmt, next) != SQLITE_NULL)
+            {
+              s->value[c] = sl_column_double_or_nan (stmt, next);
+              s->lo[c] = sl_column_double_or_nan (stmt, next + 1);
+              s->hi[c] = sl_column_double_or_nan (stmt, next + 2);
+            }
+          next += 3;
         }
     }
   sqlite3_finalize (stmt);
@@ -155,8 +166,10 @@ same_double (double a, double b)
   return (isnan (a) && isnan (b)) || a == b;
 }
 
+/* ROW is WANT in the columns SHOWN; the others are missing (the
+ * designation is always read). */
 static void
-assert_row_is (SlCatalogueRow *row, const RefStar *want, guint position)
+assert_row_is (SlCatalogueRow *row, const RefStar *want, guint position, const gboolean *shown)
 {
   guint32 flags;
   gboolean stale;
@@ -169,6 +182,17 @@ assert_row_is (SlCatalogueRow *row, const RefStar *want, guint position)
       const SlCatalogueColumnInfo *info = sl_catalogue_column_info (c);
       double value, lo, hi;
 
+      if (!shown[c] && c != SL_CATALOGUE_COLUMN_DESIGNATION)
+        {
+          if (info->kind == SL_CATALOGUE_KIND_TEXT)
+            g_assert_null (sl_catalogue_row_get_text (row, c));
+          else if (info->kind == SL_CATALOGUE_KIND_FLAGS)
+            g_assert_false (sl_catalogue_row_get_flags (row, NULL, NULL));
+          else if (sl_catalogue_row_get_number (row, c, &value, &lo, &hi) || !isnan (lo) || !isnan (hi))
+            g_error ("star %" G_GINT64_FORMAT ": hidden column %s has %g [%g, %g]", want->id, info->name, value,
+                     lo, hi);
+          continue;
+        }
       if (info->kind == SL_CATALOGUE_KIND_TEXT)
         {
           if (g_strcmp0 (sl_catalogue_row_get_text (row, c), want->text[c]) != 0)
@@ -183,6 +207,8 @@ assert_row_is (SlCatalogueRow *row, const RefStar *want, guint position)
         g_error ("star %" G_GINT64_FORMAT " %s: want %.17g [%.17g, %.17g], got %.17g [%.17g, %.17g]", want->id,
                  info->title, want->value[c], want->lo[c], want->hi[c], value, lo, hi);
     }
+  if (!shown[SL_CATALOGUE_COLUMN_FLAGS])
+    return;
   g_assert_cmpint (sl_catalogue_row_get_flags (row, &flags, &stale), ==, want->derived);
   if (want->derived)
     {
@@ -199,8 +225,13 @@ assert_row_is (SlCatalogueRow *row, const RefStar *want, guint position)
 static void
 assert_model_is (SlCatalogueModel *model, GArray *want, const guint *order, guint n_samples)
 {
-  guint n = want->len, n_reads = n_samples ? n + n_samples : n;
+  guint n = want->len, n_reads = n_samples ? n + n_samples : n, n_shown;
   g_autofree guint *positions = g_new (guint, n_reads);
+  const SlCatalogueColumn *columns = sl_catalogue_model_get_columns (model, &n_shown);
+  gboolean shown[SL_CATALOGUE_N_COLUMNS] = { FALSE };
+
+  for (guint i = 0; i < n_shown; i++)
+    shown[columns[i]] = TRUE;
 
   g_assert_cmpuint (g_list_model_get_n_items (G_LIST_MODEL (model)), ==, n);
   for (guint i = 0; i < n; i++)
@@ -220,7 +251,7 @@ assert_model_is (SlCatalogueModel *model, GArray *want, const guint *order, guin
       g_autoptr (SlCatalogueRow) row = g_list_model_get_item (G_LIST_MODEL (model), p);
 
       g_assert_nonnull (row);
-      assert_row_is (row, &g_array_index (want, RefStar, order ? order[p] : p), p);
+      assert_row_is (row, &g_array_index (want, RefStar, order ? order[p] : p), p, shown);
       g_assert_cmpuint (sl_catalogue_model_get_cached_rows (model), <=, CACHE_LIMIT);
     }
   g_assert_null (g_list_model_get_item (G_LIST_MODEL (model), n));
@@ -306,13 +337,27 @@ append_value_with_error (GString *s, double p, gint64 lo, gint64 hi, int decimal
   maybe_error (s, has, p_error, decimals);
 }
 
+/* Proper motion, B, E(B-V) and radial velocity, each with chance P (and
+ * an error with 0.8): the groups the default columns leave hidden. */
+#define EXTRA_HEADER "pmra,pmra_err,pmdec,pmdec_err,bmag,bmag_err,ebv,ebv_err,vrad,vrad_err"
+
+static void
+append_extras (GString *s, double p)
+{
+  append_value_with_error (s, p, -500000, 500000, 3, 0.8);
+  append_value_with_error (s, p, -500000, 500000, 3, 0.8);
+  append_value_with_error (s, p, -10, 200, 1, 0.8);
+  append_value_with_error (s, p, 0, 150, 2, 0.8);
+  append_value_with_error (s, p, -30000, 30000, 1, 0.8);
+}
+
 /* The random catalogue (see N_FIRST). */
 static void
 build_catalogue (SlTestProject *f)
 {
-  g_autoptr (GString) first = g_string_new ("id,ra,ra_err,dec,dec_err,epoch,parallax,parallax_err\n");
+  g_autoptr (GString) first = g_string_new ("id,ra,ra_err,dec,dec_err,epoch,parallax,parallax_err," EXTRA_HEADER "\n");
   g_autoptr (GString) second = g_string_new ("id,ra,ra_err,dec,dec_err,parallax,parallax_err,vmag,vmag_err,"
-                                             "bv,bv_err,sptype\n");
+                                             "bv,bv_err,sptype," EXTRA_HEADER "\n");
   g_autoptr (GString) late = g_string_new ("id,vmag,vmag_err,sptype,parallax,parallax_err\n");
   g_autofree guint *names = g_new (guint, N_FIRST);
   g_autoptr (GHashTable) late_names = g_hash_table_new (NULL, NULL);
@@ -336,6 +381,7 @@ build_catalogue (SlTestProject *f)
       append_position (first, 1.0);
       g_string_append (first, ",2016.0");
       append_value_with_error (first, 0.95, -2000, 200000, 3, 0.9);
+      append_extras (first, 0.6);
       g_string_append_c (first, '\n');
     }
   for (guint i = 0; i < N_FIRST + N_SECOND_NEW; i++)
@@ -353,6 +399,7 @@ build_catalogue (SlTestProject *f)
       g_string_append_c (second, ',');
       if (chance (0.7))
         g_string_append (second, sptypes[g_test_rand_int_range (0, G_N_ELEMENTS (sptypes))]);
+      append_extras (second, is_new ? 0.8 : 0.4);
       g_string_append_c (second, '\n');
     }
   import_string (f->project, f->dir, "first.csv", first->str);
@@ -376,6 +423,19 @@ build_catalogue (SlTestProject *f)
       g_string_append_c (late, '\n');
     }
   import_string (f->project, f->dir, "late.csv", late->str);
+}
+
+/* Every column of the table, in the table's order. */
+static void
+show_every_column (SlCatalogueModel *model)
+{
+  SlCatalogueColumn every[SL_CATALOGUE_N_COLUMNS];
+  g_autoptr (GError) error = NULL;
+
+  for (SlCatalogueColumn c = 0; c < SL_CATALOGUE_N_COLUMNS; c++)
+    every[c] = c;
+  g_assert_true (sl_catalogue_model_set_columns (model, every, SL_CATALOGUE_N_COLUMNS, &error));
+  g_assert_no_error (error);
 }
 
 static SlCatalogueModel *
@@ -517,6 +577,60 @@ test_format (void)
     }
 }
 
+/* Every input field a user reads (not the id, not an error) and every
+ * derived quantity has one column, under its vocabulary name, in the
+ * chooser's group; the usual columns are the table's first fourteen. */
+static void
+test_column_table (void)
+{
+  static const char *const usual[] = { "designation", "ra", "dec", "parallax", "vmag", "bv", "dist", "absmag",
+                                       "teff", "lum", "radius", "spclass", "sptype", "flags" };
+  guint field_columns[SL_N_FIELDS] = { 0 }, quantity_columns[SL_N_QUANTITIES] = { 0 }, n;
+  const SlCatalogueColumn *defaults = sl_catalogue_default_columns (&n);
+
+  for (SlCatalogueColumn c = 0; c < SL_CATALOGUE_N_COLUMNS; c++)
+    {
+      const SlCatalogueColumnInfo *info = sl_catalogue_column_info (c);
+      SlCatalogueColumn back;
+
+      g_assert_true (sl_catalogue_column_from_name (info->name, &back));
+      g_assert_cmpint (back, ==, c);
+      g_assert_true (info->title && *info->title);
+      g_assert_true (sl_catalogue_column_describe (c) && *sl_catalogue_column_describe (c));
+      g_assert_false (info->field != SL_FIELD_NONE && info->quantity != SL_Q_NONE);
+      if (info->field != SL_FIELD_NONE)
+        {
+          field_columns[info->field]++;
+          g_assert_cmpstr (info->name, ==, sl_field_info (info->field)->name);
+          g_assert_cmpint (info->group, ==, SL_CATALOGUE_GROUP_MEASURED);
+        }
+      if (info->quantity != SL_Q_NONE)
+        {
+          quantity_columns[info->quantity]++;
+          g_assert_cmpstr (info->name, ==, sl_quantity_info (info->quantity)->name);
+          g_assert_cmpint (info->group, ==, SL_CATALOGUE_GROUP_DERIVED);
+          g_assert_cmpint (info->kind == SL_CATALOGUE_KIND_TEXT, ==, sl_quantity_info (info->quantity)->is_text);
+        }
+    }
+  for (SlField f = 0; f < SL_N_FIELDS; f++)
+    {
+      SlFieldKind kind = sl_field_info (f)->kind;
+      guint want = kind == SL_FIELD_KIND_VALUE || kind == SL_FIELD_KIND_TEXT ? 1 : 0;
+
+      if (field_columns[f] != want)
+        g_error ("input field %s: %u columns, want %u", sl_field_info (f)->name, field_columns[f], want);
+    }
+  for (SlQuantity q = 0; q < SL_N_QUANTITIES; q++)
+    if (quantity_columns[q] != 1)
+      g_error ("quantity %s: %u columns, want 1", sl_quantity_info (q)->name, quantity_columns[q]);
+  g_assert_false (sl_catalogue_column_from_name ("parallax_err", NULL));
+  g_assert_false (sl_catalogue_column_from_name ("Parallax", NULL));
+
+  g_assert_cmpuint (n, ==, G_N_ELEMENTS (usual));
+  for (guint i = 0; i < n; i++)
+    g_assert_cmpstr (sl_catalogue_column_info (defaults[i])->name, ==, usual[i]);
+}
+
 static void
 test_random_access (SlTestProject *f, gconstpointer data)
 {
@@ -527,25 +641,28 @@ test_random_access (SlTestProject *f, gconstpointer data)
   want = read_reference (f->project);
   g_assert_cmpuint (want->len, ==, N_FIRST + N_SECOND_NEW + N_LATE_NEW);
   model = open_model (f);
+  /* The usual columns, twice (the second pass meets a warm cache), then
+   * every column. */
   assert_model_is (model, want, NULL, 0);
-  /* Twice: the second pass meets a warm cache. */
+  assert_model_is (model, want, NULL, 0);
+  show_every_column (model);
   assert_model_is (model, want, NULL, 0);
 }
 
 static void
 test_sort (SlTestProject *f, gconstpointer data)
 {
-  static const SlCatalogueColumn columns[] = {
-    SL_CATALOGUE_COLUMN_DESIGNATION, SL_CATALOGUE_COLUMN_RA, SL_CATALOGUE_COLUMN_DEC,
-    SL_CATALOGUE_COLUMN_PARALLAX, SL_CATALOGUE_COLUMN_VMAG, SL_CATALOGUE_COLUMN_BV,
-    SL_CATALOGUE_COLUMN_DIST, SL_CATALOGUE_COLUMN_ABSMAG, SL_CATALOGUE_COLUMN_TEFF,
-    SL_CATALOGUE_COLUMN_LUM, SL_CATALOGUE_COLUMN_RADIUS, SL_CATALOGUE_COLUMN_SPCLASS,
-    SL_CATALOGUE_COLUMN_SPTYPE, SL_CATALOGUE_COLUMN_FLAGS, SL_CATALOGUE_COLUMN_NONE,
-  };
+  SlCatalogueColumn columns[SL_CATALOGUE_N_COLUMNS + 1];
   g_autoptr (GArray) want = NULL;
   g_autoptr (SlCatalogueModel) model = NULL;
   guint calls = 0;
 
+  /* By every column, then none; the rows read with the star's name and
+   * the column sorted by (the random-access test reads every column
+   * whole).  The first sort reads every column, and the usual ones are
+   * read for the order by id. */
+  for (SlCatalogueColumn c = 0; c <= SL_CATALOGUE_N_COLUMNS; c++)
+    columns[c] = c;
   build_catalogue (f);
   want = read_reference (f->project);
   model = open_model (f);
@@ -553,6 +670,8 @@ test_sort (SlTestProject *f, gconstpointer data)
   for (gsize i = 0; i < G_N_ELEMENTS (columns); i++)
     for (int descending = 0; descending <= 1; descending++)
       {
+        SlCatalogueColumn shown[2] = { SL_CATALOGUE_COLUMN_DESIGNATION, columns[i] };
+
         g_autoptr (GError) error = NULL;
         g_autofree guint *order = ref_order (want, columns[i], descending);
         SlCatalogueColumn column;
@@ -561,6 +680,19 @@ test_sort (SlTestProject *f, gconstpointer data)
 
         g_test_message ("sort by %s %s", columns[i] < SL_CATALOGUE_N_COLUMNS
                         ? sl_catalogue_column_info (columns[i])->title : "id", descending ? "down" : "up");
+        if (i == 0 && !descending)
+          show_every_column (model);
+        else if (columns[i] == SL_CATALOGUE_COLUMN_NONE)
+          {
+            guint n;
+            const SlCatalogueColumn *usual = sl_catalogue_default_columns (&n);
+
+            g_assert_true (sl_catalogue_model_set_columns (model, usual, n, &error));
+          }
+        else
+          g_assert_true (sl_catalogue_model_set_columns (model, shown, 2, &error));
+        g_assert_no_error (error);
+        before = calls;
         g_assert_true (sl_catalogue_model_sort (model, columns[i], descending, &error));
         g_assert_no_error (error);
         /* The order is swapped in whole: two signals, no row by row. */
@@ -694,6 +826,84 @@ test_sort_async (SlTestProject *f, gconstpointer data)
   assert_model_is (model, want, order, SORT_SAMPLES);
 }
 
+/* A page reads the shown columns only: the query joins what they need
+ * and nothing else, and the rows lack the hidden columns (checked
+ * against the reference, which has them); a change of columns is
+ * announced as every row removed and added again, and the next read runs
+ * one page query. */
+static void
+test_hidden_columns (SlTestProject *f, gconstpointer data)
+{
+  static const struct {
+    SlCatalogueColumn columns[4];
+    guint             n;
+    const char       *joined[3];      /* must be in the page query */
+    const char       *not_joined[4];  /* must not */
+  } cases[] = {
+    { { SL_CATALOGUE_COLUMN_DESIGNATION, SL_CATALOGUE_COLUMN_TEFF }, 2,
+      { "derived d", "d.teff_lo" }, { "measurements", "d.flags", "d.lum" } },
+    { { SL_CATALOGUE_COLUMN_PMDEC, SL_CATALOGUE_COLUMN_DESIGNATION }, 2,
+      { "m_pmra.pmdec", "m_pmra.pmdec_err" }, { "derived", "m_pmra.pmra,", "m_ra", "sptype" } },
+    { { SL_CATALOGUE_COLUMN_BMAG, SL_CATALOGUE_COLUMN_FLAGS, SL_CATALOGUE_COLUMN_EPOCH, SL_CATALOGUE_COLUMN_VRAD }, 4,
+      { "m_bmag.bmag_err", "d.flags", "m_ra.epoch" }, { "m_vmag", "d.teff", "m_ra.ra", "m_parallax" } },
+  };
+  g_autoptr (GArray) want = NULL;
+  g_autoptr (SlCatalogueModel) model = NULL;
+  g_autoptr (GError) error = NULL;
+
+  build_catalogue (f);
+  want = read_reference (f->project);
+  model = open_model (f);
+  {
+    g_autofree char *sql = sl_catalogue_model_get_page_sql (model);
+
+    /* The usual columns: no proper motion, B, E(B-V) or radial velocity. */
+    for (const char *const *p = (const char *const[]) { "pmra", "bmag", "ebv", "vrad", "plx_snr", NULL }; *p; p++)
+      if (strstr (sql, *p))
+        g_error ("the usual columns' query reads %s: %s", *p, sql);
+  }
+  for (gsize i = 0; i < G_N_ELEMENTS (cases); i++)
+    {
+      guint calls = 0, pages, n;
+      const SlCatalogueColumn *got;
+      g_autofree char *sql = NULL;
+      g_autofree guint *order = NULL;
+
+      /* Some rows held: a change of columns drops them. */
+      g_clear_object (&error);
+      g_clear_pointer (&order, g_free);
+      g_object_unref (g_list_model_get_item (G_LIST_MODEL (model), 0));
+      g_signal_connect (model, "items-changed", G_CALLBACK (count_items_changed), &calls);
+      g_assert_true (sl_catalogue_model_set_columns (model, cases[i].columns, cases[i].n, &error));
+      g_assert_no_error (error);
+      g_signal_handlers_disconnect_by_func (model, count_items_changed, &calls);
+      g_assert_cmpuint (calls, ==, 2);
+      g_assert_cmpuint (sl_catalogue_model_get_cached_rows (model), ==, 0);
+      got = sl_catalogue_model_get_columns (model, &n);
+      g_assert_cmpuint (n, ==, cases[i].n);
+      g_assert_cmpmem (got, n * sizeof *got, cases[i].columns, cases[i].n * sizeof *got);
+
+      sql = sl_catalogue_model_get_page_sql (model);
+      for (guint k = 0; k < G_N_ELEMENTS (cases[i].joined) && cases[i].joined[k]; k++)
+        if (!strstr (sql, cases[i].joined[k]))
+          g_error ("case %" G_GSIZE_FORMAT ": the page query lacks %s: %s", i, cases[i].joined[k], sql);
+      for (guint k = 0; k < G_N_ELEMENTS (cases[i].not_joined) && cases[i].not_joined[k]; k++)
+        if (strstr (sql, cases[i].not_joined[k]))
+          g_error ("case %" G_GSIZE_FORMAT ": the page query reads %s: %s", i, cases[i].not_joined[k], sql);
+
+      pages = sl_catalogue_model_get_pages_read (model);
+      {
+        g_autoptr (SlCatalogueRow) row = g_list_model_get_item (G_LIST_MODEL (model), 1);
+
+        g_assert_cmpuint (sl_catalogue_model_get_pages_read (model), ==, pages + 1);
+      }
+      /* Sorted by a shown column; every row against the reference. */
+      g_assert_true (sl_catalogue_model_sort (model, cases[i].columns[0], i % 2 == 1, &error));
+      order = ref_order (want, cases[i].columns[0], i % 2 == 1);
+      assert_model_is (model, want, order, 0);
+    }
+}
+
 /* ------------------------------------------------------------------ */
 /* A target list                                                      */
 
@@ -820,6 +1030,33 @@ test_large (SlTestProject *f, gconstpointer data)
     g_assert_cmpuint (sl_catalogue_model_get_cached_rows (model), ==,
                       N_LARGE - (N_LARGE - 1) / SL_CATALOGUE_MODEL_PAGE_ROWS * SL_CATALOGUE_MODEL_PAGE_ROWS);
   }
+  /* Twenty columns shown: the last star still reads one page, the
+   * last. */
+  {
+    static const SlCatalogueColumn twenty[] = {
+      SL_CATALOGUE_COLUMN_DESIGNATION, SL_CATALOGUE_COLUMN_RA, SL_CATALOGUE_COLUMN_DEC,
+      SL_CATALOGUE_COLUMN_EPOCH, SL_CATALOGUE_COLUMN_PARALLAX, SL_CATALOGUE_COLUMN_PMRA,
+      SL_CATALOGUE_COLUMN_PMDEC, SL_CATALOGUE_COLUMN_VMAG, SL_CATALOGUE_COLUMN_BMAG,
+      SL_CATALOGUE_COLUMN_BV, SL_CATALOGUE_COLUMN_EBV, SL_CATALOGUE_COLUMN_VRAD,
+      SL_CATALOGUE_COLUMN_SPTYPE, SL_CATALOGUE_COLUMN_PLX_SNR, SL_CATALOGUE_COLUMN_DIST,
+      SL_CATALOGUE_COLUMN_ABSMAG, SL_CATALOGUE_COLUMN_TEFF, SL_CATALOGUE_COLUMN_LUM,
+      SL_CATALOGUE_COLUMN_SPCLASS, SL_CATALOGUE_COLUMN_FLAGS,
+    };
+    guint pages = sl_catalogue_model_get_pages_read (model);
+    g_autoptr (SlCatalogueRow) row = NULL;
+    double value;
+
+    g_assert_true (sl_catalogue_model_set_columns (model, twenty, G_N_ELEMENTS (twenty), &error));
+    g_assert_no_error (error);
+    g_assert_cmpuint (sl_catalogue_model_get_cached_rows (model), ==, 0);
+    row = g_list_model_get_item (G_LIST_MODEL (model), N_LARGE - 1);
+    g_assert_cmpstr (sl_catalogue_row_get_designation (row), ==, "L 0999999");
+    g_assert_true (sl_catalogue_row_get_number (row, SL_CATALOGUE_COLUMN_PARALLAX, &value, NULL, NULL));
+    g_assert_cmpfloat (value, ==, 50.099);   /* 999999 % 50000 + 100, in 10^-3 mas */
+    g_assert_cmpuint (sl_catalogue_model_get_pages_read (model), ==, pages + 1);
+    g_assert_cmpuint (sl_catalogue_model_get_cached_rows (model), ==,
+                      N_LARGE - (N_LARGE - 1) / SL_CATALOGUE_MODEL_PAGE_ROWS * SL_CATALOGUE_MODEL_PAGE_ROWS);
+  }
   /* Pages far apart: the cache stays within its limit. */
   for (guint i = 0; i < 200; i++)
     {
@@ -873,9 +1110,12 @@ main (int argc, char **argv)
   g_test_init (&argc, &argv, NULL);
 
   g_test_add_func ("/catalogue-model/format", test_format);
+  g_test_add_func ("/catalogue-model/columns/table", test_column_table);
   g_test_add ("/catalogue-model/random-access", SlTestProject, NULL, sl_test_project_set_up, test_random_access,
               sl_test_project_tear_down);
   g_test_add ("/catalogue-model/sort", SlTestProject, NULL, sl_test_project_set_up, test_sort,
+              sl_test_project_tear_down);
+  g_test_add ("/catalogue-model/columns/hidden", SlTestProject, NULL, sl_test_project_set_up, test_hidden_columns,
               sl_test_project_tear_down);
   g_test_add ("/catalogue-model/find", SlTestProject, NULL, sl_test_project_set_up, test_find,
               sl_test_project_tear_down);

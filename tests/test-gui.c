@@ -9,7 +9,8 @@
  * Pictures of the window, the About window and the shortcuts window are
  * rendered (GtkWidgetPaintable -> render node -> cairo) into the test
  * build directory: gui-snapshot.png, gui-selected.png, gui-about.png,
- * gui-shortcuts.png, gui-derive.png, gui-derive-lower.png, gui-welcome.png.
+ * gui-shortcuts.png, gui-derive.png, gui-derive-lower.png, gui-welcome.png,
+ * gui-columns.png, gui-columns-chooser.png.
  * Look at them after changing what the window shows. */
 #include <errno.h>
 #include <glib/gstdio.h>
@@ -21,6 +22,7 @@
 #include "condition.h"
 #include "derivation.h"
 #include "export.h"
+#include "inputs.h"
 #include "ledger.h"
 #include "lists.h"
 #include "sl-application.h"
@@ -2524,6 +2526,278 @@ test_view_picture_in_thread (void)
   gtk_window_destroy (GTK_WINDOW (window));
 }
 
+/* ------------------------------------------------------------------ */
+/* The Catalogue's columns                                            */
+
+/* The names of the columns the table shows, "a|b|c". */
+static char *
+shown_columns (void)
+{
+  g_auto (GStrv) names = sl_catalogue_view_get_columns (sl_window_get_catalogue (demo));
+
+  return g_strjoinv ("|", names);
+}
+
+static gboolean
+shown_columns_start_with (const char *prefix)
+{
+  g_autofree char *shown = shown_columns ();
+
+  return g_str_has_prefix (shown, prefix);
+}
+
+/* Whether the table's first row is DESIGNATION's. */
+static gboolean
+first_row_is (const char *designation)
+{
+  GListModel *rows = G_LIST_MODEL (sl_catalogue_view_get_selection_model (sl_window_get_catalogue (demo)));
+  g_autoptr (SlCatalogueRow) row = g_list_model_get_item (rows, 0);
+
+  return row && g_strcmp0 (sl_catalogue_row_get_designation (row), designation) == 0;
+}
+
+static char *
+stored_columns (GSettings *settings)
+{
+  g_auto (GStrv) names = g_settings_get_strv (settings, "catalogue-columns");
+
+  return g_strjoinv ("|", names);
+}
+
+/* The column view's header titles, "a|b|c". */
+static char *
+header_titles (void)
+{
+  GtkWidget *table = find_descendant (GTK_WIDGET (sl_window_get_catalogue (demo)), GTK_TYPE_COLUMN_VIEW);
+  GListModel *columns = gtk_column_view_get_columns (GTK_COLUMN_VIEW (table));
+  g_autoptr (GString) titles = g_string_new (NULL);
+
+  for (guint i = 0; i < g_list_model_get_n_items (columns); i++)
+    {
+      g_autoptr (GtkColumnViewColumn) column = g_list_model_get_item (columns, i);
+
+      g_string_append_printf (titles, "%s%s", i ? "|" : "", gtk_column_view_column_get_title (column));
+    }
+  return g_string_free (g_steal_pointer (&titles), FALSE);
+}
+
+/* The first row drawn whose first cell shows a star's name: that label. */
+static GtkWidget *
+first_star_label (GtkWidget *widget)
+{
+  if (GTK_IS_LABEL (widget) && g_str_has_prefix (gtk_label_get_text (GTK_LABEL (widget)), "LHO ")
+      && gtk_widget_get_mapped (widget))
+    return widget;
+  for (GtkWidget *child = gtk_widget_get_first_child (widget); child; child = gtk_widget_get_next_sibling (child))
+    {
+      GtkWidget *found = first_star_label (child);
+
+      if (found)
+        return found;
+    }
+  return NULL;
+}
+
+/* The text of the cell in column INDEX of the row whose name cell is
+ * NAME_LABEL (a row holds its cells in the columns' order). */
+static const char *
+cell_text (GtkWidget *name_label, guint index)
+{
+  GtkWidget *cell = gtk_widget_get_first_child (gtk_widget_get_parent (gtk_widget_get_parent (name_label)));
+
+  for (guint i = 0; i < index && cell; i++)
+    cell = gtk_widget_get_next_sibling (cell);
+  g_assert_nonnull (cell);
+  g_assert_true (GTK_IS_LABEL (gtk_widget_get_first_child (cell)));
+  return gtk_label_get_text (GTK_LABEL (gtk_widget_get_first_child (cell)));
+}
+
+/* What the table must show for DESIGNATION's proper motion in RA and
+ * tangential velocity: the core's inputs and derived row, formatted. */
+static void
+expected_cells (const char *designation, char **pmra, char **vtan)
+{
+  g_autofree char *path = demo_path ();
+  g_autoptr (GError) error = NULL;
+  g_autoptr (SlProject) project = sl_project_open (path, &error);
+  gint64 id = project ? sl_star_lookup (project, designation, &error) : 0;
+  g_autoptr (SlInputCursor) cursor = NULL;
+  SlStarInputs in;
+  SlDerivedRow row;
+  double e;
+
+  g_assert_no_error (error);
+  cursor = sl_input_cursor_new (project, id, &error);
+  g_assert_true (sl_input_cursor_next (cursor, &in, &error));
+  g_assert_true (in.present[SL_FIELD_PMRA] && in.present[SL_FIELD_PMRA_ERR]);
+  e = in.value[SL_FIELD_PMRA_ERR];
+  *pmra = sl_catalogue_format_number (SL_CATALOGUE_KIND_NUMBER, in.value[SL_FIELD_PMRA],
+                                      in.value[SL_FIELD_PMRA] - e, in.value[SL_FIELD_PMRA] + e);
+  g_assert_true (sl_derived_row_load (project, id, &row, &error));
+  g_assert_true (row.values.has[SL_Q_VTAN]);
+  *vtan = sl_catalogue_format_number (SL_CATALOGUE_KIND_NUMBER, row.values.value[SL_Q_VTAN],
+                                      row.values.lo[SL_Q_VTAN], row.values.hi[SL_Q_VTAN]);
+}
+
+static GtkCheckButton *
+check_labelled (GtkWidget *widget, const char *label)
+{
+  if (GTK_IS_CHECK_BUTTON (widget) && g_strcmp0 (gtk_check_button_get_label (GTK_CHECK_BUTTON (widget)), label) == 0)
+    return GTK_CHECK_BUTTON (widget);
+  for (GtkWidget *child = gtk_widget_get_first_child (widget); child; child = gtk_widget_get_next_sibling (child))
+    {
+      GtkCheckButton *found = check_labelled (child, label);
+
+      if (found)
+        return found;
+    }
+  return NULL;
+}
+
+#define USUAL_COLUMNS "designation|ra|dec|parallax|vmag|bv|dist|absmag|teff|lum|radius|spclass|sptype|flags"
+
+/* Columns shown through the chooser's action: in the table after the
+ * shown columns the chooser lists before them, with the core's numbers in their cells, stored in
+ * GSettings; the setting shows them too; the chooser's check buttons
+ * follow and act; the last column stays; Reset brings the usual columns
+ * back.  Saves gui-columns.png (the window with more columns) and
+ * gui-columns-chooser.png (the chooser open). */
+static void
+test_catalogue_columns (void)
+{
+  g_autoptr (GSettings) settings = g_settings_new (SL_APPLICATION_ID);
+  GtkWidget *catalogue;
+  GtkWidget *chooser, *popover, *name;
+  g_autofree char *shown = NULL, *stored = NULL, *titles = NULL, *want_pmra = NULL, *want_vtan = NULL;
+  g_autofree char *designation = NULL;
+  guint rows;
+
+  ENSURE_DEMO ();
+  catalogue = GTK_WIDGET (sl_window_get_catalogue (demo));
+  rows = catalogue_rows ();
+  g_assert_cmpstr ((shown = shown_columns ()), ==, USUAL_COLUMNS);
+  g_assert_cmpstr ((stored = stored_columns (settings)), ==, USUAL_COLUMNS);
+
+  g_assert_true (gtk_widget_activate_action (catalogue, "catalogue.toggle-column", "s", "pmra"));
+  g_assert_true (gtk_widget_activate_action (catalogue, "catalogue.toggle-column", "s", "vtan"));
+  g_clear_pointer (&shown, g_free);
+  g_clear_pointer (&stored, g_free);
+  g_assert_cmpstr ((shown = shown_columns ()), ==,
+                   "designation|ra|dec|parallax|pmra|vmag|bv|dist|absmag|teff|lum|radius|spclass|sptype|vtan|flags");
+  g_assert_cmpstr ((stored = stored_columns (settings)), ==, shown);
+  g_assert_cmpstr ((titles = header_titles ()), ==,
+                   "Star|RA|Dec|Parallax (mas)|PM in RA (mas/yr)|V (mag)|B−V (mag)|Distance (pc)|Abs. V (mag)|Teff (K)"
+                   "|L (L☉)|R (R☉)|Class|Type|Tangential velocity (km/s)|Flags");
+
+  /* The cells: what the core says of the star in the first row drawn. */
+  PAINT (demo);
+  WAIT_UNTIL ((name = first_star_label (catalogue)) != NULL, FRAME_TIMEOUT_S, "a row of the table");
+  designation = g_strdup (gtk_label_get_text (GTK_LABEL (name)));
+  expected_cells (designation, &want_pmra, &want_vtan);
+  g_test_message ("%s: pmra %s, vtan %s", designation, want_pmra, want_vtan);
+  WAIT_UNTIL (g_strcmp0 (cell_text (name, 4), want_pmra) == 0, FRAME_TIMEOUT_S, "the proper motion cell");
+  g_assert_cmpstr (cell_text (name, 14), ==, want_vtan);
+  /* With its interval, rounded to the uncertainty's digits. */
+  g_assert_true (strstr (want_vtan, " ± ") || strstr (want_vtan, "/−"));
+  {
+    cairo_surface_t *picture = render_widget (GTK_WIDGET (demo));
+
+    save_png (picture, "gui-columns.png");
+    cairo_surface_destroy (picture);
+  }
+
+  /* The chooser: its check buttons say what is shown, and act. */
+  chooser = sl_catalogue_view_get_column_chooser (SL_CATALOGUE_VIEW (catalogue));
+  gtk_menu_button_popup (GTK_MENU_BUTTON (chooser));
+  popover = GTK_WIDGET (gtk_menu_button_get_popover (GTK_MENU_BUTTON (chooser)));
+  WAIT_UNTIL (gtk_widget_get_mapped (popover), FRAME_TIMEOUT_S, "the column chooser to open");
+  g_assert_true (gtk_check_button_get_active (check_labelled (popover, "PM in RA (mas/yr)")));
+  g_assert_true (gtk_check_button_get_active (check_labelled (popover, "Tangential velocity (km/s)")));
+  g_assert_false (gtk_check_button_get_active (check_labelled (popover, "B (mag)")));
+  gtk_check_button_set_active (check_labelled (popover, "B (mag)"), TRUE);
+  gtk_check_button_set_active (check_labelled (popover, "PM in RA (mas/yr)"), FALSE);
+  g_clear_pointer (&shown, g_free);
+  g_assert_cmpstr ((shown = shown_columns ()), ==,
+                   "designation|ra|dec|parallax|vmag|bmag|bv|dist|absmag|teff|lum|radius|spclass|sptype|vtan|flags");
+  PAINT (popover);
+  {
+    cairo_surface_t *picture = render_widget (popover);
+
+    save_png (picture, "gui-columns-chooser.png");
+    cairo_surface_destroy (picture);
+  }
+  gtk_popover_popdown (GTK_POPOVER (popover));
+
+  /* The setting shows its columns, in its order; unknown names are left
+   * out; the last column cannot be hidden. */
+  {
+    const char *const stored_names[] = { "teff", "no such column", "designation", "ebv", NULL };
+    const char *const alone[] = { "teff", NULL };
+
+    g_assert_true (g_settings_set_strv (settings, "catalogue-columns", stored_names));
+    g_clear_pointer (&shown, g_free);
+    g_assert_cmpstr ((shown = shown_columns ()), ==, "teff|designation|ebv");
+    g_assert_false (gtk_check_button_get_active (check_labelled (popover, "B (mag)")));
+    g_assert_true (gtk_check_button_get_active (check_labelled (popover, "E(B−V) (mag)")));
+    g_clear_pointer (&titles, g_free);
+    g_assert_cmpstr ((titles = header_titles ()), ==, "Teff (K)|Star|E(B−V) (mag)");
+    g_assert_true (g_settings_set_strv (settings, "catalogue-columns", alone));
+    g_assert_true (gtk_widget_activate_action (catalogue, "catalogue.toggle-column", "s", "teff"));
+    g_clear_pointer (&shown, g_free);
+    g_assert_cmpstr ((shown = shown_columns ()), ==, "teff");
+    g_assert_true (gtk_check_button_get_active (check_labelled (popover, "Teff (K)")));
+  }
+
+  /* Reset: the usual columns, shown and stored. */
+  g_assert_true (gtk_widget_activate_action (catalogue, "catalogue.reset-columns", NULL));
+  g_clear_pointer (&shown, g_free);
+  g_clear_pointer (&stored, g_free);
+  g_assert_cmpstr ((shown = shown_columns ()), ==, USUAL_COLUMNS);
+  g_assert_cmpstr ((stored = stored_columns (settings)), ==, USUAL_COLUMNS);
+  g_assert_cmpuint (catalogue_rows (), ==, rows);
+
+  /* A header dragged elsewhere (what the column view's drag does): the
+   * order is kept and stored. */
+  {
+    GtkWidget *table = find_descendant (catalogue, GTK_TYPE_COLUMN_VIEW);
+    g_autoptr (GtkColumnViewColumn) teff = g_list_model_get_item (gtk_column_view_get_columns (GTK_COLUMN_VIEW (table)), 8);
+
+    g_assert_cmpstr (gtk_column_view_column_get_title (teff), ==, "Teff (K)");
+    gtk_column_view_insert_column (GTK_COLUMN_VIEW (table), 1, teff);
+    WAIT_UNTIL (shown_columns_start_with ("designation|teff|ra|"), FRAME_TIMEOUT_S, "the new order");
+    g_clear_pointer (&stored, g_free);
+    g_assert_cmpstr ((stored = stored_columns (settings)), ==,
+                     "designation|teff|ra|dec|parallax|vmag|bv|dist|absmag|lum|radius|spclass|sptype|flags");
+  }
+  g_assert_true (gtk_widget_activate_action (catalogue, "catalogue.reset-columns", NULL));
+  g_clear_pointer (&shown, g_free);
+  g_assert_cmpstr ((shown = shown_columns ()), ==, USUAL_COLUMNS);
+
+  /* Sorted by a column: showing another keeps the order; hiding the
+   * sorted one goes back to the order the stars entered the project. */
+  {
+    GtkWidget *table = find_descendant (catalogue, GTK_TYPE_COLUMN_VIEW);
+    g_autoptr (GtkColumnViewColumn) teff = g_list_model_get_item (gtk_column_view_get_columns (GTK_COLUMN_VIEW (table)), 8);
+    g_autofree char *path = demo_path ();
+    g_autoptr (GError) error = NULL;
+    g_autoptr (SlProject) project = sl_project_open (path, &error);
+    g_autofree char *hottest = sl_test_query_text (sl_project_db (project), "SELECT s.designation FROM stars s JOIN derived d "
+                                                   "ON d.star_id = s.id ORDER BY d.teff DESC NULLS LAST, s.id LIMIT 1");
+    g_autofree char *first = sl_test_query_text (sl_project_db (project), "SELECT designation FROM stars ORDER BY id LIMIT 1");
+
+    g_assert_no_error (error);
+    g_assert_cmpstr (hottest, !=, first);
+    gtk_column_view_sort_by_column (GTK_COLUMN_VIEW (table), teff, GTK_SORT_DESCENDING);
+    WAIT_UNTIL (first_row_is (hottest), LOAD_TIMEOUT_S, "the table sorted by temperature");
+    g_assert_true (gtk_widget_activate_action (catalogue, "catalogue.toggle-column", "s", "elat"));
+    g_assert_true (first_row_is (hottest));
+    g_assert_true (gtk_widget_activate_action (catalogue, "catalogue.toggle-column", "s", "teff"));
+    WAIT_UNTIL (first_row_is (first), LOAD_TIMEOUT_S, "the table in the stars' order");
+    g_assert_true (gtk_widget_activate_action (catalogue, "catalogue.reset-columns", NULL));
+    g_assert_true (first_row_is (first));
+  }
+}
+
 int
 main (int argc, char **argv)
 {
@@ -2591,6 +2865,7 @@ main (int argc, char **argv)
   g_test_add_func ("/gui/lists/members", test_lists_members);
   g_test_add_func ("/gui/lists/new-dialog", test_lists_new_dialog);
   g_test_add_func ("/gui/lists/export-delete", test_lists_export_delete);
+  g_test_add_func ("/gui/catalogue/columns", test_catalogue_columns);
   status = g_test_run ();
 
   if (demo)

@@ -1,43 +1,56 @@
 /* sl-catalogue-model.c: the Catalogue's list model: the star ids in display
- * order, and rows read a page at a time into a small cache.
+ * order, and rows read a page at a time into a small cache, with the
+ * shown columns only.
  *
  * Contents:
- *   the inputs in SQL ...... the choice inputs.c makes, as SQL joins
+ *   the columns in SQL ..... the choice inputs.c makes, as SQL joins; the
+ *                            page query built from the shown columns
  *   the order .............. query_order: the star ids sorted in SQL
  *   pages .................. load_page, get_page, the LRU cache, check_state
  *   GListModel ............. get_item_type, get_n_items, get_item
- *   the project ............ set_project, set_list, reload, sort (and async), find
+ *   the project ............ set_project, set_list, set_columns, reload, sort
+ *                            (and async), find
  */
 #include "sl-catalogue-model.h"
 
 #include <glib/gi18n.h>
 #include <math.h>
+#include <string.h>
 
 #include "derivation.h"
+#include "inputs.h"
 #include "sl-error.h"
 
 /* ------------------------------------------------------------------ */
-/* The inputs in SQL                                                  */
+/* The columns in SQL                                                 */
 
-/* The measurements row a group of inputs comes from, chosen as inputs.c
+/* The measurements row a group of inputs comes from (inputs.h: the
+ * fields chosen together, sl_input_group_lead), chosen as inputs.c
  * chooses it: among the star's rows that have the group's lead field, a
  * row with an error beats one without, the smaller error wins, and a tie
  * goes to the later source.  For the position the error is
  * hypot (ra_err, dec_err), compared here as its square.  (inputs.c
  * compares ra_err alone when only one of two rows has a dec_err; no
- * single sort key can say that, so for such a star the two may differ.) */
-#define CHOSEN_ROW(lead, key)                                                          \
-  "(SELECT m.id FROM measurements m WHERE m.star_id = s.id AND m." lead " IS NOT NULL" \
-  " ORDER BY " key ", m.source_id DESC LIMIT 1)"
+ * single sort key can say that, so for such a star the two may differ.)
+ * Joined as "m_LEAD", once for all the shown columns of the group. */
+static void
+append_input_join (GString *sql, SlField lead)
+{
+  const char *name = sl_field_info (lead)->name;
+  const char *error = sl_field_info (sl_field_info (lead)->error)->name;
 
-#define JOIN_POSITION                                       \
-  " LEFT JOIN measurements mp ON mp.id = "                  \
-  CHOSEN_ROW ("ra", "m.ra_err IS NULL,"                     \
-              " m.ra_err * m.ra_err + coalesce (m.dec_err * m.dec_err, 0)")
-#define JOIN_PARALLAX \
-  " LEFT JOIN measurements mx ON mx.id = " CHOSEN_ROW ("parallax", "m.parallax_err IS NULL, m.parallax_err")
-#define JOIN_VMAG " LEFT JOIN measurements mv ON mv.id = " CHOSEN_ROW ("vmag", "m.vmag_err IS NULL, m.vmag_err")
-#define JOIN_BV   " LEFT JOIN measurements mb ON mb.id = " CHOSEN_ROW ("bv", "m.bv_err IS NULL, m.bv_err")
+  g_assert (sl_field_info (lead)->error != SL_FIELD_NONE);
+  g_string_append_printf (sql, " LEFT JOIN measurements m_%s ON m_%s.id ="
+                               " (SELECT m.id FROM measurements m WHERE m.star_id = s.id AND m.%s IS NOT NULL"
+                               " ORDER BY m.%s IS NULL, ",
+                          name, name, name, error);
+  if (lead == SL_FIELD_RA)
+    g_string_append (sql, "m.ra_err * m.ra_err + coalesce (m.dec_err * m.dec_err, 0)");
+  else
+    g_string_append_printf (sql, "m.%s", error);
+  g_string_append (sql, ", m.source_id DESC LIMIT 1)");
+}
+
 #define JOIN_DERIVED " LEFT JOIN derived d ON d.star_id = s.id"
 
 /* The spectral type is the later source's. */
@@ -45,57 +58,142 @@
   "(SELECT m.sptype FROM measurements m WHERE m.star_id = s.id AND m.sptype IS NOT NULL" \
   " ORDER BY m.source_id DESC LIMIT 1)"
 
-/* A page's inputs: result columns, then the ids bound as ?1 ... ?PAGE_ROWS. */
-enum {
-  IN_ID, IN_DESIGNATION, IN_RA, IN_DEC, IN_PARALLAX, IN_PARALLAX_ERR, IN_VMAG, IN_VMAG_ERR, IN_BV, IN_BV_ERR,
-  IN_SPTYPE
-};
-
-#define INPUTS_SQL                                                                                     \
-  "SELECT s.id, s.designation, mp.ra, mp.dec, mx.parallax, mx.parallax_err, mv.vmag, mv.vmag_err,"     \
-  " mb.bv, mb.bv_err, " SPTYPE_SQL " FROM stars s" JOIN_POSITION JOIN_PARALLAX JOIN_VMAG JOIN_BV
-
-/* The derived quantity each derived column shows. */
-static const struct {
-  SlCatalogueColumn column;
-  SlQuantity        quantity;
-} derived_columns[] = {
-  { SL_CATALOGUE_COLUMN_DIST, SL_Q_DIST },
-  { SL_CATALOGUE_COLUMN_ABSMAG, SL_Q_ABSMAG },
-  { SL_CATALOGUE_COLUMN_TEFF, SL_Q_TEFF },
-  { SL_CATALOGUE_COLUMN_LUM, SL_Q_LUM },
-  { SL_CATALOGUE_COLUMN_RADIUS, SL_Q_RADIUS },
-  { SL_CATALOGUE_COLUMN_SPCLASS, SL_Q_SPCLASS },
-};
-
-/* What the order by each column joins to stars s, and the key. */
-static const struct {
-  const char *joins;
-  const char *key;          /* NULL: d.<the quantity's name> */
-} sort_keys[SL_CATALOGUE_N_COLUMNS] = {
-  [SL_CATALOGUE_COLUMN_DESIGNATION] = { "", "s.designation" },
-  [SL_CATALOGUE_COLUMN_RA] = { JOIN_POSITION, "mp.ra" },
-  [SL_CATALOGUE_COLUMN_DEC] = { JOIN_POSITION, "mp.dec" },
-  [SL_CATALOGUE_COLUMN_PARALLAX] = { JOIN_PARALLAX, "mx.parallax" },
-  [SL_CATALOGUE_COLUMN_VMAG] = { JOIN_VMAG, "mv.vmag" },
-  [SL_CATALOGUE_COLUMN_BV] = { JOIN_BV, "mb.bv" },
-  [SL_CATALOGUE_COLUMN_DIST] = { JOIN_DERIVED, NULL },
-  [SL_CATALOGUE_COLUMN_ABSMAG] = { JOIN_DERIVED, NULL },
-  [SL_CATALOGUE_COLUMN_TEFF] = { JOIN_DERIVED, NULL },
-  [SL_CATALOGUE_COLUMN_LUM] = { JOIN_DERIVED, NULL },
-  [SL_CATALOGUE_COLUMN_RADIUS] = { JOIN_DERIVED, NULL },
-  [SL_CATALOGUE_COLUMN_SPCLASS] = { JOIN_DERIVED, NULL },
-  [SL_CATALOGUE_COLUMN_SPTYPE] = { "", SPTYPE_SQL },
-  [SL_CATALOGUE_COLUMN_FLAGS] = { JOIN_DERIVED, "d.flags" },
-};
-
-static SlQuantity
-quantity_of_column (SlCatalogueColumn column)
+/* Whether COLUMN is an input chosen with its group's measurements row
+ * (the spectral type is chosen on its own). */
+static gboolean
+is_grouped_input (SlCatalogueColumn column)
 {
-  for (gsize i = 0; i < G_N_ELEMENTS (derived_columns); i++)
-    if (derived_columns[i].column == column)
-      return derived_columns[i].quantity;
-  return SL_Q_NONE;
+  SlField field = sl_catalogue_column_info (column)->field;
+
+  return field != SL_FIELD_NONE && field != SL_FIELD_SPTYPE;
+}
+
+/* What the SQL of a page or an order needs joined to stars s. */
+typedef struct {
+  gboolean leads[SL_N_FIELDS];   /* the input groups, by lead field */
+  gboolean derived;
+} Joins;
+
+static void
+joins_add (Joins *joins, SlCatalogueColumn column)
+{
+  const SlCatalogueColumnInfo *info = sl_catalogue_column_info (column);
+
+  if (is_grouped_input (column))
+    joins->leads[sl_input_group_lead (info->field)] = TRUE;
+  else if (info->quantity != SL_Q_NONE || info->kind == SL_CATALOGUE_KIND_FLAGS)
+    joins->derived = TRUE;
+}
+
+static void
+append_joins (GString *sql, const Joins *joins)
+{
+  for (SlField f = 0; f < SL_N_FIELDS; f++)
+    if (joins->leads[f])
+      append_input_join (sql, f);
+  if (joins->derived)
+    g_string_append (sql, JOIN_DERIVED);
+}
+
+/* The SQL of COLUMN's value (its sort key). */
+static char *
+column_key_sql (SlCatalogueColumn column)
+{
+  const SlCatalogueColumnInfo *info = sl_catalogue_column_info (column);
+
+  if (is_grouped_input (column))
+    return g_strdup_printf ("m_%s.%s", sl_field_info (sl_input_group_lead (info->field))->name,
+                            sl_field_info (info->field)->name);
+  if (info->field == SL_FIELD_SPTYPE)
+    return g_strdup (SPTYPE_SQL);
+  if (info->quantity != SL_Q_NONE)
+    return g_strdup_printf ("d.%s", sl_quantity_info (info->quantity)->name);
+  if (info->kind == SL_CATALOGUE_KIND_FLAGS)
+    return g_strdup ("d.flags");
+  return g_strdup ("s.designation");
+}
+
+/* How a page's result columns fill a shown column. */
+typedef enum {
+  FETCH_TEXT,          /* text */
+  FETCH_VALUE,         /* a measured value without an error */
+  FETCH_VALUE_ERROR,   /* a measured value, its error: interval value -/+ error */
+  FETCH_INTERVAL,      /* a derived value, lo, hi */
+  FETCH_FLAGS,         /* has a derived row, stale, flags */
+} FetchKind;
+
+typedef struct {
+  SlCatalogueColumn column;
+  FetchKind         kind;
+  int               first;   /* its first result column */
+} Fetch;
+
+/* The page query for the SHOWN columns: s.id, s.designation, then each
+ * shown column's result columns (recorded in FETCH, *N_FETCH set), for the
+ * ids bound as ?1 ... ?PAGE_ROWS, in id order.  Hidden columns cost
+ * nothing: neither joined nor read. */
+static char *
+page_sql (const SlCatalogueColumn *shown, guint n_shown, Fetch *fetch, guint *n_fetch)
+{
+  g_autoptr (GString) sql = g_string_new ("SELECT s.id, s.designation");
+  Joins joins = { { 0 }, FALSE };
+  int next = 2;
+
+  *n_fetch = 0;
+  for (guint i = 0; i < n_shown; i++)
+    {
+      SlCatalogueColumn column = shown[i];
+      const SlCatalogueColumnInfo *info = sl_catalogue_column_info (column);
+      g_autofree char *key = column_key_sql (column);
+      Fetch *f = &fetch[*n_fetch];
+
+      if (column == SL_CATALOGUE_COLUMN_DESIGNATION)
+        continue;   /* always read: the selection is kept by name */
+      f->column = column;
+      f->first = next;
+      joins_add (&joins, column);
+      if (info->kind == SL_CATALOGUE_KIND_FLAGS)
+        {
+          f->kind = FETCH_FLAGS;
+          g_string_append (sql, ", d.star_id IS NOT NULL, d.stale, d.flags");
+          next += 3;
+        }
+      else if (info->kind == SL_CATALOGUE_KIND_TEXT)
+        {
+          f->kind = FETCH_TEXT;
+          g_string_append_printf (sql, ", %s", key);
+          next += 1;
+        }
+      else if (info->quantity != SL_Q_NONE)
+        {
+          f->kind = FETCH_INTERVAL;
+          g_string_append_printf (sql, ", %s, %s_lo, %s_hi", key, key, key);
+          next += 3;
+        }
+      else if (sl_field_info (info->field)->error != SL_FIELD_NONE && info->kind == SL_CATALOGUE_KIND_NUMBER)
+        {
+          /* RA and Dec have errors too, in mas on the sky: a table in
+           * sexagesimal degrees shows the position alone. */
+          f->kind = FETCH_VALUE_ERROR;
+          g_string_append_printf (sql, ", %s, m_%s.%s", key, sl_field_info (sl_input_group_lead (info->field))->name,
+                                  sl_field_info (sl_field_info (info->field)->error)->name);
+          next += 2;
+        }
+      else
+        {
+          f->kind = FETCH_VALUE;
+          g_string_append_printf (sql, ", %s", key);
+          next += 1;
+        }
+      (*n_fetch)++;
+    }
+  g_string_append (sql, " FROM stars s");
+  append_joins (sql, &joins);
+  g_string_append (sql, " WHERE s.id IN (");
+  for (guint i = 1; i <= SL_CATALOGUE_MODEL_PAGE_ROWS; i++)
+    g_string_append_printf (sql, "%s?%u", i > 1 ? ", " : "", i);
+  g_string_append (sql, ") ORDER BY s.id");
+  return g_string_free (g_steal_pointer (&sql), FALSE);
 }
 
 /* ------------------------------------------------------------------ */
@@ -109,14 +207,17 @@ static char *
 order_sql (SlCatalogueColumn column, gboolean descending, gboolean in_list)
 {
   const char *where = in_list ? " WHERE s.id IN (" LIST_MEMBERS_SQL ")" : "";
+  g_autoptr (GString) joins = g_string_new (NULL);
   g_autofree char *key = NULL;
+  Joins needed = { { 0 }, FALSE };
 
   if (column == SL_CATALOGUE_COLUMN_NONE)
     return g_strdup_printf ("SELECT s.id FROM stars s%s ORDER BY s.id", where);
-  key = sort_keys[column].key ? g_strdup (sort_keys[column].key)
-                              : g_strdup_printf ("d.%s", sl_quantity_info (quantity_of_column (column))->name);
-  return g_strdup_printf ("SELECT s.id FROM stars s%s%s ORDER BY %s %s NULLS LAST, s.id", sort_keys[column].joins,
-                          where, key, descending ? "DESC" : "ASC");
+  key = column_key_sql (column);
+  joins_add (&needed, column);
+  append_joins (joins, &needed);
+  return g_strdup_printf ("SELECT s.id FROM stars s%s%s ORDER BY %s %s NULLS LAST, s.id", joins->str, where, key,
+                          descending ? "DESC" : "ASC");
 }
 
 static int
@@ -209,10 +310,15 @@ struct _SlCatalogueModel {
 
   char             *path;          /* the project, or NULL */
   SlProject        *project;       /* our read-only connection to it */
-  sqlite3_stmt     *inputs_stmt;   /* a page's inputs (INPUTS_SQL) */
-  sqlite3_stmt     *derived_stmt;  /* a page's derived rows */
+  sqlite3_stmt     *page_stmt;     /* a page's shown columns (page_sql) */
   sqlite3_stmt     *designation_stmt;  /* id -> designation */
   sqlite3_stmt     *id_stmt;       /* designation -> id */
+
+  SlCatalogueColumn shown[SL_CATALOGUE_N_COLUMNS];  /* the columns read, in the table's order */
+  guint             n_shown;
+  Fetch             fetch[SL_CATALOGUE_N_COLUMNS];  /* where page_stmt has them */
+  guint             n_fetch;
+  guint             pages_read;    /* page queries run, for tests */
 
   GArray           *ids;           /* gint64 star ids in display order; NULL without a project */
   SlCatalogueColumn sort_column;
@@ -283,43 +389,40 @@ drop_pages (SlCatalogueModel *self)
   self->n_pages = 0;
 }
 
-/* A measured value with its error as the interval value -/+ error. */
+/* Fills ROW's shown columns from the page query's current result row. */
 static void
-set_measured (SlCatalogueRow *row, SlCatalogueColumn column, sqlite3_stmt *stmt, int value_column)
+fill_row (SlCatalogueModel *self, SlCatalogueRow *row, sqlite3_stmt *stmt)
 {
-  double value = sl_column_double_or_nan (stmt, value_column), error = sl_column_double_or_nan (stmt, value_column + 1);
-
-  sl_catalogue_row_set_number (row, column, value, value - error, value + error);
-}
-
-static void
-fill_inputs (SlCatalogueRow *row, sqlite3_stmt *stmt)
-{
-  sl_catalogue_row_set_text (row, SL_CATALOGUE_COLUMN_DESIGNATION,
-                             (const char *) sqlite3_column_text (stmt, IN_DESIGNATION));
-  sl_catalogue_row_set_number (row, SL_CATALOGUE_COLUMN_RA, sl_column_double_or_nan (stmt, IN_RA), NAN, NAN);
-  sl_catalogue_row_set_number (row, SL_CATALOGUE_COLUMN_DEC, sl_column_double_or_nan (stmt, IN_DEC), NAN, NAN);
-  set_measured (row, SL_CATALOGUE_COLUMN_PARALLAX, stmt, IN_PARALLAX);
-  set_measured (row, SL_CATALOGUE_COLUMN_VMAG, stmt, IN_VMAG);
-  set_measured (row, SL_CATALOGUE_COLUMN_BV, stmt, IN_BV);
-  sl_catalogue_row_set_text (row, SL_CATALOGUE_COLUMN_SPTYPE, (const char *) sqlite3_column_text (stmt, IN_SPTYPE));
-}
-
-static void
-fill_derived (SlCatalogueRow *row, const SlDerivedRow *derived)
-{
-  const SlDerivedValues *v = &derived->values;
-
-  for (gsize i = 0; i < G_N_ELEMENTS (derived_columns); i++)
+  sl_catalogue_row_set_text (row, SL_CATALOGUE_COLUMN_DESIGNATION, (const char *) sqlite3_column_text (stmt, 1));
+  for (guint i = 0; i < self->n_fetch; i++)
     {
-      SlQuantity q = derived_columns[i].quantity;
+      const Fetch *f = &self->fetch[i];
+      double value = sl_column_double_or_nan (stmt, f->first), error;
 
-      if (sl_quantity_info (q)->is_text)
-        sl_catalogue_row_set_text (row, derived_columns[i].column, v->has[q] ? v->text[q] : NULL);
-      else if (v->has[q])
-        sl_catalogue_row_set_number (row, derived_columns[i].column, v->value[q], v->lo[q], v->hi[q]);
+      switch (f->kind)
+        {
+        case FETCH_TEXT:
+          sl_catalogue_row_set_text (row, f->column, (const char *) sqlite3_column_text (stmt, f->first));
+          break;
+        case FETCH_VALUE:
+          sl_catalogue_row_set_number (row, f->column, value, NAN, NAN);
+          break;
+        case FETCH_VALUE_ERROR:
+          error = sl_column_double_or_nan (stmt, f->first + 1);
+          sl_catalogue_row_set_number (row, f->column, value, value - error, value + error);
+          break;
+        case FETCH_INTERVAL:
+          sl_catalogue_row_set_number (row, f->column, value, sl_column_double_or_nan (stmt, f->first + 1),
+                                       sl_column_double_or_nan (stmt, f->first + 2));
+          break;
+        case FETCH_FLAGS:
+        default:
+          if (sqlite3_column_int (stmt, f->first))
+            sl_catalogue_row_set_flags (row, (guint32) sqlite3_column_int64 (stmt, f->first + 2),
+                                        sqlite3_column_int (stmt, f->first + 1));
+          break;
+        }
     }
-  sl_catalogue_row_set_flags (row, v->flags, derived->stale);
 }
 
 typedef struct {
@@ -340,7 +443,7 @@ compare_id_slots (gconstpointer a, gconstpointer b)
  * lists. */
 static gboolean
 read_page_rows (SlCatalogueModel *self, sqlite3_stmt *stmt, const IdSlot *by_id, guint n, Page *page,
-                gboolean derived, GError **error)
+                GError **error)
 {
   guint next = 0;
   int rc;
@@ -360,15 +463,7 @@ read_page_rows (SlCatalogueModel *self, sqlite3_stmt *stmt, const IdSlot *by_id,
         next++;
       if (next == n || by_id[next].id != id)
         continue;
-      if (derived)
-        {
-          SlDerivedRow row;
-
-          sl_derived_row_read (stmt, &row);
-          fill_derived (page->rows[by_id[next].slot], &row);
-        }
-      else
-        fill_inputs (page->rows[by_id[next].slot], stmt);
+      fill_row (self, page->rows[by_id[next].slot], stmt);
     }
   sqlite3_reset (stmt);   /* ends the read: the writer's checkpoints may proceed */
   if (rc != SQLITE_DONE)
@@ -379,8 +474,8 @@ read_page_rows (SlCatalogueModel *self, sqlite3_stmt *stmt, const IdSlot *by_id,
   return TRUE;
 }
 
-/* Fills PAGE with page INDEX: one query for the inputs, one for the
- * derived rows.  On an error the rows stay empty (said once). */
+/* Fills PAGE with page INDEX: one query for the shown columns.  On an
+ * error the rows stay empty (said once). */
 static void
 load_page (SlCatalogueModel *self, Page *page, guint index)
 {
@@ -399,9 +494,8 @@ load_page (SlCatalogueModel *self, Page *page, guint index)
     }
   qsort (by_id, page->n_rows, sizeof by_id[0], compare_id_slots);
 
-  if ((!read_page_rows (self, self->inputs_stmt, by_id, page->n_rows, page, FALSE, &error)
-       || !read_page_rows (self, self->derived_stmt, by_id, page->n_rows, page, TRUE, &error))
-      && !self->warned)
+  self->pages_read++;
+  if (!read_page_rows (self, self->page_stmt, by_id, page->n_rows, page, &error) && !self->warned)
     {
       g_warning ("the Catalogue cannot read rows: %s", error->message);
       self->warned = TRUE;
@@ -501,8 +595,7 @@ sl_catalogue_model_list_model_init (GListModelInterface *iface)
 static void
 close_project (SlCatalogueModel *self)
 {
-  g_clear_pointer (&self->inputs_stmt, sqlite3_finalize);
-  g_clear_pointer (&self->derived_stmt, sqlite3_finalize);
+  g_clear_pointer (&self->page_stmt, sqlite3_finalize);
   g_clear_pointer (&self->designation_stmt, sqlite3_finalize);
   g_clear_pointer (&self->id_stmt, sqlite3_finalize);
   g_clear_pointer (&self->project, sl_project_close);
@@ -510,35 +603,28 @@ close_project (SlCatalogueModel *self)
   self->warned = FALSE;
 }
 
-/* " IN (?1, ..., ?PAGE_ROWS) ORDER BY COLUMN" */
-static char *
-page_where_sql (const char *column)
+/* Prepares the page query for the shown columns. */
+static gboolean
+prepare_page (SlCatalogueModel *self, GError **error)
 {
-  GString *sql = g_string_new (NULL);
+  g_autofree char *sql = page_sql (self->shown, self->n_shown, self->fetch, &self->n_fetch);
+  sqlite3_stmt *stmt = sl_project_prepare (self->project, sql, error);
 
-  g_string_append_printf (sql, " WHERE %s IN (", column);
-  for (guint i = 1; i <= SL_CATALOGUE_MODEL_PAGE_ROWS; i++)
-    g_string_append_printf (sql, "%s?%u", i > 1 ? ", " : "", i);
-  g_string_append_printf (sql, ") ORDER BY %s", column);
-  return g_string_free (sql, FALSE);
+  if (stmt == NULL)
+    return FALSE;
+  g_clear_pointer (&self->page_stmt, sqlite3_finalize);
+  self->page_stmt = stmt;
+  return TRUE;
 }
 
 static gboolean
 open_project (SlCatalogueModel *self, const char *path, GError **error)
 {
-  g_autofree char *inputs_where = page_where_sql ("s.id");
-  g_autofree char *derived_where = page_where_sql ("star_id");
-  g_autofree char *inputs_sql = g_strconcat (INPUTS_SQL, inputs_where, NULL);
-  g_autofree char *derived_sql = sl_derived_select_sql (derived_where);
-
   self->project = open_reader (path, error);
   if (self->project == NULL)
     return FALSE;
   self->path = g_strdup (path);
-  self->inputs_stmt = sl_project_prepare (self->project, inputs_sql, error);
-  if (self->inputs_stmt)
-    self->derived_stmt = sl_project_prepare (self->project, derived_sql, error);
-  if (self->derived_stmt)
+  if (prepare_page (self, error))
     self->designation_stmt = sl_project_prepare (self->project, "SELECT designation FROM stars WHERE id = ?", error);
   if (self->designation_stmt)
     self->id_stmt = sl_project_prepare (self->project, "SELECT id FROM stars WHERE designation = ?", error);
@@ -589,6 +675,68 @@ sl_catalogue_model_get_path (SlCatalogueModel *self)
 {
   g_return_val_if_fail (SL_IS_CATALOGUE_MODEL (self), NULL);
   return self->path;
+}
+
+gboolean
+sl_catalogue_model_set_columns (SlCatalogueModel *self, const SlCatalogueColumn *columns, guint n_columns,
+                                GError **error)
+{
+  SlCatalogueColumn old[SL_CATALOGUE_N_COLUMNS];
+  guint old_n = self->n_shown, n = 0;
+  gboolean seen[SL_CATALOGUE_N_COLUMNS] = { FALSE };
+
+  g_return_val_if_fail (SL_IS_CATALOGUE_MODEL (self), FALSE);
+  g_return_val_if_fail (columns != NULL || n_columns == 0, FALSE);
+
+  memcpy (old, self->shown, sizeof old);
+  for (guint i = 0; i < n_columns; i++)
+    {
+      g_return_val_if_fail (columns[i] < SL_CATALOGUE_N_COLUMNS, FALSE);
+      if (!seen[columns[i]])
+        self->shown[n++] = columns[i];
+      seen[columns[i]] = TRUE;
+    }
+  self->n_shown = n;
+  if (self->project == NULL)
+    return TRUE;
+  if (!prepare_page (self, error))
+    {
+      memcpy (self->shown, old, sizeof old);
+      self->n_shown = old_n;
+      prepare_page (self, NULL);
+      return FALSE;
+    }
+  /* The rows held lack the new columns: the same order again, read anew. */
+  if (self->ids)
+    replace_ids (self, g_array_ref (self->ids));
+  return TRUE;
+}
+
+const SlCatalogueColumn *
+sl_catalogue_model_get_columns (SlCatalogueModel *self, guint *n_columns)
+{
+  g_return_val_if_fail (SL_IS_CATALOGUE_MODEL (self), NULL);
+
+  if (n_columns)
+    *n_columns = self->n_shown;
+  return self->shown;
+}
+
+guint
+sl_catalogue_model_get_pages_read (SlCatalogueModel *self)
+{
+  g_return_val_if_fail (SL_IS_CATALOGUE_MODEL (self), 0);
+  return self->pages_read;
+}
+
+char *
+sl_catalogue_model_get_page_sql (SlCatalogueModel *self)
+{
+  Fetch fetch[SL_CATALOGUE_N_COLUMNS];
+  guint n_fetch;
+
+  g_return_val_if_fail (SL_IS_CATALOGUE_MODEL (self), NULL);
+  return page_sql (self->shown, self->n_shown, fetch, &n_fetch);
 }
 
 gboolean
@@ -846,6 +994,9 @@ sl_catalogue_model_class_init (SlCatalogueModelClass *klass)
 static void
 sl_catalogue_model_init (SlCatalogueModel *self)
 {
+  const SlCatalogueColumn *usual = sl_catalogue_default_columns (&self->n_shown);
+
+  memcpy (self->shown, usual, self->n_shown * sizeof *usual);
   self->sort_column = SL_CATALOGUE_COLUMN_NONE;
 }
 

@@ -6,7 +6,9 @@
  * demand, a page of SL_CATALOGUE_MODEL_PAGE_ROWS at a time, keeping at
  * most SL_CATALOGUE_MODEL_MAX_PAGES pages (least recently used dropped).
  * Sorting replaces the id order and announces every item removed, then
- * every item added (two signals); rows are never re-sorted one by one.  The model reads through a connection
+ * every item added (two signals); rows are never re-sorted one by one.
+ * A page reads only the columns shown (one query built from them, joining
+ * only what they need), so a column costs nothing while it is hidden.  The model reads through a connection
  * of its own, made read-only; WAL lets it read while another connection
  * writes.
  */
@@ -36,6 +38,15 @@ const char *sl_catalogue_model_get_path  (SlCatalogueModel *self);
  * a list that does not exist (any longer) shows no stars. */
 void        sl_catalogue_model_set_list (SlCatalogueModel *self, const char *list);
 const char *sl_catalogue_model_get_list (SlCatalogueModel *self);
+
+/* The columns the rows are read with (the table's shown columns, in its
+ * order; duplicates dropped).  The default: sl_catalogue_default_columns.
+ * With a project, the rows held are dropped and announced as every row
+ * removed and added again (the same order).  A row's other columns are
+ * missing. */
+gboolean  sl_catalogue_model_set_columns (SlCatalogueModel *self, const SlCatalogueColumn *columns,
+                                          guint n_columns, GError **error);
+const SlCatalogueColumn *sl_catalogue_model_get_columns (SlCatalogueModel *self, guint *n_columns);
 
 /* Reads the stars again (after an import or a derivation), keeping the
  * order. */
@@ -70,5 +81,10 @@ char    **sl_catalogue_model_get_designations (SlCatalogueModel *self, const gui
 /* Rows held in the page cache (for tests): at most
  * SL_CATALOGUE_MODEL_PAGE_ROWS * SL_CATALOGUE_MODEL_MAX_PAGES. */
 guint     sl_catalogue_model_get_cached_rows (SlCatalogueModel *self);
+
+/* For tests: page queries run so far, and the SQL of the page query for
+ * the shown columns (a new string). */
+guint     sl_catalogue_model_get_pages_read (SlCatalogueModel *self);
+char     *sl_catalogue_model_get_page_sql (SlCatalogueModel *self);
 
 G_END_DECLS

@@ -10,22 +10,63 @@
 #include "rounding.h"
 #include "units.h"
 
-/* Widths fit a typical value with an asymmetric interval. */
+#define M SL_CATALOGUE_GROUP_MEASURED
+#define D SL_CATALOGUE_GROUP_DERIVED
+#define NUMBER SL_CATALOGUE_KIND_NUMBER
+#define NO_FIELD SL_FIELD_NONE
+#define NO_QUANTITY SL_Q_NONE
+
+/* Widths fit a typical value with an asymmetric interval.  Titles say the
+ * unit; a test checks that every input field and derived quantity has its
+ * column here. */
 static const SlCatalogueColumnInfo column_table[SL_CATALOGUE_N_COLUMNS] = {
-  [SL_CATALOGUE_COLUMN_DESIGNATION] = { NULL, N_("Star"), SL_CATALOGUE_KIND_TEXT, 100 },
-  [SL_CATALOGUE_COLUMN_RA] = { "ra", N_("RA"), SL_CATALOGUE_KIND_RA, 100 },
-  [SL_CATALOGUE_COLUMN_DEC] = { "dec", N_("Dec"), SL_CATALOGUE_KIND_DEC, 100 },
-  [SL_CATALOGUE_COLUMN_PARALLAX] = { "parallax", N_("Parallax (mas)"), SL_CATALOGUE_KIND_NUMBER, 130 },
-  [SL_CATALOGUE_COLUMN_VMAG] = { "vmag", N_("V (mag)"), SL_CATALOGUE_KIND_NUMBER, 115 },
-  [SL_CATALOGUE_COLUMN_BV] = { "bv", N_("B−V (mag)"), SL_CATALOGUE_KIND_NUMBER, 115 },
-  [SL_CATALOGUE_COLUMN_DIST] = { "dist", N_("Distance (pc)"), SL_CATALOGUE_KIND_NUMBER, 140 },
-  [SL_CATALOGUE_COLUMN_ABSMAG] = { "absmag", N_("Abs. V (mag)"), SL_CATALOGUE_KIND_NUMBER, 125 },
-  [SL_CATALOGUE_COLUMN_TEFF] = { "teff", N_("Teff (K)"), SL_CATALOGUE_KIND_NUMBER, 115 },
-  [SL_CATALOGUE_COLUMN_LUM] = { "lum", N_("L (L☉)"), SL_CATALOGUE_KIND_NUMBER, 150 },
-  [SL_CATALOGUE_COLUMN_RADIUS] = { "radius", N_("R (R☉)"), SL_CATALOGUE_KIND_NUMBER, 150 },
-  [SL_CATALOGUE_COLUMN_SPCLASS] = { "spclass", N_("Class"), SL_CATALOGUE_KIND_TEXT, 60 },
-  [SL_CATALOGUE_COLUMN_SPTYPE] = { "sptype", N_("Type"), SL_CATALOGUE_KIND_TEXT, 80 },
-  [SL_CATALOGUE_COLUMN_FLAGS] = { NULL, N_("Flags"), SL_CATALOGUE_KIND_FLAGS, 60 },
+  [SL_CATALOGUE_COLUMN_DESIGNATION] = { "designation", N_("Star"), SL_CATALOGUE_KIND_TEXT, 100, M, NO_FIELD, NO_QUANTITY },
+  [SL_CATALOGUE_COLUMN_RA] = { "ra", N_("RA"), SL_CATALOGUE_KIND_RA, 100, M, SL_FIELD_RA, NO_QUANTITY },
+  [SL_CATALOGUE_COLUMN_DEC] = { "dec", N_("Dec"), SL_CATALOGUE_KIND_DEC, 100, M, SL_FIELD_DEC, NO_QUANTITY },
+  [SL_CATALOGUE_COLUMN_EPOCH] = { "epoch", N_("Epoch (yr)"), NUMBER, 90, M, SL_FIELD_EPOCH, NO_QUANTITY },
+  [SL_CATALOGUE_COLUMN_PARALLAX] = { "parallax", N_("Parallax (mas)"), NUMBER, 130, M, SL_FIELD_PARALLAX, NO_QUANTITY },
+  [SL_CATALOGUE_COLUMN_PMRA] = { "pmra", N_("PM in RA (mas/yr)"), NUMBER, 140, M, SL_FIELD_PMRA, NO_QUANTITY },
+  [SL_CATALOGUE_COLUMN_PMDEC] = { "pmdec", N_("PM in Dec (mas/yr)"), NUMBER, 140, M, SL_FIELD_PMDEC, NO_QUANTITY },
+  [SL_CATALOGUE_COLUMN_VMAG] = { "vmag", N_("V (mag)"), NUMBER, 115, M, SL_FIELD_VMAG, NO_QUANTITY },
+  [SL_CATALOGUE_COLUMN_BMAG] = { "bmag", N_("B (mag)"), NUMBER, 115, M, SL_FIELD_BMAG, NO_QUANTITY },
+  [SL_CATALOGUE_COLUMN_BV] = { "bv", N_("B−V (mag)"), NUMBER, 115, M, SL_FIELD_BV, NO_QUANTITY },
+  [SL_CATALOGUE_COLUMN_EBV] = { "ebv", N_("E(B−V) (mag)"), NUMBER, 115, M, SL_FIELD_EBV, NO_QUANTITY },
+  [SL_CATALOGUE_COLUMN_VRAD] = { "vrad", N_("Radial velocity (km/s)"), NUMBER, 150, M, SL_FIELD_VRAD, NO_QUANTITY },
+  [SL_CATALOGUE_COLUMN_SPTYPE] = { "sptype", N_("Type"), SL_CATALOGUE_KIND_TEXT, 80, M, SL_FIELD_SPTYPE, NO_QUANTITY },
+  [SL_CATALOGUE_COLUMN_PLX_SNR] = { "plx_snr", N_("Parallax S/N"), NUMBER, 110, D, NO_FIELD, SL_Q_PLX_SNR },
+  [SL_CATALOGUE_COLUMN_DIST] = { "dist", N_("Distance (pc)"), NUMBER, 140, D, NO_FIELD, SL_Q_DIST },
+  [SL_CATALOGUE_COLUMN_DISTMOD] = { "distmod", N_("Distance modulus (mag)"), NUMBER, 160, D, NO_FIELD, SL_Q_DISTMOD },
+  [SL_CATALOGUE_COLUMN_AV] = { "av", N_("Extinction in V (mag)"), NUMBER, 150, D, NO_FIELD, SL_Q_AV },
+  [SL_CATALOGUE_COLUMN_BV0] = { "bv0", N_("(B−V)₀ (mag)"), NUMBER, 125, D, NO_FIELD, SL_Q_BV0 },
+  [SL_CATALOGUE_COLUMN_ABSMAG] = { "absmag", N_("Abs. V (mag)"), NUMBER, 125, D, NO_FIELD, SL_Q_ABSMAG },
+  [SL_CATALOGUE_COLUMN_TEFF] = { "teff", N_("Teff (K)"), NUMBER, 115, D, NO_FIELD, SL_Q_TEFF },
+  [SL_CATALOGUE_COLUMN_BC] = { "bc", N_("Bol. correction (mag)"), NUMBER, 150, D, NO_FIELD, SL_Q_BC },
+  [SL_CATALOGUE_COLUMN_MBOL] = { "mbol", N_("Abs. bol. (mag)"), NUMBER, 125, D, NO_FIELD, SL_Q_MBOL },
+  [SL_CATALOGUE_COLUMN_LUM] = { "lum", N_("L (L☉)"), NUMBER, 150, D, NO_FIELD, SL_Q_LUM },
+  [SL_CATALOGUE_COLUMN_RADIUS] = { "radius", N_("R (R☉)"), NUMBER, 150, D, NO_FIELD, SL_Q_RADIUS },
+  [SL_CATALOGUE_COLUMN_VTAN] = { "vtan", N_("Tangential velocity (km/s)"), NUMBER, 170, D, NO_FIELD, SL_Q_VTAN },
+  [SL_CATALOGUE_COLUMN_ELON] = { "elon", N_("Ecl. longitude (°)"), NUMBER, 140, D, NO_FIELD, SL_Q_ELON },
+  [SL_CATALOGUE_COLUMN_ELAT] = { "elat", N_("Ecl. latitude (°)"), NUMBER, 140, D, NO_FIELD, SL_Q_ELAT },
+  [SL_CATALOGUE_COLUMN_ELLIPSE_A] = { "ellipse_a", N_("Ellipse major (mas)"), NUMBER, 140, D, NO_FIELD, SL_Q_ELLIPSE_A },
+  [SL_CATALOGUE_COLUMN_ELLIPSE_B] = { "ellipse_b", N_("Ellipse minor (mas)"), NUMBER, 140, D, NO_FIELD, SL_Q_ELLIPSE_B },
+  [SL_CATALOGUE_COLUMN_ELLIPSE_PA] = { "ellipse_pa", N_("Ellipse angle (°)"), NUMBER, 130, D, NO_FIELD, SL_Q_ELLIPSE_PA },
+  [SL_CATALOGUE_COLUMN_SPCLASS] = { "spclass", N_("Class"), SL_CATALOGUE_KIND_TEXT, 60, D, NO_FIELD, SL_Q_SPCLASS },
+  [SL_CATALOGUE_COLUMN_FLAGS] = { "flags", N_("Flags"), SL_CATALOGUE_KIND_FLAGS, 60, D, NO_FIELD, NO_QUANTITY },
+};
+
+#undef M
+#undef D
+#undef NUMBER
+#undef NO_FIELD
+#undef NO_QUANTITY
+
+/* The table as it first opened: what a reset brings back. */
+static const SlCatalogueColumn default_columns[] = {
+  SL_CATALOGUE_COLUMN_DESIGNATION, SL_CATALOGUE_COLUMN_RA, SL_CATALOGUE_COLUMN_DEC,
+  SL_CATALOGUE_COLUMN_PARALLAX, SL_CATALOGUE_COLUMN_VMAG, SL_CATALOGUE_COLUMN_BV,
+  SL_CATALOGUE_COLUMN_DIST, SL_CATALOGUE_COLUMN_ABSMAG, SL_CATALOGUE_COLUMN_TEFF,
+  SL_CATALOGUE_COLUMN_LUM, SL_CATALOGUE_COLUMN_RADIUS, SL_CATALOGUE_COLUMN_SPCLASS,
+  SL_CATALOGUE_COLUMN_SPTYPE, SL_CATALOGUE_COLUMN_FLAGS,
 };
 
 const SlCatalogueColumnInfo *
@@ -33,6 +74,44 @@ sl_catalogue_column_info (SlCatalogueColumn column)
 {
   g_return_val_if_fail (column < SL_CATALOGUE_N_COLUMNS, NULL);
   return &column_table[column];
+}
+
+gboolean
+sl_catalogue_column_from_name (const char *name, SlCatalogueColumn *column)
+{
+  g_return_val_if_fail (name != NULL, FALSE);
+
+  for (SlCatalogueColumn c = 0; c < SL_CATALOGUE_N_COLUMNS; c++)
+    if (strcmp (column_table[c].name, name) == 0)
+      {
+        if (column)
+          *column = c;
+        return TRUE;
+      }
+  return FALSE;
+}
+
+const char *
+sl_catalogue_column_describe (SlCatalogueColumn column)
+{
+  const SlCatalogueColumnInfo *info = sl_catalogue_column_info (column);
+
+  g_return_val_if_fail (info != NULL, NULL);
+  if (info->field != SL_FIELD_NONE)
+    return _(sl_field_info (info->field)->description);
+  if (info->quantity != SL_Q_NONE)
+    return _(sl_quantity_info (info->quantity)->description);
+  if (info->kind == SL_CATALOGUE_KIND_FLAGS)
+    return _("what a reader of the values must know, as icons; hover for the explanations");
+  return _(sl_field_info (SL_FIELD_ID)->description);
+}
+
+const SlCatalogueColumn *
+sl_catalogue_default_columns (guint *n_columns)
+{
+  if (n_columns)
+    *n_columns = G_N_ELEMENTS (default_columns);
+  return default_columns;
 }
 
 /* Appends TEXT with each '-' as U+2212 MINUS SIGN. */

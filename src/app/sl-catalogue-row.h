@@ -1,28 +1,53 @@
 /* sl-catalogue-row.h: one star as the Catalogue shows it: its designation,
  * the inputs chosen among its measurements, its derived values with their
- * intervals, and its flags.  The columns of the table are listed here, with
- * how each is formatted; SlCatalogueModel fills the rows from the project. */
+ * intervals, and its flags.  Every column the table can show is listed
+ * here, with where its values come from and how each is formatted;
+ * SlCatalogueModel fills the rows' shown columns from the project. */
 #pragma once
 
 #include <glib-object.h>
 
+#include "derive/derive.h"
+#include "vocabulary.h"
+
 G_BEGIN_DECLS
 
-/* The Catalogue's columns, in display order. */
+/* Every column the Catalogue can show, in the column chooser's order:
+ * the measured inputs (input fields of vocabulary.h), then the derived
+ * quantities (derive.h) and the flags.  Which of them the table shows, and
+ * in which order, is the user's choice (sl_catalogue_view_set_columns). */
 typedef enum {
   SL_CATALOGUE_COLUMN_DESIGNATION,
   SL_CATALOGUE_COLUMN_RA,          /* deg, shown in sexagesimal hours */
   SL_CATALOGUE_COLUMN_DEC,         /* deg, shown in sexagesimal degrees */
-  SL_CATALOGUE_COLUMN_PARALLAX,    /* mas, interval: +/- its error */
-  SL_CATALOGUE_COLUMN_VMAG,        /* mag, interval: +/- its error */
-  SL_CATALOGUE_COLUMN_BV,          /* mag, interval: +/- its error */
-  SL_CATALOGUE_COLUMN_DIST,        /* pc, derived */
-  SL_CATALOGUE_COLUMN_ABSMAG,      /* mag, derived */
-  SL_CATALOGUE_COLUMN_TEFF,        /* K, derived */
-  SL_CATALOGUE_COLUMN_LUM,         /* L_sun, derived */
-  SL_CATALOGUE_COLUMN_RADIUS,      /* R_sun, derived */
-  SL_CATALOGUE_COLUMN_SPCLASS,     /* text, derived */
+  SL_CATALOGUE_COLUMN_EPOCH,       /* Julian year, no interval */
+  SL_CATALOGUE_COLUMN_PARALLAX,    /* mas; measured columns: interval +/- the error */
+  SL_CATALOGUE_COLUMN_PMRA,        /* mas/yr (times cos Dec) */
+  SL_CATALOGUE_COLUMN_PMDEC,       /* mas/yr */
+  SL_CATALOGUE_COLUMN_VMAG,        /* mag */
+  SL_CATALOGUE_COLUMN_BMAG,        /* mag */
+  SL_CATALOGUE_COLUMN_BV,          /* mag */
+  SL_CATALOGUE_COLUMN_EBV,         /* mag */
+  SL_CATALOGUE_COLUMN_VRAD,        /* km/s */
   SL_CATALOGUE_COLUMN_SPTYPE,      /* text, catalogued */
+  SL_CATALOGUE_COLUMN_PLX_SNR,     /* derived columns: the 68% interval */
+  SL_CATALOGUE_COLUMN_DIST,        /* pc */
+  SL_CATALOGUE_COLUMN_DISTMOD,     /* mag */
+  SL_CATALOGUE_COLUMN_AV,          /* mag */
+  SL_CATALOGUE_COLUMN_BV0,         /* mag */
+  SL_CATALOGUE_COLUMN_ABSMAG,      /* mag */
+  SL_CATALOGUE_COLUMN_TEFF,        /* K */
+  SL_CATALOGUE_COLUMN_BC,          /* mag */
+  SL_CATALOGUE_COLUMN_MBOL,        /* mag */
+  SL_CATALOGUE_COLUMN_LUM,         /* L_sun */
+  SL_CATALOGUE_COLUMN_RADIUS,      /* R_sun */
+  SL_CATALOGUE_COLUMN_VTAN,        /* km/s */
+  SL_CATALOGUE_COLUMN_ELON,        /* deg */
+  SL_CATALOGUE_COLUMN_ELAT,        /* deg */
+  SL_CATALOGUE_COLUMN_ELLIPSE_A,   /* mas */
+  SL_CATALOGUE_COLUMN_ELLIPSE_B,   /* mas */
+  SL_CATALOGUE_COLUMN_ELLIPSE_PA,  /* deg */
+  SL_CATALOGUE_COLUMN_SPCLASS,     /* text, derived */
   SL_CATALOGUE_COLUMN_FLAGS,       /* SlFlag bits */
   SL_CATALOGUE_N_COLUMNS
 } SlCatalogueColumn;
@@ -38,15 +63,35 @@ typedef enum {
   SL_CATALOGUE_KIND_FLAGS,
 } SlCatalogueKind;
 
+/* The chooser's two groups. */
+typedef enum {
+  SL_CATALOGUE_GROUP_MEASURED,     /* the star's name and its chosen inputs */
+  SL_CATALOGUE_GROUP_DERIVED,      /* the derivation's values and flags */
+} SlCatalogueGroup;
+
 typedef struct {
-  const char     *name;      /* vocabulary name (input field or derived quantity): what
-                              * explain shows for a click on the cell; NULL: none */
-  const char     *title;     /* column header with the unit, marked N_() */
-  SlCatalogueKind kind;
-  int             width;     /* initial width, px */
+  const char      *name;      /* the column's name in settings and actions: the
+                               * vocabulary name of its input field or derived
+                               * quantity, else "designation" or "flags" */
+  const char      *title;     /* column header with the unit, marked N_() */
+  SlCatalogueKind  kind;
+  int              width;     /* initial width, px */
+  SlCatalogueGroup group;
+  SlField          field;     /* the input field shown, or SL_FIELD_NONE */
+  SlQuantity       quantity;  /* the derived quantity shown, or SL_Q_NONE */
 } SlCatalogueColumnInfo;
 
 const SlCatalogueColumnInfo *sl_catalogue_column_info (SlCatalogueColumn column);
+
+/* The column named NAME (SlCatalogueColumnInfo.name, exactly). */
+gboolean sl_catalogue_column_from_name (const char *name, SlCatalogueColumn *column);
+
+/* A line on what the column holds, for the chooser's tooltips: the
+ * vocabulary's or the registry's description (translated). */
+const char *sl_catalogue_column_describe (SlCatalogueColumn column);
+
+/* The usual columns, in their order: the table's default (*N_COLUMNS set). */
+const SlCatalogueColumn *sl_catalogue_default_columns (guint *n_columns);
 
 /* What a cell shows for VALUE with the 68% interval [LO, HI] (NAN: none)
  * in a column of KIND: "12.34 ± 0.05", "1.23 +0.10/−0.08" (rounded to the

@@ -7,6 +7,8 @@
  *   sorting .......... header clicks become an order computed in SQL
  *   selection ........ kept as designations, so it survives sorts and reloads
  *   the project ...... sl_catalogue_view_set_project, _reload, _set_list
+ *   columns .......... which columns are shown, in which order: the
+ *                      "columns" property, the chooser and its actions
  *
  * The selection model is SlCatalogueSelection, a bitset: GtkMultiSelection
  * would fetch (and keep) every selected row, all million of them after
@@ -21,6 +23,7 @@
 #include "sl-catalogue-view.h"
 
 #include <glib/gi18n.h>
+#include <string.h>
 
 #include "derive/derive.h"
 #include "sl-catalogue-model.h"
@@ -40,18 +43,26 @@
 
 /* What a column's factory and marker sorter need to know. */
 typedef struct {
-  SlCatalogueView  *view;     /* not referenced: the columns die with it */
-  SlCatalogueColumn column;
+  SlCatalogueView     *view;     /* not referenced: the columns die with it */
+  SlCatalogueColumn    column;
+  GtkColumnViewColumn *gtk_column;  /* owned; in the column view while shown */
+  GtkCheckButton      *check;       /* its check button in the chooser */
 } ColumnData;
 
 struct _SlCatalogueView {
   GtkWidget             parent_instance;
 
+  GtkWidget            *box;               /* the strip over the table */
   GtkWidget            *scroller;
+  GtkWidget            *chooser;           /* the columns' menu button */
   GtkColumnView        *column_view;
   SlCatalogueModel     *model;
   SlCatalogueSelection *selection;
   ColumnData            columns[SL_CATALOGUE_N_COLUMNS];
+  SlCatalogueColumn     shown[SL_CATALOGUE_N_COLUMNS];   /* in the table's order */
+  guint                 n_shown;
+  gboolean              arranging;         /* the columns are being put in place here */
+  guint                 follow_drag;       /* idle source reading a dragged order */
 
   /* Which header sorts: the column view's sorter compares two probe items
    * and the marker sorter it asks first says who it is. */
@@ -82,12 +93,21 @@ enum {
 
 static guint signals[N_SIGNALS];
 
+enum {
+  PROP_0,
+  PROP_COLUMNS,
+  N_PROPS
+};
+
+static GParamSpec *properties[N_PROPS];
+
+/* The quantity a click on COLUMN explains: its own, if it has one. */
 static const char *
 quantity_of (SlCatalogueColumn column)
 {
-  const char *name = column < SL_CATALOGUE_N_COLUMNS ? sl_catalogue_column_info (column)->name : NULL;
+  const SlCatalogueColumnInfo *info = column < SL_CATALOGUE_N_COLUMNS ? sl_catalogue_column_info (column) : NULL;
 
-  return name ? name : DEFAULT_QUANTITY;
+  return info && (info->field != SL_FIELD_NONE || info->quantity != SL_Q_NONE) ? info->name : DEFAULT_QUANTITY;
 }
 
 /* ------------------------------------------------------------------ */
@@ -440,17 +460,295 @@ sl_catalogue_view_set_list (SlCatalogueView *view, const char *list)
 }
 
 /* ------------------------------------------------------------------ */
-/* Construction                                                       */
+/* Columns                                                            */
+
+/* The check buttons say what is shown (without acting on it). */
+static void
+sync_checks (SlCatalogueView *self)
+{
+  gboolean shown[SL_CATALOGUE_N_COLUMNS] = { FALSE };
+
+  for (guint i = 0; i < self->n_shown; i++)
+    shown[self->shown[i]] = TRUE;
+  self->arranging = TRUE;
+  for (SlCatalogueColumn c = 0; c < SL_CATALOGUE_N_COLUMNS; c++)
+    if (self->columns[c].check)
+      gtk_check_button_set_active (self->columns[c].check, shown[c]);
+  self->arranging = FALSE;
+}
+
+/* Shows COLUMNS (N of them, no duplicates) in that order: the column
+ * view's columns replaced, the sort arrow kept where its column stays,
+ * the model told to read those columns (the rows stay where they were). */
+static void
+show_columns (SlCatalogueView *self, const SlCatalogueColumn *columns, guint n)
+{
+  GListModel *current = gtk_column_view_get_columns (self->column_view);
+  GtkSorter *sorter = gtk_column_view_get_sorter (self->column_view);
+  g_autoptr (GError) error = NULL;
+  gboolean descending, sorted_stays = FALSE;
+  SlCatalogueColumn sorted = primary_sort (self, &descending);
+
+  g_assert (n > 0 && n <= SL_CATALOGUE_N_COLUMNS);
+  memmove (self->shown, columns, n * sizeof *columns);
+  self->n_shown = n;
+
+  self->arranging = TRUE;
+  g_signal_handlers_block_by_func (sorter, on_sorter_changed, self);
+  while (g_list_model_get_n_items (current) > 0)
+    {
+      g_autoptr (GtkColumnViewColumn) column = g_list_model_get_item (current, 0);
+
+      gtk_column_view_remove_column (self->column_view, column);
+    }
+  for (guint i = 0; i < n; i++)
+    {
+      gtk_column_view_append_column (self->column_view, self->columns[self->shown[i]].gtk_column);
+      sorted_stays |= self->shown[i] == sorted;
+    }
+  if (sorted_stays)
+    gtk_column_view_sort_by_column (self->column_view, self->columns[sorted].gtk_column,
+                                    descending ? GTK_SORT_DESCENDING : GTK_SORT_ASCENDING);
+  g_signal_handlers_unblock_by_func (sorter, on_sorter_changed, self);
+  self->arranging = FALSE;
+
+  /* The rows are read again with the new columns, in the same order. */
+  self->reloading = sl_catalogue_model_get_path (self->model) != NULL;
+  if (!sl_catalogue_model_set_columns (self->model, self->shown, n, &error))
+    g_warning ("the Catalogue cannot read these columns: %s", error->message);
+  self->reloading = FALSE;
+  /* The stars were in the order of a column now hidden: back to the
+   * order they entered the project, as the headers say. */
+  if (sorted != SL_CATALOGUE_COLUMN_NONE && !sorted_stays)
+    on_sorter_changed (sorter, GTK_SORTER_CHANGE_DIFFERENT, self);
+  sync_checks (self);
+  g_object_notify_by_pspec (G_OBJECT (self), properties[PROP_COLUMNS]);
+}
+
+void
+sl_catalogue_view_set_columns (SlCatalogueView *view, const char *const *names)
+{
+  SlCatalogueColumn columns[SL_CATALOGUE_N_COLUMNS];
+  gboolean seen[SL_CATALOGUE_N_COLUMNS] = { FALSE };
+  guint n = 0;
+
+  g_return_if_fail (SL_IS_CATALOGUE_VIEW (view));
+
+  for (guint i = 0; names && names[i]; i++)
+    {
+      SlCatalogueColumn c;
+
+      /* A name from another version of the program: left out. */
+      if (!sl_catalogue_column_from_name (names[i], &c) || seen[c])
+        continue;
+      seen[c] = TRUE;
+      columns[n++] = c;
+    }
+  if (n == 0)
+    {
+      const SlCatalogueColumn *usual = sl_catalogue_default_columns (&n);
+
+      memcpy (columns, usual, n * sizeof *usual);
+    }
+  if (n == view->n_shown && memcmp (columns, view->shown, n * sizeof *columns) == 0)
+    return;
+  show_columns (view, columns, n);
+}
+
+char **
+sl_catalogue_view_get_columns (SlCatalogueView *view)
+{
+  g_autoptr (GStrvBuilder) builder = g_strv_builder_new ();
+
+  g_return_val_if_fail (SL_IS_CATALOGUE_VIEW (view), NULL);
+
+  for (guint i = 0; i < view->n_shown; i++)
+    g_strv_builder_add (builder, sl_catalogue_column_info (view->shown[i])->name);
+  return g_strv_builder_end (builder);
+}
+
+/* Shows or hides the column named by the string PARAMETER.  A column
+ * shown goes where the chooser lists it, after the shown columns listed
+ * before it; the last column shown stays. */
+static void
+toggle_column_action (GtkWidget *widget, const char *action, GVariant *parameter)
+{
+  SlCatalogueView *self = SL_CATALOGUE_VIEW (widget);
+  SlCatalogueColumn columns[SL_CATALOGUE_N_COLUMNS], column;
+  guint n = 0, at = 0;
+  gboolean shown = FALSE;
+
+  if (!sl_catalogue_column_from_name (g_variant_get_string (parameter, NULL), &column))
+    {
+      g_warning ("the Catalogue has no column %s", g_variant_get_string (parameter, NULL));
+      return;
+    }
+  for (guint i = 0; i < self->n_shown; i++)
+    {
+      if (self->shown[i] == column)
+        shown = TRUE;
+      else
+        columns[n++] = self->shown[i];
+      if (self->shown[i] < column)
+        at = n;
+    }
+  if (shown && n == 0)
+    {
+      sync_checks (self);
+      return;
+    }
+  if (!shown)
+    {
+      memmove (columns + at + 1, columns + at, (n - at) * sizeof *columns);
+      columns[at] = column;
+      n++;
+    }
+  show_columns (self, columns, n);
+}
 
 static void
-add_columns (SlCatalogueView *self)
+reset_columns_action (GtkWidget *widget, const char *action, GVariant *parameter)
+{
+  sl_catalogue_view_set_columns (SL_CATALOGUE_VIEW (widget), NULL);
+}
+
+static void
+on_check_toggled (GtkCheckButton *check, ColumnData *data)
+{
+  if (data->view->arranging)
+    return;
+  gtk_widget_activate_action (GTK_WIDGET (data->view), "catalogue.toggle-column", "s",
+                              sl_catalogue_column_info (data->column)->name);
+}
+
+/* A header dragged elsewhere: the order shown is the user's order now
+ * (read once the column view has settled). */
+static gboolean
+follow_drag (gpointer data)
+{
+  SlCatalogueView *self = data;
+  GListModel *current = gtk_column_view_get_columns (self->column_view);
+  guint n = g_list_model_get_n_items (current);
+
+  self->follow_drag = 0;
+  if (n != self->n_shown)
+    return G_SOURCE_REMOVE;
+  for (guint i = 0; i < n; i++)
+    {
+      g_autoptr (GtkColumnViewColumn) column = g_list_model_get_item (current, i);
+
+      for (SlCatalogueColumn c = 0; c < SL_CATALOGUE_N_COLUMNS; c++)
+        if (self->columns[c].gtk_column == column)
+          self->shown[i] = c;
+    }
+  g_object_notify_by_pspec (G_OBJECT (self), properties[PROP_COLUMNS]);
+  return G_SOURCE_REMOVE;
+}
+
+static void
+on_columns_changed (GListModel *list, guint position, guint removed, guint added, SlCatalogueView *self)
+{
+  if (!self->arranging && self->follow_drag == 0)
+    self->follow_drag = g_idle_add (follow_drag, self);
+}
+
+/* A heading and the check buttons of GROUP, one under another, in GRID's
+ * column X. */
+static void
+add_group (SlCatalogueView *self, GtkGrid *grid, int x, SlCatalogueGroup group, const char *heading)
+{
+  GtkWidget *label = gtk_label_new (heading);
+  int y = 1;
+
+  gtk_label_set_xalign (GTK_LABEL (label), 0.0f);
+  gtk_widget_add_css_class (label, "heading");
+  gtk_widget_set_margin_start (label, 6);
+  gtk_widget_set_margin_bottom (label, 4);
+  gtk_grid_attach (grid, label, x, 0, 1, 1);
+  for (SlCatalogueColumn c = 0; c < SL_CATALOGUE_N_COLUMNS; c++)
+    {
+      const SlCatalogueColumnInfo *info = sl_catalogue_column_info (c);
+      GtkWidget *check;
+
+      if (info->group != group)
+        continue;
+      check = gtk_check_button_new_with_label (_(info->title));
+      gtk_widget_set_tooltip_text (check, sl_catalogue_column_describe (c));
+      g_signal_connect (check, "toggled", G_CALLBACK (on_check_toggled), &self->columns[c]);
+      self->columns[c].check = GTK_CHECK_BUTTON (check);
+      gtk_grid_attach (grid, check, x, y++, 1, 1);
+    }
+}
+
+/* The strip over the table: its name, and the columns' menu button with
+ * the chooser: Measured and Derived side by side, then the reset. */
+static GtkWidget *
+make_strip (SlCatalogueView *self)
+{
+  GtkWidget *strip = gtk_box_new (GTK_ORIENTATION_HORIZONTAL, 0);
+  GtkWidget *label = gtk_label_new (_("Catalogue"));
+  GtkWidget *content = gtk_box_new (GTK_ORIENTATION_VERTICAL, 8);
+  GtkWidget *grid = gtk_grid_new ();
+  GtkWidget *scroller = gtk_scrolled_window_new ();
+  GtkWidget *reset = gtk_button_new_with_mnemonic (_("_Reset to the Usual Columns"));
+  GtkWidget *popover = gtk_popover_new ();
+
+  gtk_widget_set_margin_start (strip, 8);
+  gtk_widget_set_margin_end (strip, 2);
+  gtk_label_set_xalign (GTK_LABEL (label), 0.0f);
+  gtk_widget_set_hexpand (label, TRUE);
+  gtk_widget_add_css_class (label, "dim-label");
+  gtk_widget_add_css_class (label, "caption-heading");
+  gtk_box_append (GTK_BOX (strip), label);
+
+  gtk_grid_set_column_spacing (GTK_GRID (grid), 18);
+  add_group (self, GTK_GRID (grid), 0, SL_CATALOGUE_GROUP_MEASURED, _("Measured"));
+  add_group (self, GTK_GRID (grid), 1, SL_CATALOGUE_GROUP_DERIVED, _("Derived"));
+  gtk_actionable_set_action_name (GTK_ACTIONABLE (reset), "catalogue.reset-columns");
+  gtk_widget_set_halign (reset, GTK_ALIGN_END);
+  /* On a small screen the list scrolls; the reset stays in sight. */
+  gtk_scrolled_window_set_policy (GTK_SCROLLED_WINDOW (scroller), GTK_POLICY_NEVER, GTK_POLICY_AUTOMATIC);
+  gtk_scrolled_window_set_propagate_natural_height (GTK_SCROLLED_WINDOW (scroller), TRUE);
+  gtk_scrolled_window_set_propagate_natural_width (GTK_SCROLLED_WINDOW (scroller), TRUE);
+  gtk_scrolled_window_set_max_content_height (GTK_SCROLLED_WINDOW (scroller), 640);
+  gtk_scrolled_window_set_child (GTK_SCROLLED_WINDOW (scroller), grid);
+  gtk_box_append (GTK_BOX (content), scroller);
+  gtk_box_append (GTK_BOX (content), reset);
+  gtk_widget_set_margin_top (content, 6);
+  gtk_widget_set_margin_bottom (content, 6);
+  gtk_widget_set_margin_start (content, 6);
+  gtk_widget_set_margin_end (content, 6);
+  gtk_popover_set_child (GTK_POPOVER (popover), content);
+
+  self->chooser = gtk_menu_button_new ();
+  gtk_menu_button_set_icon_name (GTK_MENU_BUTTON (self->chooser), "view-more-symbolic");
+  gtk_menu_button_set_popover (GTK_MENU_BUTTON (self->chooser), popover);
+  gtk_widget_add_css_class (self->chooser, "flat");
+  gtk_widget_set_valign (self->chooser, GTK_ALIGN_CENTER);
+  gtk_widget_set_tooltip_text (self->chooser, _("Choose Columns"));
+  gtk_box_append (GTK_BOX (strip), self->chooser);
+  return strip;
+}
+
+GtkWidget *
+sl_catalogue_view_get_column_chooser (SlCatalogueView *view)
+{
+  g_return_val_if_fail (SL_IS_CATALOGUE_VIEW (view), NULL);
+  return view->chooser;
+}
+
+/* ------------------------------------------------------------------ */
+/* Construction                                                       */
+
+/* Every column, shown or not, made once: showing one is appending it. */
+static void
+make_columns (SlCatalogueView *self)
 {
   for (SlCatalogueColumn c = 0; c < SL_CATALOGUE_N_COLUMNS; c++)
     {
       const SlCatalogueColumnInfo *info = sl_catalogue_column_info (c);
       ColumnData *data = &self->columns[c];
       GtkListItemFactory *factory = gtk_signal_list_item_factory_new ();
-      GtkColumnViewColumn *column;
       g_autoptr (GtkSorter) marker = NULL;
 
       data->view = self;
@@ -465,14 +763,12 @@ add_columns (SlCatalogueView *self)
           g_signal_connect (factory, "setup", G_CALLBACK (setup_label), data);
           g_signal_connect (factory, "bind", G_CALLBACK (bind_label), data);
         }
-      column = gtk_column_view_column_new (_(info->title), factory);
-      gtk_column_view_column_set_resizable (column, TRUE);
-      gtk_column_view_column_set_fixed_width (column, info->width);
+      data->gtk_column = gtk_column_view_column_new (_(info->title), factory);
+      gtk_column_view_column_set_resizable (data->gtk_column, TRUE);
+      gtk_column_view_column_set_fixed_width (data->gtk_column, info->width);
       /* Only a marker: the model sorts in SQL (primary_sort). */
       marker = GTK_SORTER (gtk_custom_sorter_new (marker_compare, data, NULL));
-      gtk_column_view_column_set_sorter (column, marker);
-      gtk_column_view_append_column (self->column_view, column);
-      g_object_unref (column);
+      gtk_column_view_column_set_sorter (data->gtk_column, marker);
     }
 }
 
@@ -484,14 +780,26 @@ sl_catalogue_view_dispose (GObject *object)
   g_cancellable_cancel (self->ordering);
   g_clear_object (&self->ordering);
   g_clear_handle_id (&self->restore_scroll, g_source_remove);
+  g_clear_handle_id (&self->follow_drag, g_source_remove);
   if (self->model)
     g_signal_handlers_disconnect_by_func (self->model, on_model_items_changed, self);
   if (self->selection)
     g_signal_handlers_disconnect_by_func (self->selection, on_selection_changed, self);
   if (self->column_view)
-    g_signal_handlers_disconnect_by_func (gtk_column_view_get_sorter (self->column_view), on_sorter_changed, self);
-  g_clear_pointer (&self->scroller, gtk_widget_unparent);
+    {
+      g_signal_handlers_disconnect_by_func (gtk_column_view_get_sorter (self->column_view), on_sorter_changed, self);
+      g_signal_handlers_disconnect_by_func (gtk_column_view_get_columns (self->column_view), on_columns_changed,
+                                            self);
+    }
+  g_clear_pointer (&self->box, gtk_widget_unparent);
+  self->scroller = NULL;
   self->column_view = NULL;
+  self->chooser = NULL;
+  for (SlCatalogueColumn c = 0; c < SL_CATALOGUE_N_COLUMNS; c++)
+    {
+      g_clear_object (&self->columns[c].gtk_column);
+      self->columns[c].check = NULL;
+    }
   g_clear_object (&self->selection);
   g_clear_object (&self->model);
   g_clear_object (&self->probe[0]);
@@ -501,12 +809,51 @@ sl_catalogue_view_dispose (GObject *object)
 }
 
 static void
+sl_catalogue_view_get_property (GObject *object, guint prop_id, GValue *value, GParamSpec *pspec)
+{
+  switch (prop_id)
+    {
+    case PROP_COLUMNS:
+      g_value_take_boxed (value, sl_catalogue_view_get_columns (SL_CATALOGUE_VIEW (object)));
+      break;
+    default:
+      G_OBJECT_WARN_INVALID_PROPERTY_ID (object, prop_id, pspec);
+    }
+}
+
+static void
+sl_catalogue_view_set_property (GObject *object, guint prop_id, const GValue *value, GParamSpec *pspec)
+{
+  switch (prop_id)
+    {
+    case PROP_COLUMNS:
+      sl_catalogue_view_set_columns (SL_CATALOGUE_VIEW (object), g_value_get_boxed (value));
+      break;
+    default:
+      G_OBJECT_WARN_INVALID_PROPERTY_ID (object, prop_id, pspec);
+    }
+}
+
+static void
 sl_catalogue_view_class_init (SlCatalogueViewClass *klass)
 {
   GObjectClass *object_class = G_OBJECT_CLASS (klass);
   GtkWidgetClass *widget_class = GTK_WIDGET_CLASS (klass);
 
   object_class->dispose = sl_catalogue_view_dispose;
+  object_class->get_property = sl_catalogue_view_get_property;
+  object_class->set_property = sl_catalogue_view_set_property;
+
+  /* The shown columns' names (SlCatalogueColumnInfo.name), in order;
+   * empty: the usual columns.  The window keeps it in GSettings. */
+  properties[PROP_COLUMNS] = g_param_spec_boxed ("columns", NULL, NULL, G_TYPE_STRV,
+                                                 G_PARAM_READWRITE | G_PARAM_EXPLICIT_NOTIFY
+                                                   | G_PARAM_STATIC_STRINGS);
+  g_object_class_install_properties (object_class, N_PROPS, properties);
+
+  /* The column chooser's, for keyboards and tests too. */
+  gtk_widget_class_install_action (widget_class, "catalogue.toggle-column", "s", toggle_column_action);
+  gtk_widget_class_install_action (widget_class, "catalogue.reset-columns", NULL, reset_columns_action);
   gtk_widget_class_set_layout_manager_type (widget_class, GTK_TYPE_BIN_LAYOUT);
   gtk_widget_class_set_css_name (widget_class, "catalogue");
 
@@ -533,15 +880,28 @@ sl_catalogue_view_init (SlCatalogueView *self)
 
   self->column_view = GTK_COLUMN_VIEW (gtk_column_view_new (g_object_ref (GTK_SELECTION_MODEL (self->selection))));
   gtk_column_view_set_show_column_separators (self->column_view, TRUE);
-  gtk_column_view_set_reorderable (self->column_view, FALSE);
+  gtk_column_view_set_reorderable (self->column_view, TRUE);
   gtk_widget_add_css_class (GTK_WIDGET (self->column_view), "data-table");
-  add_columns (self);
+  make_columns (self);
   g_signal_connect (self->column_view, "activate", G_CALLBACK (on_activate), self);
   g_signal_connect (gtk_column_view_get_sorter (self->column_view), "changed", G_CALLBACK (on_sorter_changed), self);
 
   self->scroller = gtk_scrolled_window_new ();
+  gtk_widget_set_vexpand (self->scroller, TRUE);
   gtk_scrolled_window_set_child (GTK_SCROLLED_WINDOW (self->scroller), GTK_WIDGET (self->column_view));
-  gtk_widget_set_parent (self->scroller, GTK_WIDGET (self));
+  self->box = gtk_box_new (GTK_ORIENTATION_VERTICAL, 0);
+  gtk_box_append (GTK_BOX (self->box), make_strip (self));
+  gtk_box_append (GTK_BOX (self->box), gtk_separator_new (GTK_ORIENTATION_HORIZONTAL));
+  gtk_box_append (GTK_BOX (self->box), self->scroller);
+  gtk_widget_set_parent (self->box, GTK_WIDGET (self));
+  {
+    guint n;
+    const SlCatalogueColumn *usual = sl_catalogue_default_columns (&n);
+
+    show_columns (self, usual, n);
+  }
+  g_signal_connect (gtk_column_view_get_columns (self->column_view), "items-changed",
+                    G_CALLBACK (on_columns_changed), self);
 }
 
 SlCatalogueView *

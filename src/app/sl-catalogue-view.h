@@ -30,6 +30,17 @@ void     sl_catalogue_view_set_list (SlCatalogueView *view, const char *list);
 /* Selects (and scrolls to) the stars named; NULL: none. */
 void     sl_catalogue_view_set_selection (SlCatalogueView *view, const char *const *designations);
 
+/* The columns shown, by name (SlCatalogueColumnInfo.name), in order;
+ * unknown names are left out, none shows the usual columns
+ * (sl_catalogue_default_columns).  Also the "columns" property, and the
+ * actions catalogue.toggle-column (s: a column's name) and
+ * catalogue.reset-columns of the chooser at the table's top right. */
+void     sl_catalogue_view_set_columns (SlCatalogueView *view, const char *const *names);
+char   **sl_catalogue_view_get_columns (SlCatalogueView *view);
+
+/* For tests only (tests/test-gui.c): the columns' menu button. */
+GtkWidget *sl_catalogue_view_get_column_chooser (SlCatalogueView *view);
+
 /* For tests only (tests/test-gui.c): the table's selection model, whose
  * items are the SlCatalogueRow of the stars shown (borrowed). */
 GtkSelectionModel *sl_catalogue_view_get_selection_model (SlCatalogueView *view);

@@ -9,7 +9,7 @@
  *                           progress bar, Cancel)
  *   the views ............. Export Figure… (sl-figure-dialog.c), maximise one view
  *   drag and drop ......... a project opens, a CSV file opens the import assistant
- *   settings .............. window size and pane positions (GSettings)
+ *   settings .............. window size, pane positions, the table's columns (GSettings)
  *   target lists .......... sl_window_show_list, sl_window_lists_changed (the
  *                           Lists page and its actions: sl-lists-panel.c)
  *
@@ -1123,6 +1123,7 @@ bind_settings (SlWindow *self)
   g_settings_bind (self->settings, "table-height", self->left_paned, "position", G_SETTINGS_BIND_DEFAULT);
   g_settings_bind (self->settings, "diagram-height", self->views_paned, "position", G_SETTINGS_BIND_DEFAULT);
   g_settings_bind (self->settings, "sky-width", self->lower_views_paned, "position", G_SETTINGS_BIND_DEFAULT);
+  g_settings_bind (self->settings, "catalogue-columns", self->catalogue, "columns", G_SETTINGS_BIND_DEFAULT);
 }
 
 static void
