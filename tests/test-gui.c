@@ -35,7 +35,7 @@
 #include "summary.h"
 #include "test-util.h"
 
-#define DEMO_STARS 328
+#define DEMO_STARS 337
 #define LOAD_TIMEOUT_S 60.0
 #define FRAME_TIMEOUT_S 10.0
 

@@ -391,10 +391,11 @@ sl_window_open_project (SlWindow *self, const char *path, GError **error)
 }
 
 /* The demo project as build-aux/dev and README make it (data/demo/README.md
- * describes the two files and their dialects). */
+ * describes the three files and their dialects). */
 static gboolean
 import_demo_file (SlProject *project, const char *dir, const char *file, const char *source_name,
-                  const char *const *map_specs, const char *const *missing, double epoch, GError **error)
+                  const char *const *map_specs, const char *const *missing, double epoch,
+                  double match_radius, GError **error)
 {
   g_autofree char *path = g_build_filename (dir, file, NULL);
   g_autoptr (GArray) maps = g_array_new (FALSE, FALSE, sizeof (SlColumnMap));
@@ -416,6 +417,7 @@ import_demo_file (SlProject *project, const char *dir, const char *file, const c
   options.missing = missing;
   options.epoch = epoch;
   options.source_name = source_name;
+  options.match_radius = match_radius;
   report = sl_import_csv (project, path, &options, error);
   return report != NULL;
 }
@@ -428,6 +430,9 @@ sl_window_open_demo (SlWindow *self, GError **error)
     "bv_err=b_minus_v_sigma", "ebv=reddening", "ebv_err=reddening_sigma", "sptype=spectral_type", NULL
   };
   static const char *const missing[] = { "99.99", NULL };
+  static const char *const second_map[] = {
+    "id=trs_id", "ra=ra_deg", "ra_err=ra_err_mas", "dec=dec_deg", "dec_err=dec_err_mas", NULL
+  };
   g_autofree char *dir = g_build_filename (g_get_user_cache_dir (), "starledger", NULL);
   g_autofree char *path = g_build_filename (dir, "demo.starledger", NULL);
   g_autofree char *wal = g_strconcat (path, "-wal", NULL);
@@ -445,9 +450,11 @@ sl_window_open_demo (SlWindow *self, GError **error)
   sl_derive_params_init (&params);
   if (project == NULL
       || !import_demo_file (project, demo, "astrometry.csv", _("Larkspur Hill astrometry 2026"), NULL, NULL,
-                            NAN, error)
+                            NAN, 0.0, error)
       || !import_demo_file (project, demo, "photometry.csv", _("Partner photometry extract"), photometry_map,
-                            missing, 2000.0, error)
+                            missing, 2000.0, 0.0, error)
+      || !import_demo_file (project, demo, "second-epoch.csv", _("Tarn Ridge second epoch 2016"), second_map,
+                            NULL, NAN, 1.0, error)
       || !sl_derivation_run (project, &params, FALSE, NULL, NULL, NULL, &report, error))
     return FALSE;
   g_clear_pointer (&project, sl_project_close);
