@@ -33,6 +33,7 @@
 #include "sl-figure-dialog.h"
 #include "sl-import-dialog.h"
 #include "sl-lists-panel.h"
+#include "sl-matches-panel.h"
 #include "sl-plot-view.h"
 #include "sl-recent-projects.h"
 #include "sl-view-pane.h"
@@ -350,6 +351,7 @@ reload (SlWindow *self)
   show_ledger (self, project);
   update_trail (self);
   sl_lists_panel_reload (self->lists);
+  sl_matches_panel_reload (sl_matches_panel_of (self));
   sl_catalogue_view_reload (self->catalogue);
   load_stars (self);
 }
@@ -383,6 +385,7 @@ sl_window_open_project (SlWindow *self, const char *path, GError **error)
   set_text (self->trail_view, _("Click a value in the table to see how it was obtained."));
   show_ledger (self, project);
   sl_lists_panel_set_current (self->lists, NULL);
+  sl_matches_panel_reload (sl_matches_panel_of (self));
   if (self->work_cancel == NULL)
     show_work (self, NULL);
   sl_recent_projects_add (path);
@@ -1195,6 +1198,7 @@ sl_window_class_init (SlWindowClass *klass)
   gtk_widget_class_add_binding_action (widget_class, GDK_KEY_i, GDK_CONTROL_MASK, "win.import", NULL);
   gtk_widget_class_add_binding_action (widget_class, GDK_KEY_Escape, 0, "win.restore-views", NULL);
   sl_lists_panel_install_actions (widget_class);
+  sl_matches_panel_install_actions (widget_class);
 }
 
 static void
@@ -1235,6 +1239,7 @@ sl_window_init (SlWindow *self)
   add_view (self, SL_PLOT_KIND_PARALLAX, self->parallax_box);
   self->lists = sl_lists_panel_new (self);
   gtk_notebook_append_page (self->side_notebook, GTK_WIDGET (self->lists), gtk_label_new (_("Lists")));
+  gtk_notebook_append_page (self->side_notebook, GTK_WIDGET (sl_matches_panel_new (self)), gtk_label_new (_("Matches")));
 
   drop = gtk_drop_target_new (G_TYPE_FILE, GDK_ACTION_COPY);
   g_signal_connect (drop, "drop", G_CALLBACK (on_drop), self);
