@@ -2528,6 +2528,9 @@ test_view_picture_in_thread (void)
 /* ------------------------------------------------------------------ */
 /* Matches                                                            */
 
+#define WAIT_MATCHES(panel) \
+  WAIT_UNTIL (!sl_matches_panel_is_loading (panel), LOAD_TIMEOUT_S, "the Matches page to read the project")
+
 /* The Matches page on the demo: the second-epoch survey's four ambiguous
  * rows come first with their candidates, then its 46 joined rows; a
  * search finds one; choosing a row selects its star (and an ambiguous
@@ -2550,6 +2553,7 @@ test_matches_panel (void)
   panel = sl_matches_panel_of (demo);
   g_assert_nonnull (panel);
   sl_matches_panel_set_search (panel, "");
+  WAIT_MATCHES (panel);
   n_matches = count_in (path, "SELECT count(*) FROM matches");
   g_assert_cmpint (n_matches, ==, 50);
   g_assert_cmpuint (sl_matches_panel_get_n_rows (panel), ==, (guint) n_matches);
@@ -2572,6 +2576,7 @@ test_matches_panel (void)
 
   /* A fast star: 8.8 arcsec on between the epochs, still joined. */
   sl_matches_panel_set_search (panel, "lho 0185");
+  WAIT_MATCHES (panel);
   g_assert_cmpuint (sl_matches_panel_get_n_rows (panel), ==, 1);
   g_clear_pointer (&text, g_free);
   text = sl_matches_panel_get_text (panel, 0);
@@ -2584,13 +2589,16 @@ test_matches_panel (void)
     g_assert_cmpstr (selected, ==, "LHO 0185");
   }
   sl_matches_panel_set_search (panel, "no such star");
+  WAIT_MATCHES (panel);
   g_assert_cmpuint (sl_matches_panel_get_n_rows (panel), ==, 0);
   sl_matches_panel_set_search (panel, "LHO 0185");
+  WAIT_MATCHES (panel);
   ref = sl_matches_panel_get_ref (panel, 0);
   g_assert_cmpstr (ref, ==, "3:31");
 
   stale_before = stale_stars (path);
   g_assert_true (gtk_widget_activate_action (GTK_WIDGET (demo), "win.split-match", "s", ref));
+  WAIT_MATCHES (panel);
   measurement = count_in (path, "SELECT m.id FROM measurements m WHERE m.source_id = 3 AND m.line = 31");
   {
     g_autofree char *status = NULL;
@@ -2623,6 +2631,7 @@ test_matches_panel (void)
   g_assert_cmpint (count_in (path, "SELECT count(*) FROM matches WHERE status = 'split'"), ==, 1);
 
   sl_matches_panel_set_search (panel, "");
+  WAIT_MATCHES (panel);
   notebook = gtk_widget_get_ancestor (GTK_WIDGET (panel), GTK_TYPE_NOTEBOOK);
   gtk_notebook_set_current_page (GTK_NOTEBOOK (notebook),
                                  gtk_notebook_page_num (GTK_NOTEBOOK (notebook), GTK_WIDGET (panel)));

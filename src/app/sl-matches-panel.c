@@ -2,9 +2,9 @@
  *
  * Contents:
  *   reading ........... reload: the counts and a bounded list (at most
- *                       SL_MATCHES_PANEL_LIMIT rows, from match-list.c)
- *                       in a GtkListBox, ambiguous rows first, a header
- *                       above each group
+ *                       SL_MATCHES_PANEL_LIMIT rows, from match-list.c),
+ *                       read in a thread, into a GtkListBox, ambiguous
+ *                       rows first, a header above each group
  *   choosing .......... a row selects its star (and an ambiguous row's
  *                       candidates) in the table and every view
  *   splitting ......... the Split button and win.split-match, through
@@ -36,6 +36,8 @@ struct _SlMatchesPanel {
   GtkListBox     *rows;
   GtkWidget      *split_button;
   GArray         *found;       /* SlMatchListRow, as listed */
+  guint           generation;  /* of the latest read: older ones are dropped */
+  gboolean        loading;     /* a read is running */
   gboolean        updating;    /* the panel is changing its own widgets: no reactions */
 };
 
@@ -190,41 +192,120 @@ show_counts (SlMatchesPanel *self, const SlMatchCounts *counts, gboolean more)
   gtk_label_set_text (self->counts, text->str);
 }
 
-void
-sl_matches_panel_reload (SlMatchesPanel *self)
+/* What a reload reads, in a thread: at a million matches the counts and
+ * a search take a second, which the window must not freeze for. */
+typedef struct {
+  char         *path;
+  char         *search;
+  guint         generation;
+  SlMatchCounts counts;
+  GArray       *found;
+  gboolean      more;
+} ReadJob;
+
+static void
+read_job_free (gpointer data)
 {
-  const char *path;
+  ReadJob *job = data;
+
+  g_free (job->path);
+  g_free (job->search);
+  g_clear_pointer (&job->found, g_array_unref);
+  g_free (job);
+}
+
+static void
+read_thread (GTask *task, gpointer source, gpointer data, GCancellable *cancellable)
+{
+  ReadJob *job = data;
   g_autoptr (SlProject) project = NULL;
-  g_autoptr (GError) error = NULL;
-  SlMatchCounts counts = { 0 };
-  gboolean more = FALSE;
+  GError *error = NULL;
+
+  project = sl_project_open (job->path, &error);
+  if (project && sl_match_counts (project, &job->counts, &error))
+    job->found = sl_match_list (project, job->search, SL_MATCHES_PANEL_LIMIT, &job->more, &error);
+  if (error)
+    g_task_return_error (task, error);
+  else
+    g_task_return_boolean (task, TRUE);
+}
+
+static void
+show_found (SlMatchesPanel *self, GArray *found, const SlMatchCounts *counts, gboolean more)
+{
   GtkWidget *child;
 
-  g_return_if_fail (SL_IS_MATCHES_PANEL (self));
-
-  /* Going away. */
-  if (self->rows == NULL)
-    return;
-  path = sl_window_get_project_path (self->window);
   g_clear_pointer (&self->found, g_array_unref);
-  if (path)
-    {
-      project = sl_project_open (path, &error);
-      if (project && sl_match_counts (project, &counts, &error))
-        self->found = sl_match_list (project, gtk_editable_get_text (GTK_EDITABLE (self->search)),
-                                     SL_MATCHES_PANEL_LIMIT, &more, &error);
-      if (error)
-        sl_window_toast (self->window, error->message);
-    }
-
+  self->found = found;
   self->updating = TRUE;
   while ((child = gtk_widget_get_first_child (GTK_WIDGET (self->rows))))
     gtk_list_box_remove (self->rows, child);
   for (guint i = 0; self->found && i < self->found->len; i++)
     gtk_list_box_append (self->rows, match_row (row_at (self, i)));
   self->updating = FALSE;
-  show_counts (self, &counts, more);
+  show_counts (self, counts, more);
   update_sensitivity (self);
+}
+
+static void
+on_read (GObject *source, GAsyncResult *result, gpointer data)
+{
+  SlMatchesPanel *self = SL_MATCHES_PANEL (source);
+  ReadJob *job = g_task_get_task_data (G_TASK (result));
+  g_autoptr (GError) error = NULL;
+
+  g_task_propagate_boolean (G_TASK (result), &error);
+  /* Gone, or a newer read is on its way. */
+  if (self->rows == NULL || job->generation != self->generation)
+    return;
+  self->loading = FALSE;
+  if (error)
+    {
+      SlMatchCounts none = { 0 };
+
+      sl_window_toast (self->window, error->message);
+      show_found (self, NULL, &none, FALSE);
+      return;
+    }
+  show_found (self, g_steal_pointer (&job->found), &job->counts, job->more);
+}
+
+void
+sl_matches_panel_reload (SlMatchesPanel *self)
+{
+  const char *path;
+  g_autoptr (GTask) task = NULL;
+  ReadJob *job;
+
+  g_return_if_fail (SL_IS_MATCHES_PANEL (self));
+
+  /* Going away. */
+  if (self->rows == NULL)
+    return;
+  self->generation++;
+  path = sl_window_get_project_path (self->window);
+  if (path == NULL)
+    {
+      SlMatchCounts none = { 0 };
+
+      self->loading = FALSE;
+      show_found (self, NULL, &none, FALSE);
+      return;
+    }
+  job = g_new0 (ReadJob, 1);
+  job->path = g_strdup (path);
+  job->search = g_strdup (gtk_editable_get_text (GTK_EDITABLE (self->search)));
+  job->generation = self->generation;
+  self->loading = TRUE;
+  task = g_task_new (self, NULL, on_read, NULL);
+  g_task_set_task_data (task, job, read_job_free);
+  g_task_run_in_thread (task, read_thread);
+}
+
+gboolean
+sl_matches_panel_is_loading (SlMatchesPanel *self)
+{
+  return self->loading;
 }
 
 /* ------------------------------------------------------------------ */

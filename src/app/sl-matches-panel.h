@@ -27,19 +27,21 @@ G_DECLARE_FINAL_TYPE (SlMatchesPanel, sl_matches_panel, SL, MATCHES_PANEL, GtkBo
 SlMatchesPanel *sl_matches_panel_new (SlWindow *window);
 
 /* Reads the matches again (after the project changed, or another one
- * was opened). */
+ * was opened), in a thread; the list follows when it is done. */
 void            sl_matches_panel_reload (SlMatchesPanel *panel);
 
 /* Installs win.split-match ("SOURCE:LINE", as `split` takes it) in the
  * window's class; called from sl_window_class_init. */
 void            sl_matches_panel_install_actions (GtkWidgetClass *window_class);
 
-/* For tests only (tests/test-gui.c).  The window's panel; the search;
+/* For tests only (tests/test-gui.c).  The window's panel; whether a
+ * read is still running; the search;
  * how many rows are listed; row I's status ("ambiguous", "matched",
  * "split"), its reference SOURCE:LINE (newly allocated) and its text as
  * shown (newly allocated); choosing row I as a click does; the counts
  * line. */
 SlMatchesPanel *sl_matches_panel_of (SlWindow *window);
+gboolean        sl_matches_panel_is_loading (SlMatchesPanel *panel);
 void            sl_matches_panel_set_search (SlMatchesPanel *panel, const char *text);
 guint           sl_matches_panel_get_n_rows (SlMatchesPanel *panel);
 const char     *sl_matches_panel_get_status (SlMatchesPanel *panel, guint i);
