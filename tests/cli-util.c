@@ -58,6 +58,16 @@ import_demo (const char *project, const char *locale, CliResult *astrometry, Cli
                      "--map", "vmag=v", "--map", "vmag_err=v_sigma", "--map", "bv=b_minus_v",
                      "--map", "bv_err=b_minus_v_sigma", "--map", "ebv=reddening", "--map", "ebv_err=reddening_sigma",
                      "--map", "sptype=spectral_type", "--missing", "99.99", "--epoch", "2000.0", NULL);
+  /* The second-epoch survey joins by position (data/demo/README.md). */
+  {
+    g_autofree char *second = demo_file ("second-epoch.csv");
+    g_auto (CliResult) matched = { 0 };
+
+    run_cli_in_locale (&matched, locale, "import", project, second, "--source-name", "Tarn Ridge second epoch 2016",
+                       "--map", "id=trs_id", "--map", "ra=ra_deg", "--map", "ra_err=ra_err_mas",
+                       "--map", "dec=dec_deg", "--map", "dec_err=dec_err_mas", "--match-radius", "1", NULL);
+    g_assert_cmpint (matched.status, ==, 0);
+  }
 }
 
 void

@@ -25,8 +25,9 @@ void run_cli_in_locale (CliResult *r, const char *locale, const char *first, ...
 char *demo_file (const char *name);
 
 /* Creates PROJECT and imports the demo data into it as README and
- * build-aux/dev do; the two imports' results go to ASTROMETRY and
- * PHOTOMETRY. */
+ * build-aux/dev do; the first two imports' results go to ASTROMETRY and
+ * PHOTOMETRY, the third (the second-epoch survey, by position) must
+ * succeed. */
 void import_demo (const char *project, const char *locale, CliResult *astrometry, CliResult *photometry);
 
 /* g_test_init, then a clear error if meson did not say which

@@ -1,7 +1,9 @@
 /* test-cli-match.c: starledger-cli import --match-radius and split end
  * to end: what the import reports (matches, the epoch, every ambiguous
  * row with its candidates), explain after it, split and its mistakes as
- * one line with exit status 1 (2 for usage). */
+ * one line with exit status 1 (2 for usage); export --epoch carrying the
+ * first catalogue to the second's epoch. */
+#include <math.h>
 #include <string.h>
 
 #include "cli-util.h"
@@ -158,6 +160,50 @@ test_split_mistakes (Scene *s, gconstpointer data)
   assert_contains (bad_ref.err, "'2-3': expected SOURCE:LINE");
 }
 
+/* At J2016 A3 is where the second catalogue saw it (B2, within 0.1
+ * arcsec), with the epoch column saying so; a bad epoch is a usage
+ * error that names the option. */
+static void
+test_export_epoch (Scene *s, gconstpointer data)
+{
+  g_auto (CliResult) r = { 0 };
+  g_auto (CliResult) tex = { 0 };
+  const char *const bad[] = { "soon", "J", "1e9" };
+  const char *a3;
+  double ra, dec;
+
+  run_cli (&r, "export", s->project, "--epoch", "J2016", "--columns", "ra,dec", NULL);
+  g_assert_cmpint (r.status, ==, 0);
+  assert_prefix (r.out, "id,ra,ra_lo,ra_hi,dec,dec_lo,dec_hi,epoch,epoch_lo,epoch_hi\n");
+  a3 = strstr (r.out, "\nA3,");
+  g_assert_nonnull (a3);
+  {
+    g_autofree char *line = g_strndup (a3 + 1, strcspn (a3 + 1, "\n"));
+    g_auto (GStrv) cells = g_strsplit (line, ",", -1);
+
+    g_assert_cmpuint (g_strv_length (cells), ==, 10);
+    ra = g_ascii_strtod (cells[1], NULL);
+    dec = g_ascii_strtod (cells[4], NULL);
+  }
+  g_assert_cmpfloat (fabs (ra - 50.0256600) * 3600.0 * cos (30.0 * G_PI / 180.0), <, 0.1);
+  g_assert_cmpfloat (fabs (dec + 30.0133333) * 3600.0, <, 0.1);
+  assert_contains (a3, ",2016,,\n");
+
+  run_cli (&tex, "export", s->project, "--epoch", "2016", "--format", "tex", NULL);
+  g_assert_cmpint (tex.status, ==, 0);
+  assert_contains (tex.out, "% Positions: ICRS, epoch J2016.00,");
+
+  for (guint i = 0; i < G_N_ELEMENTS (bad); i++)
+    {
+      g_auto (CliResult) wrong = { 0 };
+
+      run_cli (&wrong, "export", s->project, "--epoch", bad[i], NULL);
+      g_assert_cmpint (wrong.status, ==, 2);
+      assert_contains (wrong.err, "--epoch");
+      g_assert_cmpstr (wrong.out, ==, "");
+    }
+}
+
 int
 main (int argc, char **argv)
 {
@@ -169,6 +215,7 @@ main (int argc, char **argv)
   ADD ("/cli/match/bad-radius", test_bad_radius);
   ADD ("/cli/match/explain-and-split", test_explain_and_split);
   ADD ("/cli/match/split-mistakes", test_split_mistakes);
+  ADD ("/cli/match/export-epoch", test_export_epoch);
 #undef ADD
 
   return g_test_run ();

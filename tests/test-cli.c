@@ -130,7 +130,7 @@ test_demo_export_ledger_summary (void)
   run_cli (&to_stdout, "export", project, NULL);
   g_assert_cmpint (to_stdout.status, ==, 0);
   lines = g_strsplit (to_stdout.out, "\n", -1);
-  g_assert_cmpuint (g_strv_length (lines), ==, 1 + 328 + 1);   /* header, stars, final "" */
+  g_assert_cmpuint (g_strv_length (lines), ==, 1 + 337 + 1);   /* header, stars, final "" */
 
   run_cli (&to_file, "export", project, "-o", out_path, NULL);
   g_assert_cmpint (to_file.status, ==, 0);
@@ -152,7 +152,7 @@ test_demo_export_ledger_summary (void)
 
   run_cli (&summary, "summary", project, NULL);
   g_assert_cmpint (summary.status, ==, 0);
-  assert_contains (summary.out, "328 stars, 628 measurements from 2 sources, 8 rejected rows");
+  assert_contains (summary.out, "337 stars, 683 measurements from 3 sources, 8 rejected rows");
   sl_test_scratch_free (g_steal_pointer (&dir));
 }
 

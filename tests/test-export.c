@@ -1,8 +1,13 @@
 /* test-export.c: the CSV table: value/lo/hi columns, intervals, --columns,
- * quoting, atomic writes and locale independence. */
+ * quoting, atomic writes and locale independence; positions at another
+ * epoch against ERFA directly, their errors against hand-computed values. */
+#include <erfa.h>
+#include <erfam.h>
 #include <locale.h>
+#include <math.h>
 #include <string.h>
 
+#include "crossmatch.h"
 #include "csv-reader.h"
 #include "export.h"
 #include "import.h"
@@ -199,6 +204,163 @@ test_formula_neutralised (SlTestProject *f, gconstpointer data)
   g_assert_nonnull (strstr (text, "\n'-LHO 1,'+G2 V\n"));
 }
 
+/* ------------------------------------------------------------------ */
+/* Positions at an epoch                                              */
+
+/* Three more stars: M moves (parallax and radial velocity known), N has
+ * no proper motion, P has a proper motion without errors.  The fixture's
+ * A and B have no epoch. */
+static const char moving_csv[] =
+  "id,ra,ra_err,dec,dec_err,epoch,pmra,pmra_err,pmdec,pmdec_err,parallax,vrad\n"
+  "M,100,2,40,3,2016,500,0.5,-300,0.4,50,30\n"
+  "N,200,1,-10,1,2016,,,,,,\n"
+  "P,10,1,80,1,2016,100,,100,,,\n";
+
+/* The fields of star ID's row in the CSV TEXT, or NULL. */
+static GStrv
+csv_row (const char *text, const char *id)
+{
+  g_autoptr (GError) error = NULL;
+  g_autoptr (SlCsvReader) reader = sl_csv_reader_new (text, strlen (text), ',', "out.csv", &error);
+  SlCsvRecord record;
+
+  g_assert_no_error (error);
+  while (sl_csv_reader_next (reader, &record))
+    if (record.n_fields > 0 && strcmp (record.fields[0], id) == 0)
+      {
+        GStrv fields = g_new0 (char *, record.n_fields + 1);
+
+        for (guint i = 0; i < record.n_fields; i++)
+          fields[i] = g_strdup (record.fields[i]);
+        return fields;
+      }
+  return NULL;
+}
+
+static char *
+export_at_epoch (SlTestProject *f, const char *const *columns, double epoch, SlExportFormat format)
+{
+  g_autofree char *input = sl_test_write_file (f->dir, "moving.csv", moving_csv, -1);
+  g_autofree char *path = g_build_filename (f->dir, "epoch.out", NULL);
+  g_autoptr (SlImportReport) report = NULL;
+  g_autoptr (GError) error = NULL;
+  SlExportOptions export_options = { format, columns, NULL, NULL, TRUE, epoch };
+  SlImportOptions options;
+  char *text;
+
+  sl_import_options_init (&options);
+  report = sl_import_csv (f->project, input, &options, &error);
+  g_assert_no_error (error);
+  g_assert_cmpuint (report->rows_accepted, ==, 3);
+  g_assert_cmpint (sl_export (f->project, path, &export_options, &error), ==, 5);
+  g_assert_no_error (error);
+  g_assert_true (g_file_get_contents (path, &text, NULL, NULL));
+  return text;
+}
+
+/* M at 2030 is where eraPmsafe, called here directly, puts it; its
+ * errors grew by the proper-motion errors times 14 years:
+ * sqrt(2^2 + (14 x 0.5)^2) = sqrt(53) mas in RA (on the sky) and
+ * sqrt(3^2 + (14 x 0.4)^2) = sqrt(40.36) mas in Dec. */
+static void
+test_epoch_propagated (SlTestProject *f, gconstpointer data)
+{
+  const char *columns[] = { "ra", "dec", "flags", NULL };
+  g_autofree char *text = export_at_epoch (f, columns, 2030.0, SL_EXPORT_CSV);
+  g_auto (GStrv) header = g_strsplit (text, "\n", 2);
+  g_auto (GStrv) m = csv_row (text, "M");
+  double d1, d2, t1, t2, ra, dec, pmr, pmd, px, rv;
+  double sigma_ra_deg, sigma_dec_deg;
+
+  /* The epoch column comes with the position, right after it. */
+  g_assert_cmpstr (header[0], ==, "id,ra,ra_lo,ra_hi,dec,dec_lo,dec_hi,epoch,epoch_lo,epoch_hi,flags");
+  g_assert_nonnull (m);
+  eraEpj2jd (2016.0, &d1, &d2);
+  eraEpj2jd (2030.0, &t1, &t2);
+  g_assert_cmpint (eraPmsafe (100.0 * ERFA_DD2R, 40.0 * ERFA_DD2R,
+                              500.0 * ERFA_DMAS2R / cos (40.0 * ERFA_DD2R), -300.0 * ERFA_DMAS2R,
+                              0.050, 30.0, d1, d2, t1, t2, &ra, &dec, &pmr, &pmd, &px, &rv), ==, 0);
+  ra *= ERFA_DR2D;
+  dec *= ERFA_DR2D;
+  g_assert_cmpfloat_with_epsilon (g_ascii_strtod (m[1], NULL), ra, 1e-12);
+  g_assert_cmpfloat_with_epsilon (g_ascii_strtod (m[4], NULL), dec, 1e-12);
+  /* It really moved: 14 years at 583 mas/yr is 8.2 arcsec. */
+  g_assert_cmpfloat (sl_sky_separation (100.0, 40.0, ra, dec), >, 8.0);
+  /* The CSV has 15 significant digits: 1e-12 deg at RA 100. */
+  sigma_ra_deg = 7.280109889280518 / 3.6e6 / cos (dec * G_PI / 180.0);
+  sigma_dec_deg = 6.352952069707436 / 3.6e6;
+  g_assert_cmpfloat_with_epsilon (g_ascii_strtod (m[3], NULL) - g_ascii_strtod (m[1], NULL),
+                                  sigma_ra_deg, 3e-12);
+  g_assert_cmpfloat_with_epsilon (g_ascii_strtod (m[1], NULL) - g_ascii_strtod (m[2], NULL),
+                                  sigma_ra_deg, 3e-12);
+  g_assert_cmpfloat_with_epsilon (g_ascii_strtod (m[6], NULL) - g_ascii_strtod (m[4], NULL),
+                                  sigma_dec_deg, 3e-12);
+  g_assert_cmpstr (m[7], ==, "2030");
+  g_assert_cmpstr (m[10], ==, "not_derived");
+}
+
+/* N has no proper motion: its catalogue position and epoch, flagged;
+ * P's proper motion has no error: it moves, its interval is unknown. */
+static void
+test_epoch_not_propagated (SlTestProject *f, gconstpointer data)
+{
+  const char *columns[] = { "dec", "flags", NULL };
+  g_autofree char *text = export_at_epoch (f, columns, 2030.0, SL_EXPORT_CSV);
+  g_auto (GStrv) n = csv_row (text, "N");
+  g_auto (GStrv) p = csv_row (text, "P");
+  g_auto (GStrv) a = csv_row (text, "A");
+
+  g_assert_true (g_str_has_prefix (text, "id,dec,dec_lo,dec_hi,epoch,epoch_lo,epoch_hi,flags\n"));
+  g_assert_cmpstr (n[1], ==, "-10");
+  g_assert_cmpstr (n[4], ==, "2016");
+  g_assert_cmpstr (n[7], ==, "not_derived|" SL_EXPORT_FLAG_NOT_PROPAGATED);
+  g_assert_cmpstr (a[4], ==, "");
+  g_assert_cmpstr (a[7], ==, "not_derived|" SL_EXPORT_FLAG_NOT_PROPAGATED);
+  g_assert_cmpfloat (fabs (g_ascii_strtod (p[1], NULL) - 80.0) * 3600.0, >, 1.3);
+  g_assert_cmpstr (p[2], ==, "");
+  g_assert_cmpstr (p[3], ==, "");
+  g_assert_cmpstr (p[4], ==, "2030");
+  g_assert_cmpstr (p[7], ==, "not_derived");
+}
+
+/* Without --epoch nothing moves and no column is added. */
+static void
+test_epoch_default (SlTestProject *f, gconstpointer data)
+{
+  const char *columns[] = { "ra", NULL };
+  g_autofree char *input = sl_test_write_file (f->dir, "moving.csv", moving_csv, -1);
+  g_autoptr (SlImportReport) report = NULL;
+  g_autoptr (GError) error = NULL;
+  g_autofree char *text = NULL;
+  g_auto (GStrv) m = NULL;
+  SlImportOptions options;
+
+  sl_import_options_init (&options);
+  report = sl_import_csv (f->project, input, &options, &error);
+  g_assert_no_error (error);
+  {
+    g_autofree char *path = g_build_filename (f->dir, "out.csv", NULL);
+    SlExportOptions export_options = { SL_EXPORT_CSV, columns, NULL };
+
+    g_assert_cmpint (sl_export (f->project, path, &export_options, &error), ==, 5);
+    g_assert_true (g_file_get_contents (path, &text, NULL, NULL));
+  }
+  g_assert_true (g_str_has_prefix (text, "id,ra,ra_lo,ra_hi\n"));
+  m = csv_row (text, "M");
+  g_assert_cmpstr (m[1], ==, "100");
+}
+
+/* The LaTeX table states the frame and the epoch. */
+static void
+test_epoch_tex (SlTestProject *f, gconstpointer data)
+{
+  const char *columns[] = { "ra", NULL };
+  g_autofree char *text = export_at_epoch (f, columns, 2030.5, SL_EXPORT_TEX);
+
+  g_assert_nonnull (strstr (text, "% Positions: ICRS, epoch J2030.50,"));
+  g_assert_nonnull (strstr (text, "id & ra (deg) & epoch (yr)"));
+}
+
 int
 main (int argc, char **argv)
 {
@@ -214,6 +376,10 @@ main (int argc, char **argv)
   ADD ("/export/csv/atomic-write", test_atomic_write);
   ADD ("/export/csv/locale-independent", test_locale_independent);
   ADD ("/export/csv/formula-neutralised", test_formula_neutralised);
+  ADD ("/export/epoch/propagated", test_epoch_propagated);
+  ADD ("/export/epoch/not-propagated", test_epoch_not_propagated);
+  ADD ("/export/epoch/default", test_epoch_default);
+  ADD ("/export/epoch/tex", test_epoch_tex);
 #undef ADD
 
   return g_test_run ();

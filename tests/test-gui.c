@@ -29,6 +29,7 @@
 #include "sl-catalogue-row.h"
 #include "sl-catalogue-view.h"
 #include "sl-import-dialog.h"
+#include "sl-matches-panel.h"
 #include "sl-figure-dialog.h"
 #include "sl-derive-dialog.h"
 #include "sl-plot-view.h"
@@ -37,7 +38,7 @@
 #include "summary.h"
 #include "test-util.h"
 
-#define DEMO_STARS 328
+#define DEMO_STARS 337
 #define LOAD_TIMEOUT_S 60.0
 #define FRAME_TIMEOUT_S 10.0
 
@@ -2798,6 +2799,130 @@ test_catalogue_columns (void)
   }
 }
 
+/* ------------------------------------------------------------------ */
+/* Matches                                                            */
+
+#define WAIT_MATCHES(panel) \
+  WAIT_UNTIL (!sl_matches_panel_is_loading (panel), LOAD_TIMEOUT_S, "the Matches page to read the project")
+
+/* The Matches page on the demo: the second-epoch survey's four ambiguous
+ * rows come first with their candidates, then its 46 joined rows; a
+ * search finds one; choosing a row selects its star (and an ambiguous
+ * row's candidate) everywhere; win.split-match splits a joined row as
+ * `starledger-cli split` does: its own star again, the match recorded as
+ * split, a ledger entry, the star it left stale. */
+static void
+test_matches_panel (void)
+{
+  g_autofree char *path = demo_path ();
+  SlMatchesPanel *panel;
+  g_autofree char *ref = NULL;
+  g_autofree char *text = NULL;
+  gint64 n_matches, stale_before, measurement;
+  GtkWidget *notebook;
+  SlLedgerEntry *entry;
+  guint n_entries;
+
+  ENSURE_DEMO ();
+  panel = sl_matches_panel_of (demo);
+  g_assert_nonnull (panel);
+  sl_matches_panel_set_search (panel, "");
+  WAIT_MATCHES (panel);
+  n_matches = count_in (path, "SELECT count(*) FROM matches");
+  g_assert_cmpint (n_matches, ==, 50);
+  g_assert_cmpuint (sl_matches_panel_get_n_rows (panel), ==, (guint) n_matches);
+  for (guint i = 0; i < 4; i++)
+    g_assert_cmpstr (sl_matches_panel_get_status (panel, i), ==, "ambiguous");
+  g_assert_cmpstr (sl_matches_panel_get_status (panel, 4), ==, "matched");
+  g_assert_cmpstr (sl_matches_panel_get_status (panel, 49), ==, "matched");
+  g_assert_cmpstr (sl_matches_panel_get_counts (panel), ==, "46 joined by position · 4 ambiguous · 0 split");
+  text = sl_matches_panel_get_text (panel, 0);
+  g_assert_true (g_str_has_prefix (text, "TRS J0021: ambiguous, not merged\nsecond-epoch.csv:24 · candidates: LHO 0124 at 0."));
+  g_assert_nonnull (strstr (text, "kept as star TRS J0021"));
+
+  /* The ambiguous row and its candidate, selected together. */
+  sl_matches_panel_choose (panel, 0);
+  {
+    g_autofree char *selected = window_selection ();
+
+    g_assert_cmpstr (selected, ==, "LHO 0124|TRS J0021");
+  }
+
+  /* A fast star: 8.8 arcsec on between the epochs, still joined. */
+  sl_matches_panel_set_search (panel, "lho 0185");
+  WAIT_MATCHES (panel);
+  g_assert_cmpuint (sl_matches_panel_get_n_rows (panel), ==, 1);
+  g_clear_pointer (&text, g_free);
+  text = sl_matches_panel_get_text (panel, 0);
+  g_assert_true (g_str_has_prefix (text, "TRS J0028 → LHO 0185\nsecond-epoch.csv:31 · 0.0"));
+  g_assert_nonnull (strstr (text, "arcsec apart at J2016.000 · radius 1 arcsec"));
+  sl_matches_panel_choose (panel, 0);
+  {
+    g_autofree char *selected = window_selection ();
+
+    g_assert_cmpstr (selected, ==, "LHO 0185");
+  }
+  sl_matches_panel_set_search (panel, "no such star");
+  WAIT_MATCHES (panel);
+  g_assert_cmpuint (sl_matches_panel_get_n_rows (panel), ==, 0);
+  sl_matches_panel_set_search (panel, "LHO 0185");
+  WAIT_MATCHES (panel);
+  ref = sl_matches_panel_get_ref (panel, 0);
+  g_assert_cmpstr (ref, ==, "3:31");
+
+  stale_before = stale_stars (path);
+  g_assert_true (gtk_widget_activate_action (GTK_WIDGET (demo), "win.split-match", "s", ref));
+  WAIT_MATCHES (panel);
+  measurement = count_in (path, "SELECT m.id FROM measurements m WHERE m.source_id = 3 AND m.line = 31");
+  {
+    g_autofree char *status = NULL;
+    g_autofree char *star = NULL;
+    g_autoptr (GError) error = NULL;
+    g_autoptr (SlProject) project = sl_project_open (path, &error);
+    g_autofree char *sql = g_strdup_printf ("SELECT x.status, s.designation FROM matches x "
+                                            "JOIN measurements m ON m.id = x.measurement_id "
+                                            "JOIN stars s ON s.id = m.star_id WHERE x.measurement_id = %" G_GINT64_FORMAT,
+                                            measurement);
+    sqlite3_stmt *stmt;
+
+    g_assert_no_error (error);
+    g_assert_cmpint (sqlite3_prepare_v2 (sl_project_db (project), sql, -1, &stmt, NULL), ==, SQLITE_OK);
+    g_assert_cmpint (sqlite3_step (stmt), ==, SQLITE_ROW);
+    g_assert_cmpstr ((const char *) sqlite3_column_text (stmt, 0), ==, "split");
+    g_assert_cmpstr ((const char *) sqlite3_column_text (stmt, 1), ==, "TRS J0028");
+    sqlite3_finalize (stmt);
+  }
+  entry = newest_entry (path, &n_entries);
+  g_assert_cmpstr (entry->action, ==, "split");
+  sl_ledger_entry_free (entry);
+  g_assert_cmpint (stale_stars (path), >, stale_before);
+  /* The panel read the project again: the row is split now. */
+  g_assert_cmpuint (sl_matches_panel_get_n_rows (panel), ==, 1);
+  g_assert_cmpstr (sl_matches_panel_get_status (panel, 0), ==, "split");
+  g_assert_cmpstr (sl_matches_panel_get_counts (panel), ==, "45 joined by position · 4 ambiguous · 1 split");
+  /* Splitting it again is refused with a message, and changes nothing. */
+  g_assert_true (gtk_widget_activate_action (GTK_WIDGET (demo), "win.split-match", "s", ref));
+  g_assert_cmpint (count_in (path, "SELECT count(*) FROM matches WHERE status = 'split'"), ==, 1);
+
+  sl_matches_panel_set_search (panel, "");
+  WAIT_MATCHES (panel);
+  notebook = gtk_widget_get_ancestor (GTK_WIDGET (panel), GTK_TYPE_NOTEBOOK);
+  gtk_notebook_set_current_page (GTK_NOTEBOOK (notebook),
+                                 gtk_notebook_page_num (GTK_NOTEBOOK (notebook), GTK_WIDGET (panel)));
+  sl_matches_panel_choose (panel, 1);
+  PAINT (demo);
+  {
+    cairo_surface_t *picture = render_widget (GTK_WIDGET (demo));
+    Census c = census_of (picture, GTK_WIDGET (panel));
+
+    save_png (picture, "gui-matches.png");
+    /* Dark lines of text: the counts and the rows' headlines (the
+     * headings and details are dimmed). */
+    g_assert_cmpuint (c.dark_bands, >=, 4);
+    cairo_surface_destroy (picture);
+  }
+}
+
 int
 main (int argc, char **argv)
 {
@@ -2865,6 +2990,7 @@ main (int argc, char **argv)
   g_test_add_func ("/gui/lists/members", test_lists_members);
   g_test_add_func ("/gui/lists/new-dialog", test_lists_new_dialog);
   g_test_add_func ("/gui/lists/export-delete", test_lists_export_delete);
+  g_test_add_func ("/gui/matches/panel", test_matches_panel);
   g_test_add_func ("/gui/catalogue/columns", test_catalogue_columns);
   status = g_test_run ();
 

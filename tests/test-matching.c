@@ -1,13 +1,15 @@
 /* test-matching.c: import with a match radius, on a project: rows joined
  * by position and the matches table, new stars, ambiguous rows (close
  * pairs, two rows on one star) kept apart with their candidates, rows
- * without a position rejected, split (and its all-or-nothing rule), and
- * what explain says about a match. */
+ * without a position rejected, split (and its all-or-nothing rule),
+ * what explain says about a match, and the bounded list of matches the
+ * window shows (match-list.h). */
 #include <string.h>
 
 #include "crossmatch.h"
 #include "explain.h"
 #include "import.h"
+#include "match-list.h"
 #include "matching.h"
 #include "sl-error.h"
 #include "test-util.h"
@@ -468,6 +470,85 @@ test_by_id_unchanged (SlTestProject *f, gconstpointer data)
   g_assert_true (isnan (second->match_epoch));
 }
 
+/* The counts agree with the table; the list has the ambiguous rows first,
+ * each group in file order; a limit stops it and says there is more; the
+ * search ignores case, finds a row by its id, its star or the star it was
+ * split from, and takes % and _ literally. */
+static void
+test_match_list (SlTestProject *f, gconstpointer data)
+{
+  g_autoptr (SlImportReport) report = import_both (f);
+  g_autoptr (GError) error = NULL;
+  g_autoptr (GArray) all = NULL;
+  g_autoptr (GArray) two = NULL;
+  g_autoptr (GArray) found = NULL;
+  g_autoptr (GArray) none = NULL;
+  g_autoptr (GArray) after = NULL;
+  const SlMatchListRow *row;
+  SlMatchCounts counts;
+  gboolean more = TRUE;
+  SlRowRef ref = { (char *) "2", 3 };
+  guint n_ambiguous = 0;
+
+  g_assert_true (sl_match_counts (f->project, &counts, &error));
+  g_assert_no_error (error);
+  g_assert_cmpint (counts.matched, ==, query_int (f, "SELECT count(*) FROM matches WHERE status = 'matched'"));
+  g_assert_cmpint (counts.ambiguous, ==, query_int (f, "SELECT count(*) FROM matches WHERE status = 'ambiguous'"));
+  g_assert_cmpint (counts.split, ==, 0);
+  g_assert_cmpint (counts.matched, >=, 3);
+  g_assert_cmpint (counts.ambiguous, ==, 3);   /* B3, B6, B7 */
+
+  all = sl_match_list (f->project, NULL, 100, &more, &error);
+  g_assert_no_error (error);
+  g_assert_false (more);
+  g_assert_cmpuint (all->len, ==, counts.matched + counts.ambiguous);
+  for (guint i = 0; i < all->len; i++)
+    {
+      row = &g_array_index (all, SlMatchListRow, i);
+      if (strcmp (row->info.status, "ambiguous") == 0)
+        {
+          g_assert_cmpuint (i, ==, n_ambiguous);
+          n_ambiguous++;
+        }
+      if (i > 0 && strcmp (row->info.status, g_array_index (all, SlMatchListRow, i - 1).info.status) == 0)
+        g_assert_cmpuint (row->info.line, >, g_array_index (all, SlMatchListRow, i - 1).info.line);
+    }
+  g_assert_cmpuint (n_ambiguous, ==, 3);
+  row = &g_array_index (all, SlMatchListRow, 0);
+  g_assert_cmpstr (row->info.row_designation, ==, "B3");
+  g_assert_cmpuint (g_strv_length (row->candidate_ids), ==, 2);
+  g_assert_nonnull (strstr (row->candidates, "A4 at 0.127 arcsec"));
+  g_assert_nonnull (strstr (row->candidates, "A5 at 0.1"));
+
+  two = sl_match_list (f->project, "", 2, &more, &error);
+  g_assert_cmpuint (two->len, ==, 2);
+  g_assert_true (more);
+
+  found = sl_match_list (f->project, "a3", 100, &more, &error);
+  g_assert_cmpuint (found->len, ==, 1);
+  row = &g_array_index (found, SlMatchListRow, 0);
+  g_assert_cmpstr (row->info.status, ==, "matched");
+  g_assert_cmpstr (row->info.row_designation, ==, "B2");
+  g_assert_cmpstr (row->info.star, ==, "A3");
+  g_assert_cmpuint (row->info.line, ==, 3);
+  g_assert_cmpfloat (row->info.epoch, ==, 2016.0);
+
+  none = sl_match_list (f->project, "%", 100, &more, &error);
+  g_assert_cmpuint (none->len, ==, 0);
+  g_clear_pointer (&none, g_array_unref);
+  none = sl_match_list (f->project, "B_", 100, &more, &error);
+  g_assert_cmpuint (none->len, ==, 0);
+
+  g_assert_true (sl_match_split (f->project, &ref, 1, NULL, &error));
+  g_assert_no_error (error);
+  after = sl_match_list (f->project, "A3", 100, &more, &error);
+  g_assert_cmpuint (after->len, ==, 1);
+  row = &g_array_index (after, SlMatchListRow, 0);
+  g_assert_cmpstr (row->info.status, ==, "split");
+  g_assert_cmpstr (row->info.other_star, ==, "A3");
+  g_assert_cmpstr (row->info.star, ==, "B2");
+}
+
 int
 main (int argc, char **argv)
 {
@@ -487,6 +568,7 @@ main (int argc, char **argv)
   ADD ("/matching/split/all-or-nothing", test_split_all_or_nothing);
   ADD ("/matching/split/bad-references", test_split_bad_references);
   ADD ("/matching/explain", test_explain);
+  ADD ("/matching/list", test_match_list);
 #undef ADD
 
   return g_test_run ();

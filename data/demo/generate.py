@@ -1,6 +1,7 @@
 #!/usr/bin/python3
-# Generates the Starledger demo catalogues astrometry.csv and photometry.csv
-# for the invented "Larkspur Hill Observatory nearby-star programme".
+# Generates the Starledger demo catalogues astrometry.csv, photometry.csv and
+# second-epoch.csv for the invented "Larkspur Hill Observatory nearby-star
+# programme".
 # Every star, designation, partner catalogue and number written here is
 # fictitious: a synthetic, physically consistent population drawn from a
 # fixed-seed random generator, so the output is byte-for-byte reproducible.
@@ -75,6 +76,17 @@ PHOT_BAD_V_ROW = 154      # (g) v of 41.20
 PHOT_BAD_UTF8_FROM = 231  # (h) first G star with a type from this row on
 
 MISSING = "99.99"         # the partner's legacy missing-value marker
+
+# The second-epoch catalogue: another invented partner, the Tarn Ridge
+# survey, with its own designations, measured at another epoch.  It has its
+# own random generator, so the two files above do not change with it.
+SECOND_SEED = 20260326
+SECOND_EPOCH = 2016.0
+SECOND_RADIUS = 1.0       # arcsec: the match radius the walk-through uses
+N_SECOND_COMMON = 40      # programme stars it measured (besides the fast ones)
+N_SECOND_FAST = 6         # the fastest programme stars, all in it
+N_SECOND_PAIRS = 2        # programme stars it resolves into two rows
+N_SECOND_NEW = 5          # stars the programme does not list
 
 
 def interp(anchors, x):
@@ -382,6 +394,97 @@ def write_photometry(path, rng, stars, missing, companions, special):
         f.write(b"\r\n".join(out) + b"\r\n")
 
 
+def second_designation(k):
+    return "TRS J%04d" % k
+
+
+def back_to(st, epoch):
+    """The programme position of ST moved linearly to EPOCH, and the motion
+    in arcsec between the two epochs."""
+    dt = epoch - EPOCH
+    cosd = math.cos(math.radians(st["dec"]))
+    ra = (st["ra"] + st["pmra"] * dt / cosd / MAS_PER_DEG) % 360.0
+    dec = st["dec"] + st["pmdec"] * dt / MAS_PER_DEG
+    return ra, dec, math.hypot(st["pmra"], st["pmdec"]) * abs(dt) / 1000.0
+
+
+def offset_by(ra, dec, arcsec, pa):
+    """(RA, DEC) moved ARCSEC towards position angle PA (radians)."""
+    d = arcsec / 3600.0
+    return ((ra + d * math.sin(pa) / math.cos(math.radians(dec))) % 360.0,
+            dec + d * math.cos(pa))
+
+
+def build_second(stars, skip):
+    """The Tarn Ridge rows: (cells, kind) with kind 'common', 'fast',
+    'pair' or 'new', sorted by RA and named in that order."""
+    rng = random.Random(SECOND_SEED)
+    usable = [n for n in sorted(stars) if n not in skip]
+    speed = {n: math.hypot(stars[n]["pmra"], stars[n]["pmdec"]) for n in usable}
+    fast = sorted(usable, key=lambda n: (-speed[n], n))[:N_SECOND_FAST]
+    rest = [n for n in usable if n not in fast]
+    chosen = rng.sample(rest, N_SECOND_COMMON + N_SECOND_PAIRS)
+    pairs, common = chosen[:N_SECOND_PAIRS], chosen[N_SECOND_PAIRS:]
+
+    rows = []
+
+    def row(ra, dec, st, kind, pm=True):
+        # The survey's errors are larger than the programme's, so the
+        # programme's astrometry stays what a matched star shows.
+        ra_err = max(rng.uniform(4.0, 12.0), 2.0 * st["ra_err"]) if st else rng.uniform(4.0, 12.0)
+        dec_err = max(rng.uniform(4.0, 12.0), 2.0 * st["dec_err"]) if st else rng.uniform(4.0, 12.0)
+        ra, dec = offset_by(ra, dec, math.hypot(rng.gauss(0, ra_err), rng.gauss(0, dec_err)) / 1000.0,
+                            rng.uniform(0, 2 * math.pi))
+        if st and pm:
+            pm_err = max(rng.uniform(1.5, 4.0), 2.0 * st["pm_err"])
+            pmra = st["pmra"] + rng.gauss(0, pm_err)
+            pmdec = st["pmdec"] + rng.gauss(0, pm_err)
+            pm_cells = [fmt("%.2f", pmra), fmt("%.2f", pm_err), fmt("%.2f", pmdec), fmt("%.2f", pm_err)]
+        elif pm:
+            pm_err = rng.uniform(1.5, 4.0)
+            pm_cells = [fmt("%.2f", rng.gauss(0, 30)), fmt("%.2f", pm_err),
+                        fmt("%.2f", rng.gauss(0, 30)), fmt("%.2f", pm_err)]
+        else:
+            pm_cells = ["", "", "", ""]
+        rows.append(([fmt("%.8f", ra), fmt("%.2f", ra_err), fmt("%.8f", dec), fmt("%.2f", dec_err),
+                      "%.1f" % SECOND_EPOCH] + pm_cells, kind, st["n"] if st else None))
+
+    for n in fast + common:
+        ra, dec, _ = back_to(stars[n], SECOND_EPOCH)
+        row(ra, dec, stars[n], "fast" if n in fast else "common")
+    # Two components 0.3-0.4 arcsec either side of where the programme
+    # sees one star: both are its nearest, within the radius, so neither
+    # may be merged silently.
+    for n in pairs:
+        ra, dec, _ = back_to(stars[n], SECOND_EPOCH)
+        pa = rng.uniform(0, math.pi)
+        for side in (0.0, math.pi):
+            r2, d2 = offset_by(ra, dec, rng.uniform(0.3, 0.4), pa + side)
+            rows.append(([fmt("%.8f", r2), "15.00", fmt("%.8f", d2), "15.00", "%.1f" % SECOND_EPOCH,
+                          "", "", "", ""], "pair", n))
+    # Stars the programme does not list, well away from every star.
+    while sum(1 for r in rows if r[1] == "new") < N_SECOND_NEW:
+        ra = rng.uniform(0, 360)
+        dec = math.degrees(math.asin(rng.uniform(-1, 1)))
+        if all(abs(dec - st["dec"]) > 0.1 or abs(((ra - st["ra"] + 180) % 360) - 180) > 0.2
+               for st in stars.values()):
+            row(ra, dec, None, "new")
+    rows.sort(key=lambda r: float(r[0][0]))
+    return fast, pairs, rows
+
+
+def write_second(path, rows):
+    lines = [
+        "# Tarn Ridge survey, second-epoch astrometry extract (synthetic demonstration data, all stars fictitious)",
+        "# positions ICRS at epoch 2016.0, errors in mas (ra_err on the sky); proper motions in mas/yr",
+        "trs_id,ra_deg,ra_err_mas,dec_deg,dec_err_mas,epoch,pmra,pmra_err,pmdec,pmdec_err",
+    ]
+    for k, (cells, _, _) in enumerate(rows, start=1):
+        lines.append(",".join([second_designation(k)] + cells))
+    with open(path, "wb") as f:
+        f.write(("\n".join(lines) + "\n").encode("ascii"))
+
+
 def main(argv):
     if len(argv) != 2:
         sys.stderr.write("usage: generate.py OUTPUT_DIR\n")
@@ -399,6 +502,21 @@ def main(argv):
     write_astrometry(os.path.join(outdir, "astrometry.csv"), stars, dup, empty)
     write_photometry(os.path.join(outdir, "photometry.csv"), rng, stars,
                      missing, companions, special)
+
+    # Rows that name a programme star must find it: not the stars whose
+    # astrometry row is bad (they exist only at the photometry's epoch).
+    skip = {BAD_DEC_ID, BAD_PLX_ID, ZERO_PLXERR_ID, DUP_OF_ID, QUOTED_ID} | set(NEAR_EQUATOR_IDS)
+    fast, pairs, rows = build_second(stars, skip)
+    moved = [back_to(stars[n], SECOND_EPOCH)[2] for n in fast]
+    assert min(moved) > 3 * SECOND_RADIUS, "the fast stars must move well beyond the radius"
+    write_second(os.path.join(outdir, "second-epoch.csv"), rows)
+    if os.environ.get("DEMO_SECOND_REPORT"):
+        for k, (cells, kind, n) in enumerate(rows, start=1):
+            line = k + 3
+            extra = ""
+            if n is not None:
+                extra = " %s moves %.2f arcsec" % (designation(n), back_to(stars[n], SECOND_EPOCH)[2])
+            print("line %d %s %s%s" % (line, second_designation(k), kind, extra))
     return 0
 
 

@@ -171,12 +171,18 @@ setup_label (GtkSignalListItemFactory *factory, GtkListItem *list_item, ColumnDa
 {
   GtkWidget *label = gtk_label_new (NULL);
   gboolean is_text = sl_catalogue_column_info (data->column)->kind == SL_CATALOGUE_KIND_TEXT;
+  SlCatalogueKind kind;
 
   gtk_label_set_xalign (GTK_LABEL (label), is_text ? 0.0f : 1.0f);
   gtk_label_set_ellipsize (GTK_LABEL (label), PANGO_ELLIPSIZE_END);
   gtk_label_set_single_line_mode (GTK_LABEL (label), TRUE);
   if (!is_text)
     gtk_widget_add_css_class (label, "numeric");
+  /* GTK 4.8 has no column-header tooltip: the cells say the frame and
+   * epoch (export --epoch gives positions at another epoch). */
+  kind = sl_catalogue_column_info (data->column)->kind;
+  if (kind == SL_CATALOGUE_KIND_RA || kind == SL_CATALOGUE_KIND_DEC)
+    gtk_widget_set_tooltip_text (label, _("ICRS, at each star's catalogue epoch"));
   add_click (label, list_item, data);
   gtk_list_item_set_child (list_item, label);
 }

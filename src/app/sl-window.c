@@ -33,6 +33,7 @@
 #include "sl-figure-dialog.h"
 #include "sl-import-dialog.h"
 #include "sl-lists-panel.h"
+#include "sl-matches-panel.h"
 #include "sl-plot-view.h"
 #include "sl-recent-projects.h"
 #include "sl-view-pane.h"
@@ -350,6 +351,7 @@ reload (SlWindow *self)
   show_ledger (self, project);
   update_trail (self);
   sl_lists_panel_reload (self->lists);
+  sl_matches_panel_reload (sl_matches_panel_of (self));
   sl_catalogue_view_reload (self->catalogue);
   load_stars (self);
 }
@@ -383,6 +385,7 @@ sl_window_open_project (SlWindow *self, const char *path, GError **error)
   set_text (self->trail_view, _("Click a value in the table to see how it was obtained."));
   show_ledger (self, project);
   sl_lists_panel_set_current (self->lists, NULL);
+  sl_matches_panel_reload (sl_matches_panel_of (self));
   if (self->work_cancel == NULL)
     show_work (self, NULL);
   sl_recent_projects_add (path);
@@ -391,10 +394,11 @@ sl_window_open_project (SlWindow *self, const char *path, GError **error)
 }
 
 /* The demo project as build-aux/dev and README make it (data/demo/README.md
- * describes the two files and their dialects). */
+ * describes the three files and their dialects). */
 static gboolean
 import_demo_file (SlProject *project, const char *dir, const char *file, const char *source_name,
-                  const char *const *map_specs, const char *const *missing, double epoch, GError **error)
+                  const char *const *map_specs, const char *const *missing, double epoch,
+                  double match_radius, GError **error)
 {
   g_autofree char *path = g_build_filename (dir, file, NULL);
   g_autoptr (GArray) maps = g_array_new (FALSE, FALSE, sizeof (SlColumnMap));
@@ -416,6 +420,7 @@ import_demo_file (SlProject *project, const char *dir, const char *file, const c
   options.missing = missing;
   options.epoch = epoch;
   options.source_name = source_name;
+  options.match_radius = match_radius;
   report = sl_import_csv (project, path, &options, error);
   return report != NULL;
 }
@@ -428,6 +433,9 @@ sl_window_open_demo (SlWindow *self, GError **error)
     "bv_err=b_minus_v_sigma", "ebv=reddening", "ebv_err=reddening_sigma", "sptype=spectral_type", NULL
   };
   static const char *const missing[] = { "99.99", NULL };
+  static const char *const second_map[] = {
+    "id=trs_id", "ra=ra_deg", "ra_err=ra_err_mas", "dec=dec_deg", "dec_err=dec_err_mas", NULL
+  };
   g_autofree char *dir = g_build_filename (g_get_user_cache_dir (), "starledger", NULL);
   g_autofree char *path = g_build_filename (dir, "demo.starledger", NULL);
   g_autofree char *wal = g_strconcat (path, "-wal", NULL);
@@ -445,9 +453,11 @@ sl_window_open_demo (SlWindow *self, GError **error)
   sl_derive_params_init (&params);
   if (project == NULL
       || !import_demo_file (project, demo, "astrometry.csv", _("Larkspur Hill astrometry 2026"), NULL, NULL,
-                            NAN, error)
+                            NAN, 0.0, error)
       || !import_demo_file (project, demo, "photometry.csv", _("Partner photometry extract"), photometry_map,
-                            missing, 2000.0, error)
+                            missing, 2000.0, 0.0, error)
+      || !import_demo_file (project, demo, "second-epoch.csv", _("Tarn Ridge second epoch 2016"), second_map,
+                            NULL, NAN, 1.0, error)
       || !sl_derivation_run (project, &params, FALSE, NULL, NULL, NULL, &report, error))
     return FALSE;
   g_clear_pointer (&project, sl_project_close);
@@ -1104,6 +1114,7 @@ sl_window_class_init (SlWindowClass *klass)
   gtk_widget_class_add_binding_action (widget_class, GDK_KEY_i, GDK_CONTROL_MASK, "win.import", NULL);
   gtk_widget_class_add_binding_action (widget_class, GDK_KEY_Escape, 0, "win.restore-views", NULL);
   sl_lists_panel_install_actions (widget_class);
+  sl_matches_panel_install_actions (widget_class);
 }
 
 static void
@@ -1145,6 +1156,7 @@ sl_window_init (SlWindow *self)
   add_view (self, SL_PLOT_KIND_PARALLAX, self->parallax_box);
   self->lists = sl_lists_panel_new (self);
   gtk_notebook_append_page (self->side_notebook, GTK_WIDGET (self->lists), gtk_label_new (_("Lists")));
+  gtk_notebook_append_page (self->side_notebook, GTK_WIDGET (sl_matches_panel_new (self)), gtk_label_new (_("Matches")));
 
   drop = gtk_drop_target_new (G_TYPE_FILE, GDK_ACTION_COPY);
   g_signal_connect (drop, "drop", G_CALLBACK (on_drop), self);

@@ -3,7 +3,8 @@
  * An input's interval is its value plus or minus its 1-sigma error.  The
  * right ascension error is on the sky (times cos Dec), so the RA interval
  * in degrees is widened by 1/cos Dec; at the poles it has no bounds.
- * Derived values come with the bounds stored by their run.
+ * Derived values come with the bounds stored by their run.  Positions
+ * at another epoch: see export.h.
  */
 #include "export.h"
 
@@ -12,6 +13,7 @@
 #include <stdio.h>
 #include <string.h>
 
+#include "crossmatch.h"
 #include "derivation.h"
 #include "inputs.h"
 #include "lists.h"
@@ -140,6 +142,32 @@ resolve_columns (const char *const *names, GError **error)
   return columns;
 }
 
+/* With positions at an epoch, the epoch column says which epoch each
+ * row's position is at: chosen ra or dec bring it, right after them. */
+static void
+add_epoch_column (GArray *columns)
+{
+  guint after = 0;
+  gboolean has_position = FALSE;
+
+  for (guint i = 0; i < columns->len; i++)
+    {
+      const Column *c = &g_array_index (columns, Column, i);
+
+      if (c->kind != COLUMN_INPUT)
+        continue;
+      if (c->index == SL_FIELD_EPOCH)
+        return;
+      if (c->index == SL_FIELD_RA || c->index == SL_FIELD_DEC)
+        {
+          has_position = TRUE;
+          after = i + 1;
+        }
+    }
+  if (has_position)
+    g_array_insert_val (columns, after, ((Column) { COLUMN_INPUT, SL_FIELD_EPOCH }));
+}
+
 /* ------------------------------------------------------------------ */
 /* One row's cells                                                    */
 
@@ -147,6 +175,7 @@ resolve_columns (const char *const *names, GError **error)
 typedef struct {
   const SlStarInputs *in;
   const SlDerivedRow *derived;   /* NULL if the star was never derived */
+  gboolean            not_propagated;  /* asked for another epoch, but not moved */
 } StarRow;
 
 /* The half-width of an input's interval in its own unit, or NAN if none. */
@@ -204,16 +233,85 @@ column_text (const Column *c, const StarRow *row, char **free_me)
   if (c->kind == COLUMN_DERIVED)
     return row->derived && row->derived->values.has[c->index] ? row->derived->values.text[c->index] : NULL;
   if (row->derived == NULL)
-    return "not_derived";
-  *free_me = sl_flags_to_string (row->derived->values.flags);
-  if (row->derived->stale)
+    *free_me = g_strdup ("not_derived");
+  else
+    *free_me = sl_flags_to_string (row->derived->values.flags);
+  if (row->derived != NULL && row->derived->stale)
     {
       char *with_stale = g_strconcat (**free_me ? *free_me : "", **free_me ? "|" : "", "stale", NULL);
 
       g_free (*free_me);
       *free_me = with_stale;
     }
+  if (row->not_propagated)
+    {
+      char *with_note = g_strconcat (**free_me ? *free_me : "", **free_me ? "|" : "",
+                                     SL_EXPORT_FLAG_NOT_PROPAGATED, NULL);
+
+      g_free (*free_me);
+      *free_me = with_note;
+    }
   return *free_me;
+}
+
+/* ------------------------------------------------------------------ */
+/* Positions at an epoch                                              */
+
+/* A 1-sigma position error (mas) grown over DT years by a proper-motion
+ * error (mas/yr): the first-order propagation sigma^2 = sigma_0^2 +
+ * (dt sigma_mu)^2 (ESA 1997, Hipparcos Catalogue Vol. 1, Sect. 1.5.5,
+ * without the position/proper-motion correlations, which no catalogue
+ * row we read carries). */
+static double
+grown_error (double sigma0, double dt, double sigma_mu)
+{
+  return sqrt (sigma0 * sigma0 + dt * dt * sigma_mu * sigma_mu);
+}
+
+gboolean
+sl_export_position_at_epoch (SlStarInputs *in, double epoch)
+{
+  SlAstrometry a;
+  double ra, dec, dt;
+
+  if (!in->present[SL_FIELD_RA] || !in->present[SL_FIELD_DEC] || !in->present[SL_FIELD_EPOCH]
+      || !in->present[SL_FIELD_PMRA] || !in->present[SL_FIELD_PMDEC] || !isfinite (epoch))
+    return FALSE;
+  sl_astrometry_init (&a);
+  a.ra = in->value[SL_FIELD_RA];
+  a.dec = in->value[SL_FIELD_DEC];
+  a.epoch = in->value[SL_FIELD_EPOCH];
+  a.pmra = in->value[SL_FIELD_PMRA];
+  a.pmdec = in->value[SL_FIELD_PMDEC];
+  if (in->present[SL_FIELD_PARALLAX])
+    a.parallax = in->value[SL_FIELD_PARALLAX];
+  if (in->present[SL_FIELD_VRAD])
+    a.vrad = in->value[SL_FIELD_VRAD];
+  dt = epoch - a.epoch;
+  /* The same epoch: nothing moves, and it is where it was asked to be. */
+  if (dt != 0.0 && !sl_astrometry_propagate (&a, epoch, &ra, &dec))
+    return FALSE;
+  if (dt != 0.0)
+    {
+      in->value[SL_FIELD_RA] = ra;
+      in->value[SL_FIELD_DEC] = dec;
+    }
+  in->value[SL_FIELD_EPOCH] = epoch;
+  /* Each coordinate's error grows with its own proper-motion error; with
+   * that unknown, so is the error at the new epoch. */
+  for (guint k = 0; k < 2; k++)
+    {
+      SlField error = k == 0 ? SL_FIELD_RA_ERR : SL_FIELD_DEC_ERR;
+      SlField pm_error = k == 0 ? SL_FIELD_PMRA_ERR : SL_FIELD_PMDEC_ERR;
+
+      if (!in->present[error] || dt == 0.0)
+        continue;
+      if (in->present[pm_error])
+        in->value[error] = grown_error (in->value[error], dt, in->value[pm_error]);
+      else
+        in->present[error] = FALSE;
+    }
+  return TRUE;
 }
 
 /* ------------------------------------------------------------------ */
@@ -334,10 +432,19 @@ write_tex_text (FILE *out, const char *text)
 }
 
 static void
-write_tex_header (FILE *out, GArray *columns)
+write_tex_header (FILE *out, GArray *columns, const SlExportOptions *options)
 {
+  char epoch[G_ASCII_DTOSTR_BUF_SIZE];
+
   fputs ("% Written by Starledger " PACKAGE_VERSION ". Uncertainties are 68% intervals, rounded\n"
          "% to their significant digits (Particle Data Group rule).\n", out);
+  /* The frame and epoch travel with the table. */
+  if (options->at_epoch)
+    fprintf (out, "%% Positions: ICRS, epoch J%s, carried from each star's catalogue epoch with its\n"
+             "%% proper motion; stars flagged position_not_propagated stay at their catalogue epoch.\n",
+             g_ascii_formatd (epoch, sizeof epoch, "%.2f", options->epoch));
+  else
+    fputs ("% Positions: ICRS, at each star's catalogue epoch (the epoch column).\n", out);
   fputs ("\\begin{tabular}{l", out);
   for (guint i = 0; i < columns->len; i++)
     fputs (column_is_text (&g_array_index (columns, Column, i)) ? "l" : "r", out);
@@ -427,6 +534,8 @@ sl_export (SlProject *project, const char *path, const SlExportOptions *options,
   columns = resolve_columns (options->columns, error);
   if (columns == NULL)
     return -1;
+  if (options->at_epoch)
+    add_epoch_column (columns);
   /* Read in one transaction so the table is one consistent snapshot. */
   if (!sl_project_exec (project, "BEGIN", error))
     return -1;
@@ -445,7 +554,7 @@ sl_export (SlProject *project, const char *path, const SlExportOptions *options,
     }
 
   if (options->format == SL_EXPORT_TEX)
-    write_tex_header (out, columns);
+    write_tex_header (out, columns, options);
   else
     write_csv_header (out, columns);
   while (sl_input_cursor_next (cursor, &inputs, &local_error))
@@ -460,6 +569,8 @@ sl_export (SlProject *project, const char *path, const SlExportOptions *options,
           if (next_member == list_ids->len || g_array_index (list_ids, gint64, next_member) != inputs.star_id)
             continue;
         }
+      if (options->at_epoch && inputs.present[SL_FIELD_RA])
+        row.not_propagated = !sl_export_position_at_epoch (&inputs, options->epoch);
       if (next_derived_row (derived, inputs.star_id, &derived_row, &pending, &finished))
         row.derived = &derived_row;
       if (options->format == SL_EXPORT_TEX)

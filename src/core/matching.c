@@ -721,6 +721,12 @@ match_info_clear (gpointer data)
   g_free (info->split_at);
 }
 
+void
+sl_match_info_clear (SlMatchInfo *info)
+{
+  match_info_clear (info);
+}
+
 GArray *
 sl_match_infos_for_star (SlProject *project, gint64 star_id, GError **error)
 {

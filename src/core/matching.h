@@ -96,6 +96,9 @@ typedef struct {
   char   *split_by, *split_at;
 } SlMatchInfo;
 
+/* Frees INFO's members. */
+void sl_match_info_clear (SlMatchInfo *info);
+
 /* The match records of STAR_ID's rows and of rows split from it
  * (SlMatchInfo, by source and line). */
 GArray *sl_match_infos_for_star (SlProject *project, gint64 star_id, GError **error);
