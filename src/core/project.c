@@ -267,6 +267,14 @@ check_identity (SlProject *project, GError **error)
     }
 
   version = query_pragma (project, "user_version");
+  if (version == 0 && !has_no_tables (project))
+    {
+      /* A project is created with its tables and version in one
+       * transaction: tables without a version were not made by Starledger. */
+      g_set_error (error, SL_ERROR, SL_ERROR_NOT_A_PROJECT,
+                   _("%s: a damaged project (tables but no schema version)"), project->path);
+      return FALSE;
+    }
   if (version > sl_schema_current_version ())
     {
       g_set_error (error, SL_ERROR, SL_ERROR_SCHEMA_TOO_NEW,
@@ -323,11 +331,16 @@ sl_project_open (const char *path, GError **error)
       return NULL;
     }
 
+  /* The journal mode is written into the file's header: set it only once
+   * the file has proved to be a project, so that a refused file is left
+   * byte for byte as it was (found by fuzzing). */
   project = connect (path, SQLITE_OPEN_READWRITE, error);
-  if (project == NULL || !check_identity (project, error) || !set_journal (project, error))
+  if (project == NULL || !check_identity (project, error))
     return NULL;
   if (project->schema_version < sl_schema_current_version ()
       && !upgrade_schema (project, error))
+    return NULL;
+  if (!set_journal (project, error))
     return NULL;
   return g_steal_pointer (&project);
 }
