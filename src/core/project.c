@@ -324,7 +324,9 @@ sl_project_open (const char *path, GError **error)
     }
 
   project = connect (path, SQLITE_OPEN_READWRITE, error);
-  if (project == NULL || !check_identity (project, error) || !set_journal (project, error))
+  if (project == NULL || !check_identity (project, error)
+      || !sl_schema_check (project->db, project->schema_version, path, error)
+      || !set_journal (project, error))
     return NULL;
   if (project->schema_version < sl_schema_current_version ()
       && !upgrade_schema (project, error))
