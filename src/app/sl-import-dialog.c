@@ -300,6 +300,8 @@ report_summary (const SlImportReport *report)
     }
   for (guint i = 0; i < report->notes->len; i++)
     g_string_append_printf (text, _("\nNote: %s."), (const char *) report->notes->pdata[i]);
+  for (guint i = 0; i < report->warnings->len; i++)
+    g_string_append_printf (text, _("\nWarning: %s."), (const char *) report->warnings->pdata[i]);
   return g_string_free (text, FALSE);
 }
 

@@ -68,6 +68,8 @@ typedef struct {
   GArray    *rejections;      /* SlRejection, in file order */
   GPtrArray *ignored_columns; /* header names that map to no field */
   GPtrArray *notes;           /* things the user should know, one sentence each */
+  GPtrArray *warnings;        /* values that look wrong though valid (a unit mismatch),
+                               * one sentence each, naming the file and column */
 } SlImportReport;
 
 SlImportReport *sl_import_csv (SlProject *project, const char *path,
