@@ -115,7 +115,7 @@ static const BadInput bad_inputs[] = {
   { "parallax-looks-like-arcsec", "id,plx,e_plx\nA,0.0123,0.0004\nB,0.2051,0.0009\nC,-0.0021,0.0008\n", -1,
     { "parallax=plx", "parallax_err=e_plx", NULL }, 0, WARNED, 0,
     "bad.csv: column 'plx' was read as parallax in mas, but all 3 values are below 1 with errors below 0.01: "
-    "they look like arcseconds; if so, import again with --map parallax=plx:arcsec --map parallax_err=e_plx:arcsec" },
+    "they look like arcseconds; if they are, read columns 'plx' and 'e_plx' in arcsec" },
   /* ... and not when one value is a plausible parallax in mas. */
   { "parallax-in-mas-no-warning", "id,plx,e_plx\nA,0.0123,0.0004\nB,12.3,0.05\n", -1,
     { "parallax=plx", "parallax_err=e_plx", NULL }, 0, STORED, 0, NULL },

@@ -13,7 +13,8 @@
  *    for it (SQLite's busy timeout) and goes on, or after the timeout says
  *    the project is busy; two imports, and an import with a derive, run
  *    at once, and afterwards the project holds exactly what the ones that
- *    succeeded wrote. */
+ *    succeeded wrote.
+ *  - And what the user reads of a bad input: the warning, the refusal. */
 #include <gio/gio.h>
 #include <grp.h>
 #include <glib/gstdio.h>
@@ -419,6 +420,32 @@ test_two_imports_at_once (void)
   sl_test_scratch_free (g_steal_pointer (&dir));
 }
 
+/* --------------------------------------------- what the user reads */
+
+/* The command line prints the import's warning, and a refused file is
+ * one line naming the file and line. */
+static void
+test_warning_and_refusal_printed (void)
+{
+  g_autofree char *dir = sl_test_scratch_new ();
+  g_autofree char *project = g_build_filename (dir, "p.starledger", NULL);
+  g_autofree char *arcsec = sl_test_write_file (dir, "arcsec.csv",
+                                                "id,parallax,parallax_err\nA,0.0213,0.0008\n", -1);
+  g_autofree char *bars = sl_test_write_file (dir, "bars.csv", "id|parallax\nA|1\n", -1);
+  g_auto (CliResult) created = { 0 };
+  g_auto (CliResult) warned = { 0 };
+  g_auto (CliResult) refused = { 0 };
+
+  run_cli (&created, "new", project, NULL);
+  g_assert_cmpint (created.status, ==, 0);
+  run_cli (&warned, "import", project, arcsec, NULL);
+  g_assert_cmpint (warned.status, ==, 0);
+  assert_contains (warned.out, "WARNING: arcsec.csv: column 'parallax' was read as parallax in mas");
+  run_cli (&refused, "import", project, bars, NULL);
+  assert_user_error (&refused, "bars.csv:1: the header is one column, 'id|parallax', holding a vertical bar");
+  sl_test_scratch_free (g_steal_pointer (&dir));
+}
+
 int
 main (int argc, char **argv)
 {
@@ -428,6 +455,7 @@ main (int argc, char **argv)
   g_test_add_func ("/cli/faults/read-only", test_read_only);
   g_test_add_func ("/cli/faults/busy-waits-then-says-busy", test_busy_waits_then_says_busy);
   g_test_add_func ("/cli/faults/two-writers-at-once", test_two_imports_at_once);
+  g_test_add_func ("/cli/bad-input/warning-and-refusal-printed", test_warning_and_refusal_printed);
 
   return g_test_run ();
 }

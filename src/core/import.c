@@ -847,8 +847,7 @@ unit_warnings (const Import *im)
       g_ptr_array_add (im->report->warnings,
                        g_strdup_printf (_("%s: column '%s' was read as parallax in mas, but all %s "
                                           "values are below 1 with errors below 0.01: they look like "
-                                          "arcseconds; if so, import again with --map parallax=%s:arcsec "
-                                          "--map parallax_err=%s:arcsec"),
+                                          "arcseconds; if they are, read columns '%s' and '%s' in arcsec"),
                                         im->report->file_name,
                                         im->header->fields[im->plan.column[SL_FIELD_PARALLAX]], count,
                                         im->header->fields[im->plan.column[SL_FIELD_PARALLAX]],
