@@ -50,7 +50,7 @@ static const BadInput bad_inputs[] = {
     "bad.csv: no header row" },
   { "header-only", "id,parallax,parallax_err\n", -1, { NULL }, 0, REFUSED, SL_ERROR_NOTHING_ACCEPTED,
     "bad.csv: no data rows after the header (line 1)" },
-  { "binary-png", "\x89PNG\r\n\x1a\n\0\0\0\rIHDR\0\0\0\x10", 24, { NULL }, 0, REFUSED, SL_ERROR_BAD_INPUT,
+  { "binary-png", "\x89PNG\r\n\x1a\n\0\0\0\rIHDR\0\0\0\x10", 20, { NULL }, 0, REFUSED, SL_ERROR_BAD_INPUT,
     "bad.csv: not a text file (a NUL byte at offset 8)" },
   { "binary-late-nul", "id,parallax\nA,1\nB,2\0\n", 21, { NULL }, 0, REFUSED, SL_ERROR_BAD_INPUT,
     "bad.csv: not a text file (a NUL byte at offset 19)" },
