@@ -380,9 +380,17 @@ sl_project_open (const char *path, GError **error)
   project = connect (path, SQLITE_OPEN_READWRITE, error);
   if (project != NULL)
     project = reopen_if_unreadable (project, error);
-  if (project == NULL || !check_identity (project, error)
-      || !sl_schema_check (project->db, project->schema_version, path, error)
-      || !set_journal (project, error))
+  /* The version and the schema from one snapshot: another process may be
+   * upgrading the file at this moment. */
+  if (project == NULL || !sl_project_exec (project, "BEGIN", error))
+    return NULL;
+  if (!check_identity (project, error)
+      || !sl_schema_check (project->db, project->schema_version, path, error))
+    {
+      sl_project_rollback (project);
+      return NULL;
+    }
+  if (!sl_project_commit (project, error) || !set_journal (project, error))
     return NULL;
   if (project->schema_version < sl_schema_current_version ()
       && !upgrade_schema (project, error))
