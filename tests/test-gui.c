@@ -1053,6 +1053,57 @@ test_import_assistant_stop (void)
   sl_test_scratch_free (g_steal_pointer (&dir));
 }
 
+/* A parallax column whose values look like arcseconds though read in
+ * mas: the check shows the warning, and writes nothing.  Saved as
+ * gui-import-warning.png. */
+static void
+test_import_assistant_unit_warning (void)
+{
+  g_autofree char *path = demo_path ();
+  g_autofree char *dir = sl_test_scratch_new ();
+  g_autofree char *file = sl_test_write_file (dir, "gui-arcsec.csv",
+                                              "id,parallax,parallax_err\n"
+                                              "GUI W001,0.0213,0.0008\n"
+                                              "GUI W002,0.0087,0.0011\n", -1);
+  SlImportDialog *assistant;
+  gint64 sources;
+
+  ENSURE_DEMO ();
+  WAIT_UNTIL (!sl_window_is_working (demo) && !sl_window_is_loading (demo), LOAD_TIMEOUT_S,
+              "earlier work to finish");
+  sources = count_in (path, "SELECT count(*) FROM sources");
+  assistant = sl_import_dialog_open (demo, file);
+  g_assert_nonnull (assistant);
+  g_assert_true (gtk_widget_activate_action (GTK_WIDGET (assistant), "assistant.check", NULL));
+  WAIT_UNTIL (!sl_import_dialog_is_checking (assistant), LOAD_TIMEOUT_S, "the check");
+  g_test_message ("check: %s", sl_import_dialog_get_check_summary (assistant));
+  g_assert_nonnull (strstr (sl_import_dialog_get_check_summary (assistant),
+                            "\nWarning: gui-arcsec.csv: column 'parallax' was read as parallax in mas, "
+                            "but all 2 values are below 1 with errors below 0.01: they look like arcseconds"));
+  {
+    /* The check's findings are at the foot of the page. */
+    GtkWidget *scrolled = find_descendant (GTK_WIDGET (assistant), GTK_TYPE_SCROLLED_WINDOW);
+    GtkAdjustment *adjustment = gtk_scrolled_window_get_vadjustment (GTK_SCROLLED_WINDOW (scrolled));
+
+    PAINT (assistant);
+    gtk_adjustment_set_value (adjustment, gtk_adjustment_get_upper (adjustment));
+  }
+  PAINT (assistant);
+  save_window_png (GTK_WIDGET (assistant), "gui-import-warning.png");
+
+  /* Read in arcseconds, the same file gives no warning. */
+  choose (sl_import_dialog_get_unit_chooser (assistant, 1), "arcsec");
+  choose (sl_import_dialog_get_unit_chooser (assistant, 2), "arcsec");
+  g_assert_true (gtk_widget_activate_action (GTK_WIDGET (assistant), "assistant.check", NULL));
+  WAIT_UNTIL (!sl_import_dialog_is_checking (assistant), LOAD_TIMEOUT_S, "the second check");
+  g_assert_nonnull (strstr (sl_import_dialog_get_check_summary (assistant), "2 would be imported"));
+  g_assert_null (strstr (sl_import_dialog_get_check_summary (assistant), "Warning"));
+  gtk_window_close (GTK_WINDOW (assistant));
+  WAIT_UNTIL (find_toplevel (SL_TYPE_IMPORT_DIALOG) == NULL, FRAME_TIMEOUT_S, "the assistant to close");
+  g_assert_cmpint (count_in (path, "SELECT count(*) FROM sources"), ==, sources);
+  sl_test_scratch_free (g_steal_pointer (&dir));
+}
+
 /* The window as a picture: not blank; the table's text on the left; the
  * HR diagram in colour; with two stars selected, their parallax paths.
  * Saved as gui-snapshot.png and gui-selected.png. */
@@ -2992,6 +3043,7 @@ main (int argc, char **argv)
   g_test_add_func ("/gui/lists/export-delete", test_lists_export_delete);
   g_test_add_func ("/gui/matches/panel", test_matches_panel);
   g_test_add_func ("/gui/catalogue/columns", test_catalogue_columns);
+  g_test_add_func ("/gui/import/assistant-unit-warning", test_import_assistant_unit_warning);
   status = g_test_run ();
 
   if (demo)

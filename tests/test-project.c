@@ -471,6 +471,121 @@ test_hardening (Fixture *f, gconstpointer data)
   g_assert_error (error, SL_ERROR, SL_ERROR_DATABASE);
 }
 
+/* ------------------------------------------------ untrusted files */
+
+/* A project file changed by another program before it reaches us: BASE is
+ * "new" (a project this build made) or a frozen fixture in tests/data;
+ * EDIT runs in a plain SQLite connection; the open must be refused with
+ * a message containing MESSAGE, and must not change the file. */
+typedef struct {
+  const char *name;
+  const char *base;
+  const char *edit;
+  const char *message;   /* '@': the current schema version */
+} CraftedCase;
+
+static const CraftedCase crafted_cases[] = {
+  { "trigger", "new",
+    "CREATE TRIGGER steal AFTER INSERT ON ledger BEGIN DELETE FROM measurements; END",
+    "Starledger does not make: the trigger 'steal'" },
+  { "view", "new",
+    "CREATE VIEW bright AS SELECT * FROM measurements WHERE vmag < 6",
+    "Starledger does not make: the view 'bright'" },
+  { "extra-table", "new", "CREATE TABLE notes (t TEXT)",
+    "Starledger does not make: the table 'notes'" },
+  { "extra-index", "new", "CREATE INDEX by_vmag ON measurements (vmag)",
+    "Starledger does not make: the index 'by_vmag'" },
+  { "extra-column", "new", "ALTER TABLE stars ADD COLUMN secret TEXT",
+    "the table 'stars' is not as schema version @ defines it" },
+  { "missing-table", "new", "DROP TABLE overrides",
+    "the table 'overrides' of schema version @ is missing" },
+  { "missing-index", "new", "DROP INDEX sources_by_sha256",
+    "the index 'sources_by_sha256' of schema version @ is missing" },
+  { "table-altered", "new",
+    "DROP TABLE settings; CREATE TABLE settings (key TEXT PRIMARY KEY, value ANY) STRICT",
+    "the table 'settings' is not as schema version @ defines it" },
+  { "check-added", "new",
+    "DROP INDEX overrides_active; DROP TABLE overrides;"
+    "CREATE TABLE overrides (id INTEGER PRIMARY KEY, star_id INTEGER NOT NULL REFERENCES stars (id),"
+    " quantity TEXT NOT NULL, value REAL NOT NULL CHECK (value > 0), lo REAL, hi REAL, reason TEXT NOT NULL,"
+    " set_by TEXT NOT NULL, set_at TEXT NOT NULL, cleared_by TEXT, cleared_at TEXT) STRICT;"
+    "CREATE UNIQUE INDEX overrides_active ON overrides (star_id, quantity) WHERE cleared_at IS NULL",
+    "the table 'overrides' is not as schema version @ defines it" },
+  /* An old file is checked against its own version, before the upgrade. */
+  { "old-version-trigger", "project-v1.sql",
+    "CREATE TRIGGER t AFTER INSERT ON stars BEGIN SELECT 1; END",
+    "Starledger does not make: the trigger 't' (schema version 1)" },
+  { "old-version-later-table", "project-v1.sql",
+    "CREATE TABLE settings (key TEXT PRIMARY KEY, value TEXT NOT NULL) STRICT",
+    "Starledger does not make: the table 'settings' (schema version 1)" },
+  { "old-version-missing-table", "project-v2.sql", "DROP TABLE list_members",
+    "the table 'list_members' of schema version 2 is missing" },
+};
+
+static void
+test_open_crafted (Fixture *f, gconstpointer data)
+{
+  const CraftedCase *c = data;
+  g_autoptr (GError) error = NULL;
+  g_autofree char *before = NULL;
+  g_autofree char *after = NULL;
+  gsize before_len, after_len;
+  gint64 version;
+  sqlite3 *db;
+
+  if (strcmp (c->base, "new") == 0)
+    sl_project_close (sl_project_create (f->path, &error));
+  else
+    {
+      g_autofree char *fixture = g_build_filename (g_getenv ("STARLEDGER_SOURCE_DIR"), "tests",
+                                                   "data", c->base, NULL);
+      g_autofree char *sql = NULL;
+
+      g_assert_true (g_file_get_contents (fixture, &sql, NULL, NULL));
+      run_raw_sql (f->path, sql);
+    }
+  g_assert_no_error (error);
+  run_raw_sql (f->path, c->edit);
+  g_assert_true (g_file_get_contents (f->path, &before, &before_len, NULL));
+
+  g_assert_null (sl_project_open (f->path, &error));
+  g_assert_error (error, SL_ERROR, SL_ERROR_UNTRUSTED);
+  g_assert_true (g_str_has_prefix (error->message, f->path));
+  {
+    g_autofree char *current = g_strdup_printf ("%d", sl_schema_current_version ());
+    g_auto (GStrv) parts = g_strsplit (c->message, "@", -1);
+    g_autofree char *want = g_strjoinv (current, parts);
+
+    if (strstr (error->message, want) == NULL)
+      g_error ("message: want one containing \"%s\", got \"%s\"", want, error->message);
+  }
+
+  /* Refused before anything was written: not upgraded, not a byte changed. */
+  g_assert_true (g_file_get_contents (f->path, &after, &after_len, NULL));
+  g_assert_cmpmem (after, after_len, before, before_len);
+  g_assert_cmpint (sqlite3_open (f->path, &db), ==, SQLITE_OK);
+  version = sl_test_query_int (db, "PRAGMA user_version");
+  sqlite3_close (db);
+  g_assert_cmpint (version, ==, strcmp (c->base, "new") == 0 ? sl_schema_current_version ()
+                                : c->base[strlen ("project-v")] - '0');
+}
+
+/* What SQLite itself adds (ANALYZE's statistics) is not a foreign object,
+ * and an untouched project of every older version opens. */
+static void
+test_open_statistics_allowed (Fixture *f, gconstpointer data)
+{
+  g_autoptr (GError) error = NULL;
+  g_autoptr (SlProject) project = NULL;
+
+  sl_project_close (sl_project_create (f->path, &error));
+  g_assert_no_error (error);
+  run_raw_sql (f->path, "ANALYZE");
+  project = sl_project_open (f->path, &error);
+  g_assert_no_error (error);
+  g_assert_nonnull (project);
+}
+
 int
 main (int argc, char **argv)
 {
@@ -489,6 +604,14 @@ main (int argc, char **argv)
   ADD ("/project/migrate/from-version-2", test_migrate_from_v2);
   ADD ("/project/migrate/from-version-3", test_migrate_from_v3);
   ADD ("/project/hardening", test_hardening);
+  ADD ("/project/untrusted/statistics-allowed", test_open_statistics_allowed);
+  for (gsize i = 0; i < G_N_ELEMENTS (crafted_cases); i++)
+    {
+      g_autofree char *path = g_strdup_printf ("/project/untrusted/%s", crafted_cases[i].name);
+
+      g_test_add (path, Fixture, &crafted_cases[i], fixture_set_up, test_open_crafted,
+                  fixture_tear_down);
+    }
 #undef ADD
 
   return g_test_run ();

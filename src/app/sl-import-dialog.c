@@ -309,6 +309,8 @@ report_summary (const SlImportReport *report)
     }
   for (guint i = 0; i < report->notes->len; i++)
     g_string_append_printf (text, _("\nNote: %s."), (const char *) report->notes->pdata[i]);
+  for (guint i = 0; i < report->warnings->len; i++)
+    g_string_append_printf (text, _("\nWarning: %s."), (const char *) report->warnings->pdata[i]);
   return g_string_free (text, FALSE);
 }
 
@@ -739,13 +741,14 @@ build_column_rows (SlImportDialog *self)
       GtkWidget *row = adw_action_row_new ();
       GtkWidget *field = gtk_drop_down_new (G_LIST_MODEL (g_object_ref (names)), NULL);
       GtkWidget *unit = gtk_drop_down_new (NULL, NULL);
+      /* set_expression takes a reference of its own. */
+      g_autoptr (GtkExpression) by_name = gtk_property_expression_new (GTK_TYPE_STRING_OBJECT, NULL, "string");
 
       g_array_append_val (self->choices, choice);
       /* A header is text as written, never markup; say so before it is set. */
       adw_preferences_row_set_use_markup (ADW_PREFERENCES_ROW (row), FALSE);
       adw_preferences_row_set_title (ADW_PREFERENCES_ROW (row), column->name);
-      gtk_drop_down_set_expression (GTK_DROP_DOWN (field),
-                                    gtk_property_expression_new (GTK_TYPE_STRING_OBJECT, NULL, "string"));
+      gtk_drop_down_set_expression (GTK_DROP_DOWN (field), by_name);
       gtk_drop_down_set_enable_search (GTK_DROP_DOWN (field), TRUE);
       gtk_drop_down_set_selected (GTK_DROP_DOWN (field), choice.field == SL_FIELD_NONE ? 0 : (guint) choice.field + 1);
       gtk_widget_set_valign (field, GTK_ALIGN_CENTER);

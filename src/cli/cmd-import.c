@@ -123,6 +123,8 @@ print_report (const SlImportReport *report, const char *path, gboolean dry_run)
   for (guint i = 0; i < report->notes->len; i++)
     printf (_("note: %s\n"), (const char *) report->notes->pdata[i]);
   print_matches (report, path);
+  for (guint i = 0; i < report->warnings->len; i++)
+    printf (_("WARNING: %s\n"), (const char *) report->warnings->pdata[i]);
 
   for (guint i = 0; i < report->rejections->len; i++)
     {

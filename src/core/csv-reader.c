@@ -32,6 +32,7 @@ sl_csv_delimiter_name (char delimiter)
     case ',':  return "comma";
     case ';':  return "semicolon";
     case '\t': return "tab";
+    case '|':  return "vertical bar";
     default:   return "other";
     }
 }
@@ -214,7 +215,8 @@ sl_csv_reader_new (const char *data, gsize length, char delimiter,
       guint saved_line = reader->line;
 
       reader->delimiter = skip_to_record (reader)
-                            ? detect_delimiter (data + reader->offset, data + length)
+                            ? detect_delimiter (data + reader->offset,
+                                                data + MIN (length, reader->offset + SL_CSV_MAX_RECORD_BYTES))
                             : ',';
       reader->offset = saved_offset;
       reader->line = saved_line;
@@ -288,7 +290,7 @@ split_fields (SlCsvReader *reader, const char *raw, gsize raw_len)
 gboolean
 sl_csv_reader_next (SlCsvReader *reader, SlCsvRecord *record)
 {
-  const char *start, *end, *record_end;
+  const char *start, *end, *limit, *record_end;
   guint inner_newlines;
   gboolean unterminated;
   gsize raw_len;
@@ -298,7 +300,27 @@ sl_csv_reader_next (SlCsvReader *reader, SlCsvRecord *record)
 
   start = reader->data + reader->offset;
   end = reader->data + reader->length;
-  record_end = find_record_end (start, end, reader->delimiter, &inner_newlines, &unterminated);
+  /* The scan stops one byte past the longest record split. */
+  limit = (gsize) (end - start) > SL_CSV_MAX_RECORD_BYTES ? start + SL_CSV_MAX_RECORD_BYTES + 1 : end;
+  record_end = find_record_end (start, limit, reader->delimiter, &inner_newlines, &unterminated);
+  if (record_end == limit && limit < end)
+    {
+      const char *nl = memchr (limit, '\n', end - limit);
+
+      record->line = reader->line;
+      record->raw = start;
+      record->raw_len = SL_CSV_MAX_RECORD_BYTES;
+      record->malformed = N_("the line is too long");
+      record->too_long = TRUE;
+      record->n_fields = 0;
+      record->fields = NULL;
+      /* Quotes are not followed past the bound: the record ends at the
+       * next line end. */
+      reader->line++;
+      reader->offset = (nl ? nl + 1 : end) - reader->data;
+      return TRUE;
+    }
+  record->too_long = FALSE;
   raw_len = record_end - start;
   if (raw_len > 0 && start[raw_len - 1] == '\r')
     raw_len--;

@@ -22,7 +22,14 @@ typedef struct {
   const char   *raw;        /* the record's bytes as in the file, without its line end */
   gsize         raw_len;
   const char   *malformed;  /* NULL, or why libcsv could not split the record (English) */
+  gboolean      too_long;   /* longer than SL_CSV_MAX_RECORD_BYTES: not split, raw cut there */
 } SlCsvRecord;
+
+/* The longest record the reader splits.  Real tables of measurements have
+ * lines of a few hundred bytes; a longer one is not such a table, and the
+ * bound keeps a huge single-line file from being copied into memory. */
+#define SL_CSV_MAX_RECORD_BYTES ((gsize) 1 << 20)
+#define SL_CSV_MAX_RECORD_MIB 1
 
 /* Reads DATA (not copied; must outlive the reader).  DELIMITER is ',', ';'
  * or '\t', or 0 to detect it.  FILE_NAME is only for messages.  Fails on a

@@ -8,12 +8,16 @@
  *   the preview ............ sl_import_preview
  */
 #include "import.h"
-#include <inttypes.h>
 
-#include <inttypes.h>
+#include <errno.h>
+#include <fcntl.h>
 #include <glib/gi18n.h>
+#include <inttypes.h>
+#include <glib/gstdio.h>
 #include <math.h>
 #include <string.h>
+#include <sys/stat.h>
+#include <unistd.h>
 
 #include "csv-reader.h"
 #include "ledger.h"
@@ -234,11 +238,20 @@ require_id_column (const ColumnPlan *plan, const SlCsvRecord *header, const char
   if (plan->column[SL_FIELD_ID] < 0)
     {
       g_autofree char *names = list_header (header);
+      const char *other = header->n_fields == 1 ? strpbrk (header->fields[0], ",;\t|") : NULL;
 
-      g_set_error (error, SL_ERROR, SL_ERROR_BAD_MAPPING,
-                   _("%s:%u: no id column: no column is named 'id'; name the designation "
-                     "column with --map id=COLUMN (the header has %s)"),
-                   file_name, header->line, names);
+      /* One column whose name holds a separator: the file is split by
+       * something else than the reader used. */
+      if (other != NULL)
+        g_set_error (error, SL_ERROR, SL_ERROR_BAD_MAPPING,
+                     _("%s:%u: the header is one column, %s, holding a %s: is the file "
+                       "separated by another delimiter? Name it with --delimiter"),
+                     file_name, header->line, names, sl_csv_delimiter_name (*other));
+      else
+        g_set_error (error, SL_ERROR, SL_ERROR_BAD_MAPPING,
+                     _("%s:%u: no id column: no column is named 'id'; name the designation "
+                       "column with --map id=COLUMN (the header has %s)"),
+                     file_name, header->line, names);
       return FALSE;
     }
   return TRUE;
@@ -543,6 +556,8 @@ typedef struct {
   ImportStatements       st;
   const SlCsvRecord     *header;
   SlRowMatcher          *matcher;   /* with --match-radius: rows join stars by position */
+  guint64                parallax_rows;        /* rows with a parallax and its error */
+  guint64                parallax_small_rows;  /* ... of which both look like arcseconds */
 } Import;
 
 /* The hook that decides which star a row belongs to: by its id, or with
@@ -648,6 +663,16 @@ import_record (Import *im, SlCsvRecord *record, GError **error)
         return store_rejection (&im->st, report->source_id, record,
                                 im->header->fields[column], reason, report)
                || (sl_project_set_db_error (im->project, error, "rejected_rows"), FALSE);
+    }
+
+  /* A parallax below 1 with an error below 0.01 is a fine measurement
+   * in arcseconds and an impossible one in mas (no survey measures to
+   * 10 microarcseconds): counted for unit_warnings. */
+  if (row.present[SL_FIELD_PARALLAX] && row.present[SL_FIELD_PARALLAX_ERR])
+    {
+      im->parallax_rows++;
+      if (fabs (row.number[SL_FIELD_PARALLAX]) < 1.0 && row.number[SL_FIELD_PARALLAX_ERR] < 0.01)
+        im->parallax_small_rows++;
     }
 
   if (!row.present[SL_FIELD_EPOCH] && isfinite (im->options->epoch))
@@ -895,6 +920,7 @@ report_new (const char *file_name)
   report->ambiguous = g_array_new (FALSE, FALSE, sizeof (SlAmbiguousRow));
   g_array_set_clear_func (report->ambiguous, ambiguous_row_clear);
   report->match_epoch = NAN;
+  report->warnings = g_ptr_array_new_with_free_func (g_free);
   return report;
 }
 
@@ -909,7 +935,30 @@ sl_import_report_free (SlImportReport *report)
   g_ptr_array_unref (report->ignored_columns);
   g_ptr_array_unref (report->notes);
   g_array_unref (report->ambiguous);
+  g_ptr_array_unref (report->warnings);
   g_free (report);
+}
+
+/* Values that are all valid but look like another unit than the one the
+ * column was read in: a warning, not a rejection (the numbers may be
+ * right, and only the user knows). */
+static void
+unit_warnings (const Import *im)
+{
+  if (im->plan.unit[SL_FIELD_PARALLAX] == SL_UNIT_MAS && im->parallax_rows > 0
+      && im->parallax_small_rows == im->parallax_rows)
+    {
+      g_autofree char *count = g_strdup_printf ("%" G_GUINT64_FORMAT, im->parallax_rows);
+
+      g_ptr_array_add (im->report->warnings,
+                       g_strdup_printf (_("%s: column '%s' was read as parallax in mas, but all %s "
+                                          "values are below 1 with errors below 0.01: they look like "
+                                          "arcseconds; if they are, read columns '%s' and '%s' in arcsec"),
+                                        im->report->file_name,
+                                        im->header->fields[im->plan.column[SL_FIELD_PARALLAX]], count,
+                                        im->header->fields[im->plan.column[SL_FIELD_PARALLAX]],
+                                        im->header->fields[im->plan.column[SL_FIELD_PARALLAX_ERR]]));
+    }
 }
 
 static void
@@ -933,6 +982,13 @@ import_records (Import *im, SlCsvReader *reader, gsize length, GError **error)
 
   while (sl_csv_reader_next (reader, &record))
     {
+      if (record.too_long)
+        {
+          g_set_error (error, SL_ERROR, SL_ERROR_BAD_INPUT,
+                       _("%s:%u: line longer than %d MiB; not a table of measurements"),
+                       im->report->file_name, record.line, SL_CSV_MAX_RECORD_MIB);
+          return FALSE;
+        }
       if (!import_record (im, &record, error))
         return FALSE;
       if (++count % ROWS_PER_CHECK == 0)
@@ -971,6 +1027,49 @@ fail_if_nothing_accepted (Import *im, GError **error)
   return FALSE;
 }
 
+/* What fstat says of an input file, to see whether it changed. */
+typedef struct {
+  gint64 size;
+  gint64 mtime_s, mtime_ns;
+  gint64 ctime_s, ctime_ns;
+} FileStamp;
+
+static void
+stamp_file (int fd, FileStamp *stamp)
+{
+  struct stat st;
+
+  memset (stamp, 0, sizeof *stamp);
+  if (fstat (fd, &st) == 0)
+    {
+      stamp->size = st.st_size;
+      stamp->mtime_s = st.st_mtim.tv_sec;
+      stamp->mtime_ns = st.st_mtim.tv_nsec;
+      stamp->ctime_s = st.st_ctim.tv_sec;
+      stamp->ctime_ns = st.st_ctim.tv_nsec;
+    }
+}
+
+/* The file is mapped, not copied: a program writing to it while we read
+ * would make the rows stored differ from the bytes hashed.  Checked
+ * before the commit, so such an import writes nothing. */
+static gboolean
+check_unchanged (int fd, const FileStamp *before, const char *file_name, GError **error)
+{
+  FileStamp after;
+
+  stamp_file (fd, &after);
+  if (memcmp (&after, before, sizeof after) != 0)
+    {
+      g_set_error (error, SL_ERROR, SL_ERROR_IO,
+                   _("%s: the file changed while it was read (another program is writing to it); "
+                     "nothing was imported: import it again once it is complete"),
+                   file_name);
+      return FALSE;
+    }
+  return TRUE;
+}
+
 /* Commits, or for a dry run rolls back what was done in the transaction. */
 static gboolean
 end_import (SlProject *project, const SlImportOptions *options, GError **error)
@@ -981,9 +1080,10 @@ end_import (SlProject *project, const SlImportOptions *options, GError **error)
   return TRUE;
 }
 
-SlImportReport *
-sl_import_csv (SlProject *project, const char *path, const SlImportOptions *options,
-               GError **error)
+/* The import of the open file FD (at PATH), as it was when STAMP was taken. */
+static SlImportReport *
+import_file (SlProject *project, const char *path, int fd, const FileStamp *stamp,
+             const SlImportOptions *options, GError **error)
 {
   g_autoptr (SlImportReport) report = NULL;
   g_autoptr (GMappedFile) mapped = NULL;
@@ -996,10 +1096,8 @@ sl_import_csv (SlProject *project, const char *path, const SlImportOptions *opti
   gsize length;
   Import im = { project, options, NULL, .matcher = NULL };
 
-  g_return_val_if_fail (project != NULL && path != NULL && options != NULL, NULL);
-
   file_name = g_path_get_basename (path);
-  mapped = g_mapped_file_new (path, FALSE, &local_error);
+  mapped = g_mapped_file_new_from_fd (fd, FALSE, &local_error);
   if (mapped == NULL)
     {
       g_set_error (error, SL_ERROR, SL_ERROR_IO, _("%s: cannot read: %s"), path,
@@ -1027,6 +1125,13 @@ sl_import_csv (SlProject *project, const char *path, const SlImportOptions *opti
     {
       g_set_error (error, SL_ERROR, SL_ERROR_BAD_INPUT,
                    _("%s: no header row (the file holds only comments or blank lines)"), file_name);
+      return NULL;
+    }
+  if (header.too_long)
+    {
+      g_set_error (error, SL_ERROR, SL_ERROR_BAD_INPUT,
+                   _("%s:%u: line longer than %d MiB; not a table of measurements"),
+                   file_name, header.line, SL_CSV_MAX_RECORD_MIB);
       return NULL;
     }
   if (header.malformed)
@@ -1061,6 +1166,7 @@ sl_import_csv (SlProject *project, const char *path, const SlImportOptions *opti
         || !fail_if_nothing_accepted (&im, error)
         || !finish_matcher (&im, error)
         || !finish_source (&im, error)
+        || !check_unchanged (fd, stamp, file_name, error)
         || !end_import (project, options, error))
       {
         finalize_statements (&im.st);
@@ -1070,8 +1176,35 @@ sl_import_csv (SlProject *project, const char *path, const SlImportOptions *opti
       }
     finalize_statements (&im.st);
     g_clear_pointer (&im.matcher, sl_row_matcher_free);
+    unit_warnings (&im);
   }
   return g_steal_pointer (&report);
+}
+
+SlImportReport *
+sl_import_csv (SlProject *project, const char *path, const SlImportOptions *options,
+               GError **error)
+{
+  SlImportReport *report;
+  FileStamp stamp;
+  int fd;
+
+  g_return_val_if_fail (project != NULL && path != NULL && options != NULL, NULL);
+
+  /* One descriptor for the mapping and both looks at the file's state. */
+  fd = g_open (path, O_RDONLY | O_CLOEXEC, 0);
+  if (fd < 0)
+    {
+      int saved_errno = errno;
+
+      g_set_error (error, SL_ERROR, SL_ERROR_IO, _("%s: cannot read: %s"), path,
+                   g_strerror (saved_errno));
+      return NULL;
+    }
+  stamp_file (fd, &stamp);
+  report = import_file (project, path, fd, &stamp, options, error);
+  close (fd);
+  return report;
 }
 
 /* ------------------------------------------------------------------ */
@@ -1197,6 +1330,13 @@ sl_import_preview (const char *path, const SlImportOptions *options, guint max_r
                    preview->file_name);
       return NULL;
     }
+  if (header.too_long)
+    {
+      g_set_error (error, SL_ERROR, SL_ERROR_BAD_INPUT,
+                   _("%s:%u: line longer than %d MiB; not a table of measurements"),
+                   preview->file_name, header.line, SL_CSV_MAX_RECORD_MIB);
+      return NULL;
+    }
   if (header.malformed)
     {
       g_set_error (error, SL_ERROR, SL_ERROR_BAD_INPUT, _("%s:%u: the header row: %s"),
@@ -1219,6 +1359,13 @@ sl_import_preview (const char *path, const SlImportOptions *options, guint max_r
         {
           preview->more_rows = TRUE;
           break;
+        }
+      if (record.too_long)
+        {
+          g_set_error (error, SL_ERROR, SL_ERROR_BAD_INPUT,
+                       _("%s:%u: line longer than %d MiB; not a table of measurements"),
+                       preview->file_name, record.line, SL_CSV_MAX_RECORD_MIB);
+          return NULL;
         }
       row = g_new0 (SlPreviewRow, 1);
       row->line = record.line;

@@ -75,6 +75,8 @@ typedef struct {
   guint64    matched;         /* rows joined to an existing star by position */
   GArray    *ambiguous;       /* SlAmbiguousRow: rows made stars of their own, in order found */
   double     match_epoch;     /* the common epoch, Julian year; NAN: none */
+  GPtrArray *warnings;        /* values that look wrong though valid (a unit mismatch),
+                               * one sentence each, naming the file and column */
 } SlImportReport;
 
 SlImportReport *sl_import_csv (SlProject *project, const char *path,

@@ -2,6 +2,7 @@
  * columns of a query's row. */
 #include "project.h"
 
+#include <errno.h>
 #include <glib/gi18n.h>
 #include <glib/gstdio.h>
 #include <math.h>
@@ -42,6 +43,14 @@ void
 sl_project_set_db_error (SlProject *project, GError **error, const char *what)
 {
   int code = sqlite3_errcode (project->db) & 0xff;  /* primary of the extended code */
+  int system_errno = sqlite3_system_errno (project->db);
+
+  /* SQLite says SQLITE_FULL only when write() made no progress; a write
+   * cut short by the disk or by the file size limit is an I/O error
+   * whose errno tells the story, when SQLite kept it. */
+  if (code == SQLITE_IOERR && (system_errno == ENOSPC || system_errno == EFBIG
+                               || system_errno == EDQUOT))
+    code = SQLITE_FULL;
 
   if (code == SQLITE_BUSY || code == SQLITE_LOCKED)
     g_set_error (error, SL_ERROR, SL_ERROR_BUSY,
@@ -49,10 +58,16 @@ sl_project_set_db_error (SlProject *project, GError **error, const char *what)
                  project->path);
   else if (code == SQLITE_READONLY)
     g_set_error (error, SL_ERROR, SL_ERROR_IO,
-                 _("%s: the project file is read-only"), project->path);
+                 _("%s: the project file is read-only (or its folder is): nothing can be changed; "
+                   "reading it still works"), project->path);
   else if (code == SQLITE_FULL)
     g_set_error (error, SL_ERROR, SL_ERROR_IO,
-                 _("%s: the disk is full; nothing was changed"), project->path);
+                 _("%s: the disk is full (or the file size limit is reached); nothing was changed"),
+                 project->path);
+  else if (sqlite3_extended_errcode (project->db) == SQLITE_IOERR_WRITE)
+    g_set_error (error, SL_ERROR, SL_ERROR_IO,
+                 _("%s: cannot write the project file (is the disk full?); nothing was changed"),
+                 project->path);
   else
     g_set_error (error, SL_ERROR, SL_ERROR_DATABASE, "%s: %s: %s",
                  project->path, what, sqlite3_errmsg (project->db));
@@ -168,8 +183,9 @@ set_journal (SlProject *project, GError **error)
                           error);
 }
 
+/* Opens FILENAME (PATH, or a URI naming it) for PATH. */
 static SlProject *
-connect (const char *path, int flags, GError **error)
+connect_as (const char *path, const char *filename, int flags, GError **error)
 {
   SlProject *project = g_new0 (SlProject, 1);
   int rc;
@@ -177,7 +193,7 @@ connect (const char *path, int flags, GError **error)
   project->path = g_strdup (path);
   /* NOMUTEX: a connection is used by one thread at a time (each thread of
    * the window opens its own), so SQLite's per-call locking is pure cost. */
-  rc = sqlite3_open_v2 (path, &project->db,
+  rc = sqlite3_open_v2 (filename, &project->db,
                         flags | SQLITE_OPEN_EXRESCODE | SQLITE_OPEN_NOMUTEX, NULL);
   if (rc != SQLITE_OK)
     {
@@ -192,6 +208,44 @@ connect (const char *path, int flags, GError **error)
       return NULL;
     }
   return project;
+}
+
+static SlProject *
+connect (const char *path, int flags, GError **error)
+{
+  return connect_as (path, path, flags, error);
+}
+
+/* A project SQLite opened read-only (the file is not writable) whose
+ * schema it cannot read: in WAL mode a reader needs the -shm file beside
+ * the project, and a folder that is not writable cannot hold a new one.
+ * SQLite still reads the file when told that it does not change
+ * (immutable), which holds here: changing it takes the rights we lack.
+ * Returns PROJECT itself when none of this applies. */
+static SlProject *
+reopen_if_unreadable (SlProject *project, GError **error)
+{
+  g_autofree char *escaped = NULL;
+  g_autofree char *uri = NULL;
+  g_autofree char *absolute = NULL;
+  SlProject *immutable;
+
+  if (sqlite3_db_readonly (project->db, "main") != 1
+      || query_pragma (project, "schema_version") >= 0)
+    return project;
+
+  absolute = g_canonicalize_filename (project->path, NULL);
+  escaped = g_uri_escape_string (absolute, "/", FALSE);
+  uri = g_strconcat ("file:", escaped, "?immutable=1", NULL);
+  immutable = connect_as (project->path, uri, SQLITE_OPEN_READONLY | SQLITE_OPEN_URI, error);
+  if (immutable != NULL)
+    sl_project_close (project);
+  else
+    {
+      g_clear_error (error);
+      immutable = project;
+    }
+  return immutable;
 }
 
 SlProject *
@@ -335,7 +389,19 @@ sl_project_open (const char *path, GError **error)
    * the file has proved to be a project, so that a refused file is left
    * byte for byte as it was (found by fuzzing). */
   project = connect (path, SQLITE_OPEN_READWRITE, error);
-  if (project == NULL || !check_identity (project, error))
+  if (project != NULL)
+    project = reopen_if_unreadable (project, error);
+  /* The version and the schema from one snapshot: another process may be
+   * upgrading the file at this moment. */
+  if (project == NULL || !sl_project_exec (project, "BEGIN", error))
+    return NULL;
+  if (!check_identity (project, error)
+      || !sl_schema_check (project->db, project->schema_version, path, error))
+    {
+      sl_project_rollback (project);
+      return NULL;
+    }
+  if (!sl_project_commit (project, error))
     return NULL;
   if (project->schema_version < sl_schema_current_version ()
       && !upgrade_schema (project, error))

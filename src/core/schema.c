@@ -8,6 +8,7 @@
 #include "schema.h"
 
 #include <glib/gi18n.h>
+#include <string.h>
 
 #include "sl-error.h"
 
@@ -195,15 +196,13 @@ sl_schema_current_version (void)
   return (int) G_N_ELEMENTS (migrations);
 }
 
-gboolean
-sl_schema_migrate (sqlite3 *db, int from, GError **error)
+/* Runs the migrations from version FROM up to version TO. */
+static gboolean
+run_migrations (sqlite3 *db, int from, int to, GError **error)
 {
   char *errmsg = NULL;
-  char *pragma;
 
-  g_return_val_if_fail (from >= 0 && from <= sl_schema_current_version (), FALSE);
-
-  for (int version = from; version < sl_schema_current_version (); version++)
+  for (int version = from; version < to; version++)
     {
       if (sqlite3_exec (db, migrations[version], NULL, NULL, &errmsg) != SQLITE_OK)
         {
@@ -214,6 +213,19 @@ sl_schema_migrate (sqlite3 *db, int from, GError **error)
           return FALSE;
         }
     }
+  return TRUE;
+}
+
+gboolean
+sl_schema_migrate (sqlite3 *db, int from, GError **error)
+{
+  char *errmsg = NULL;
+  char *pragma;
+
+  g_return_val_if_fail (from >= 0 && from <= sl_schema_current_version (), FALSE);
+
+  if (!run_migrations (db, from, sl_schema_current_version (), error))
+    return FALSE;
 
   pragma = g_strdup_printf ("PRAGMA user_version = %d", sl_schema_current_version ());
   if (sqlite3_exec (db, pragma, NULL, NULL, &errmsg) != SQLITE_OK)
@@ -224,5 +236,160 @@ sl_schema_migrate (sqlite3 *db, int from, GError **error)
       return FALSE;
     }
   g_free (pragma);
+  return TRUE;
+}
+
+/* ------------------------------------------------------------------ */
+/* The expected schema                                                */
+
+/* SQL text with every run of blanks made one space and the blanks next
+ * to punctuation dropped: the text SQLite keeps is the statement as
+ * written, and a file written by an older build (or rebuilt from a dump)
+ * may differ from ours in layout only. */
+static char *
+normalise_sql (const char *sql)
+{
+  GString *out = g_string_new (NULL);
+  gboolean blank = FALSE;
+
+  for (const char *p = sql ? sql : ""; *p; p++)
+    {
+      if (g_ascii_isspace (*p))
+        {
+          blank = TRUE;
+          continue;
+        }
+      if (blank && out->len > 0 && !strchr ("(),;", *p)
+          && !strchr ("(),;", out->str[out->len - 1]))
+        g_string_append_c (out, ' ');
+      blank = FALSE;
+      g_string_append_c (out, *p);
+    }
+  return g_string_free (out, FALSE);
+}
+
+/* sqlite_schema of the "main" database of DB: name -> "type|table|sql"
+ * (normalised).  SQLite's statistics tables (ANALYZE) are left out. */
+static GHashTable *
+read_schema (sqlite3 *db)
+{
+  GHashTable *objects = g_hash_table_new_full (g_str_hash, g_str_equal, g_free, g_free);
+  sqlite3_stmt *stmt;
+
+  if (sqlite3_prepare_v2 (db, "SELECT type, name, tbl_name, sql FROM main.sqlite_schema "
+                              "WHERE name NOT LIKE 'sqlite\\_stat%' ESCAPE '\\'",
+                          -1, &stmt, NULL) != SQLITE_OK)
+    {
+      g_hash_table_unref (objects);
+      return NULL;
+    }
+  while (sqlite3_step (stmt) == SQLITE_ROW)
+    {
+      g_autofree char *sql = normalise_sql ((const char *) sqlite3_column_text (stmt, 3));
+
+      g_hash_table_insert (objects, g_strdup ((const char *) sqlite3_column_text (stmt, 1)),
+                           g_strdup_printf ("%s|%s|%s", sqlite3_column_text (stmt, 0),
+                                            sqlite3_column_text (stmt, 2), sql));
+    }
+  sqlite3_finalize (stmt);
+  return objects;
+}
+
+/* The schema the migrations make for VERSION, built once per version in
+ * a database in memory: the migrations' own SQL is the reference, so a
+ * new version is covered as soon as its migration is written. */
+static GHashTable *
+expected_schema (int version)
+{
+  static GHashTable *cache[G_N_ELEMENTS (migrations) + 1];
+  G_LOCK_DEFINE_STATIC (cache);
+  GHashTable *objects = NULL;
+
+  G_LOCK (cache);
+  if (cache[version] == NULL)
+    {
+      sqlite3 *db = NULL;
+
+      if (sqlite3_open_v2 (":memory:", &db, SQLITE_OPEN_READWRITE | SQLITE_OPEN_MEMORY, NULL) == SQLITE_OK
+          && run_migrations (db, 0, version, NULL))
+        cache[version] = read_schema (db);
+      sqlite3_close (db);
+    }
+  if (cache[version] != NULL)
+    objects = g_hash_table_ref (cache[version]);
+  G_UNLOCK (cache);
+  return objects;
+}
+
+/* "table", "index", "trigger" or "view" as a reader says it. */
+static const char *
+kind_name (const char *description)
+{
+  if (g_str_has_prefix (description, "table|"))
+    return _("table");
+  if (g_str_has_prefix (description, "index|"))
+    return _("index");
+  if (g_str_has_prefix (description, "trigger|"))
+    return _("trigger");
+  if (g_str_has_prefix (description, "view|"))
+    return _("view");
+  return _("schema object");
+}
+
+gboolean
+sl_schema_check (sqlite3 *db, int version, const char *path, GError **error)
+{
+  g_autoptr (GHashTable) want = NULL;
+  g_autoptr (GHashTable) got = NULL;
+  g_autoptr (GList) names = NULL;
+  GHashTableIter iter;
+  gpointer name, description;
+
+  g_return_val_if_fail (version >= 0 && version <= sl_schema_current_version (), FALSE);
+
+  want = expected_schema (version);
+  got = read_schema (db);
+  if (want == NULL || got == NULL)
+    {
+      g_set_error (error, SL_ERROR, SL_ERROR_DATABASE, _("%s: cannot read the file's schema: %s"),
+                   path, sqlite3_errmsg (db));
+      return FALSE;
+    }
+
+  /* Sorted, so that the message names the same object every time. */
+  names = g_list_sort (g_hash_table_get_keys (got), (GCompareFunc) strcmp);
+  for (GList *l = names; l != NULL; l = l->next)
+    {
+      const char *have = g_hash_table_lookup (got, l->data);
+      const char *expected = g_hash_table_lookup (want, l->data);
+
+      if (expected == NULL)
+        {
+          g_set_error (error, SL_ERROR, SL_ERROR_UNTRUSTED,
+                       _("%s: refused: the file holds something Starledger does not make: the %s '%s' "
+                         "(schema version %d); a project file from elsewhere may hide code "
+                         "in its schema"),
+                       path, kind_name (have), (const char *) l->data, version);
+          return FALSE;
+        }
+      if (strcmp (have, expected) != 0)
+        {
+          g_set_error (error, SL_ERROR, SL_ERROR_UNTRUSTED,
+                       _("%s: refused: the %s '%s' is not as schema version %d defines it "
+                         "(the file was altered outside Starledger)"),
+                       path, kind_name (have), (const char *) l->data, version);
+          return FALSE;
+        }
+    }
+  g_hash_table_iter_init (&iter, want);
+  while (g_hash_table_iter_next (&iter, &name, &description))
+    if (!g_hash_table_contains (got, name))
+      {
+        g_set_error (error, SL_ERROR, SL_ERROR_UNTRUSTED,
+                     _("%s: refused: the %s '%s' of schema version %d is missing "
+                       "(the file was altered outside Starledger, or is damaged)"),
+                     path, kind_name (description), (const char *) name, version);
+        return FALSE;
+      }
   return TRUE;
 }

@@ -23,4 +23,10 @@ int sl_schema_current_version (void);
  * holds a write transaction. */
 gboolean sl_schema_migrate (sqlite3 *db, int from, GError **error);
 
+/* Compares the tables, indexes, triggers and views of DB's main database
+ * with those the migrations make for VERSION (text compared with the
+ * layout of blanks ignored).  Anything extra, missing or changed is an
+ * SL_ERROR_UNTRUSTED naming it; PATH is for the message. */
+gboolean sl_schema_check (sqlite3 *db, int version, const char *path, GError **error);
+
 G_END_DECLS

@@ -24,6 +24,7 @@ typedef enum {
   SL_ERROR_ALREADY_IMPORTED, /* same SHA-256 as an earlier source */
   SL_ERROR_NOTHING_ACCEPTED, /* every row of the file was rejected */
   SL_ERROR_UNKNOWN_NAME,     /* a column, list or star that does not exist */
+  SL_ERROR_UNTRUSTED,        /* a project file whose schema is not the one Starledger makes */
 } SlError;
 
 GQuark sl_error_quark (void);

@@ -203,6 +203,13 @@ sl_parse_number (const char *text, double *value, const char **reason)
       *reason = N_("number out of range");
       return FALSE;
     }
+  /* Digits that are not all zero must not turn into zero: 1e-400 is
+   * nothing a measurement means, and as 0 it would pass for one. */
+  if (parsed == 0.0 && d.significand != 0)
+    {
+      *reason = N_("number too small (it would be stored as 0)");
+      return FALSE;
+    }
   *value = parsed;
   return TRUE;
 }
