@@ -13,6 +13,7 @@
 #include <math.h>
 #include <string.h>
 
+#include "derive/pool.h"
 #include "inputs.h"
 #include "ledger.h"
 #include "sl-error.h"
@@ -586,14 +587,16 @@ sl_derivation_run (SlProject *project, const SlDeriveParams *params, gboolean al
   g_autoptr (GArray) ids = NULL;
   g_autoptr (GHashTable) overrides = NULL;
   g_autoptr (SlInputCursor) cursor = NULL;
-  g_autoptr (SlEngine) engine = NULL;
+  g_autoptr (SlDerivePool) pool = NULL;
   g_autoptr (GTimer) timer = g_timer_new ();
   sqlite3_stmt *insert = NULL;
   SlStarInputs inputs;
-  SlDerivedValues values;
   GError *local = NULL;
   guint64 total;
   guint next = 0;
+  gboolean read_all = FALSE;
+  /* Monte Carlo stars take a thousand times longer: report them often. */
+  guint check_every = params->errors == SL_ERRORS_MONTE_CARLO ? 64 : ROWS_PER_CHECK;
 
   memset (report, 0, sizeof *report);
   /* The same limits whichever front end chose the parameters. */
@@ -615,21 +618,38 @@ sl_derivation_run (SlProject *project, const SlDeriveParams *params, gboolean al
       return FALSE;
     }
 
-  engine = sl_engine_new (params);
-  while (next < ids->len && sl_input_cursor_next (cursor, &inputs, &local))
+  /* This thread reads and writes (one SQLite connection, one thread);
+   * the pool derives, in order, on as many threads as there are cores. */
+  pool = sl_derive_pool_new (params, sl_derive_threads (), cancellable);
+  for (;;)
     {
-      GArray *star_overrides;
+      const SlDeriveItem *item;
 
-      if (inputs.star_id != g_array_index (ids, gint64, next))
-        continue;
-      next++;
-      star_overrides = g_hash_table_lookup (overrides, &inputs.star_id);
-      sl_engine_derive (engine, &inputs,
-                        star_overrides ? (const SlOverride *) star_overrides->data : NULL,
-                        star_overrides ? star_overrides->len : 0, &values);
-      sqlite3_bind_int64 (insert, 1, inputs.star_id);
+      while (!read_all && !sl_derive_pool_full (pool))
+        {
+          GArray *star_overrides;
+
+          if (next == ids->len || !sl_input_cursor_next (cursor, &inputs, &local))
+            {
+              read_all = TRUE;
+              break;
+            }
+          if (inputs.star_id != g_array_index (ids, gint64, next))
+            continue;
+          next++;
+          star_overrides = g_hash_table_lookup (overrides, &inputs.star_id);
+          sl_derive_pool_push (pool, &inputs,
+                               star_overrides ? (const SlOverride *) star_overrides->data : NULL,
+                               star_overrides ? star_overrides->len : 0);
+        }
+      if (local != NULL || (item = sl_derive_pool_pop (pool)) == NULL)
+        break;
+      /* A cancelled worker leaves the rest of its batch underived. */
+      if (g_cancellable_set_error_if_cancelled (cancellable, &local))
+        break;
+      sqlite3_bind_int64 (insert, 1, item->inputs.star_id);
       sqlite3_bind_int64 (insert, 2, report->run_id);
-      bind_derived_row (insert, 3, &inputs, &values);
+      bind_derived_row (insert, 3, &item->inputs, &item->values);
       if (sqlite3_step (insert) != SQLITE_DONE)
         {
           sl_project_set_db_error (project, &local, "derived");
@@ -638,13 +658,8 @@ sl_derivation_run (SlProject *project, const SlDeriveParams *params, gboolean al
         }
       sqlite3_reset (insert);
       report->computed++;
-      if (report->computed % ROWS_PER_CHECK == 0)
-        {
-          if (g_cancellable_set_error_if_cancelled (cancellable, &local))
-            break;
-          if (progress)
-            progress ((double) report->computed / ids->len, progress_data);
-        }
+      if (report->computed % check_every == 0 && progress)
+        progress ((double) report->computed / ids->len, progress_data);
     }
   sqlite3_finalize (insert);
 
