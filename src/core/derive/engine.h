@@ -44,6 +44,11 @@ void      sl_engine_derive (SlEngine *engine, const SlStarInputs *inputs,
                             const SlOverride *overrides, guint n_overrides,
                             SlDerivedValues *out);
 
+/* SKIP (the default) runs a module whose results cannot differ between
+ * the draws of a star once per star; FALSE runs every module in every
+ * draw.  The numbers are the same: tests compare the two. */
+void      sl_engine_set_skip_constant (SlEngine *engine, gboolean skip);
+
 /* The modules in evaluation order. */
 const SlModule *const *sl_engine_modules (SlEngine *engine, guint *n_modules);
 
