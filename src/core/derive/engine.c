@@ -324,47 +324,66 @@ linear_results (SlEngine *engine, const double *sigma, SlDerivedValues *out)
     }
 }
 
-/* Puts the K-th smallest of DATA[0..N) at DATA[K], the smaller ones
- * before it and the larger ones after (Hoare's selection with a median of
- * three; Numerical Recipes 8.5).  The order statistics are values, not
- * positions: any selection gives the same numbers as GSL's. */
+/* Puts the K-th smallest of DATA[LEFT..RIGHT] at DATA[K], the smaller
+ * ones before it and the larger ones after: Floyd and Rivest's SELECT
+ * (CACM 18, 173, 1975), which first narrows the range around K by
+ * selecting within a sample, so that a median costs about 1.5 N
+ * comparisons instead of quickselect's 3.4 N.  The order statistics are
+ * values, not positions: any selection gives the same numbers as GSL's. */
+static void
+select_range (double *data, gssize left, gssize right, gssize k)
+{
+#define SWAP(a, b) G_STMT_START { double t_ = data[a]; data[a] = data[b]; data[b] = t_; } G_STMT_END
+  while (right > left)
+    {
+      double t;
+      gssize i, j;
+
+      if (right - left > 600)
+        {
+          double n = right - left + 1, m = k - left + 1, z = log (n);
+          double sample = 0.5 * exp (2.0 * z / 3.0);
+          double sd = 0.5 * sqrt (z * sample * (n - sample) / n) * (m < n / 2 ? -1.0 : 1.0);
+          gssize new_left = MAX (left, (gssize) (k - m * sample / n + sd));
+          gssize new_right = MIN (right, (gssize) (k + (n - m) * sample / n + sd));
+
+          select_range (data, new_left, new_right, k);
+        }
+      t = data[k];
+      i = left;
+      j = right;
+      SWAP (left, k);
+      if (data[right] > t)
+        SWAP (right, left);
+      while (i < j)
+        {
+          SWAP (i, j);
+          i++;
+          j--;
+          while (data[i] < t)
+            i++;
+          while (data[j] > t)
+            j--;
+        }
+      if (data[left] == t)
+        SWAP (left, j);
+      else
+        {
+          j++;
+          SWAP (j, right);
+        }
+      if (j <= k)
+        left = j + 1;
+      if (k <= j)
+        right = j - 1;
+    }
+#undef SWAP
+}
+
 static void
 select_kth (double *data, gsize n, gsize k)
 {
-  gsize left = 0, right = n - 1;
-
-#define SWAP(i, j) G_STMT_START { double t_ = data[i]; data[i] = data[j]; data[j] = t_; } G_STMT_END
-  while (right > left + 1)
-    {
-      gsize mid = left + (right - left) / 2, i = left + 1, j = right;
-      double pivot;
-
-      SWAP (mid, left + 1);
-      if (data[left] > data[right])
-        SWAP (left, right);
-      if (data[left + 1] > data[right])
-        SWAP (left + 1, right);
-      if (data[left] > data[left + 1])
-        SWAP (left, left + 1);
-      pivot = data[left + 1];
-      for (;;)
-        {
-          do i++; while (data[i] < pivot);
-          do j--; while (data[j] > pivot);
-          if (j < i)
-            break;
-          SWAP (i, j);
-        }
-      data[left + 1] = data[j];
-      data[j] = pivot;
-      if (j >= k)
-        right = j - 1;
-      if (j <= k)
-        left = i;
-    }
-  if (right == left + 1 && data[right] < data[left])
-    SWAP (left, right);
-#undef SWAP
+  select_range (data, 0, (gssize) n - 1, (gssize) k);
 }
 
 static double
