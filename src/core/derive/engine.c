@@ -397,7 +397,8 @@ min_of (const double *data, gsize n)
   return m;
 }
 
-/* Linear between two order statistics, as gsl_stats_quantile_from_sorted_data. */
+/* Linear between two order statistics (as GSL's quantiles, rounded as
+ * this engine always did). */
 static double
 interpolate (double below, double above, double fraction)
 {
@@ -464,11 +465,21 @@ three_quantiles (double *data, gsize n, gboolean constant, double *median, doubl
     }
 
 from_order_statistics:
-  /* As gsl_stats_quantile_from_sorted_data: no interpolation at a whole
-   * position or at the end. */
+  /* No interpolation at a whole position or at the end. */
   *median = fraction[0] == 0.0 || k[0] + 1 >= n ? below[0] : interpolate (below[0], above[0], fraction[0]);
   *p16 = fraction[1] == 0.0 || k[1] + 1 >= n ? below[1] : interpolate (below[1], above[1], fraction[1]);
   *p84 = fraction[2] == 0.0 || k[2] + 1 >= n ? below[2] : interpolate (below[2], above[2], fraction[2]);
+}
+
+void
+sl_draw_quantiles (double *data, gsize n, double *median, double *p16, double *p84)
+{
+  gboolean constant = TRUE;
+
+  g_return_if_fail (n > 0);
+  for (gsize i = 1; i < n; i++)
+    constant &= memcmp (&data[i], &data[0], sizeof (double)) == 0;
+  three_quantiles (data, n, constant, median, p16, p84);
 }
 
 /* Median and 68% percentiles of the finite draws of Q. */
