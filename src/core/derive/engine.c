@@ -260,6 +260,35 @@ start_pass (SlEngine *engine, const SlOverride *overrides, guint n_overrides, gb
     }
 }
 
+/* start_pass for a draw after the first: only the inputs with an error
+ * are drawn again (DRAWN, in field order, as start_pass draws them); the
+ * others keep the plain values the first draw put in place. */
+static void
+start_next_draw (SlEngine *engine, const SlOverride *overrides, guint n_overrides, const SlField *drawn,
+                 guint n_drawn)
+{
+  SlEval *ev = &engine->ev;
+
+  memset (ev->has, 0, sizeof ev->has);
+  memset (ev->overridden, 0, sizeof ev->overridden);
+  memset (ev->has_interval, 0, sizeof ev->has_interval);
+  for (guint i = 0; i < n_drawn; i++)
+    ev->in[drawn[i]].v = ev->measured[drawn[i]] + gsl_ran_gaussian_ziggurat (ev->rng, ev->sigma[drawn[i]]);
+  for (guint i = 0; i < n_overrides; i++)
+    {
+      SlQuantity q = overrides[i].quantity;
+      double value = overrides[i].value;
+      double sigma = (overrides[i].hi - overrides[i].lo) / 2.0;
+
+      if (isfinite (sigma))
+        value += gsl_ran_gaussian_ziggurat (ev->rng, sigma);
+      ev->q[q].v = value;
+      ev->q[q].n = 0;
+      ev->has[q] = TRUE;
+      ev->overridden[q] = TRUE;
+    }
+}
+
 static gboolean
 gives_text (const SlModule *m)
 {
@@ -563,16 +592,24 @@ run_draws (SlEngine *engine, gint64 star_id, const SlOverride *overrides, guint 
   double n_pairs = 0, mt = 0, ml = 0, ctt = 0, cll = 0, ctl = 0;
   gboolean run[64], varies[SL_N_QUANTITIES], first_has[SL_N_QUANTITIES];
   SlDual first_q[SL_N_QUANTITIES];
+  SlField drawn[SL_N_FIELDS];
+  guint n_drawn = 0;
 
   g_assert (engine->order->len <= G_N_ELEMENTS (run));
   plan_draws (engine, overrides, n_overrides, run, varies);
+  for (SlField f = 0; f < SL_N_FIELDS; f++)
+    if (ev->has_in[f] && isfinite (ev->sigma[f]))
+      drawn[n_drawn++] = f;
   gsl_rng_set (engine->rng, star_seed (engine->params.seed, star_id));
   ev->rng = engine->rng;
   for (guint d = 0; d < draws; d++)
     {
       /* Every input is drawn in every draw, so that the generator's
        * sequence does not depend on what is skipped. */
-      start_pass (engine, overrides, n_overrides, FALSE);
+      if (d == 0 || !engine->skip_constant)
+        start_pass (engine, overrides, n_overrides, FALSE);
+      else
+        start_next_draw (engine, overrides, n_overrides, drawn, n_drawn);
       ev->flags = linear_flags;
       if (d == 0)
         {
@@ -595,7 +632,8 @@ run_draws (SlEngine *engine, gint64 star_id, const SlOverride *overrides, guint 
               ((const SlModule *) engine->order->pdata[i])->compute (ev);
         }
       for (SlQuantity q = 0; q < SL_N_QUANTITIES; q++)
-        engine->samples[(gsize) q * draws + d] = ev->has[q] ? ev->q[q].v : NAN;
+        if (d == 0 || varies[q])
+          engine->samples[(gsize) q * draws + d] = ev->has[q] ? ev->q[q].v : NAN;
       engine->logt_draws[d] = engine->logl_draws[d] = NAN;
       if (ev->has[SL_Q_TEFF] && ev->has[SL_Q_LUM] && ev->q[SL_Q_TEFF].v > 0 && ev->q[SL_Q_LUM].v > 0)
         {
@@ -610,7 +648,17 @@ run_draws (SlEngine *engine, gint64 star_id, const SlOverride *overrides, guint 
       {
         gboolean linear_interval = isfinite (out->lo[q]);
 
-        draw_percentiles (engine, q, draws, out);
+        if (varies[q])
+          draw_percentiles (engine, q, draws, out);
+        else
+          {
+            /* What draw_percentiles finds in DRAWS copies of the first. */
+            double first = engine->samples[(gsize) q * draws];
+
+            out->has[q] = isfinite (first);
+            if (out->has[q])
+              three_quantiles (&first, draws, TRUE, &out->value[q], &out->lo[q], &out->hi[q]);
+          }
         /* No interval where first order has none: an input without an
          * error, or a value that depends on no measured input. */
         if (!linear_interval)
