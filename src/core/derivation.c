@@ -73,6 +73,20 @@ derived_insert_sql (const char *columns)
   return g_string_free (sql, FALSE);
 }
 
+/* UPDATE derived SET run_id = ?2, COLUMN = ?3, ... WHERE star_id = ?1:
+ * the parameters of the insert, in its order. */
+static char *
+derived_update_sql (const char *columns)
+{
+  g_auto (GStrv) names = g_strsplit (columns, ", ", -1);
+  GString *sql = g_string_new ("UPDATE derived SET run_id = ?2");
+
+  for (int i = 0; names[i]; i++)
+    g_string_append_printf (sql, ", %s = ?%d", names[i], i + 3);
+  g_string_append (sql, " WHERE star_id = ?1");
+  return g_string_free (sql, FALSE);
+}
+
 static void
 bind_double_or_null (sqlite3_stmt *stmt, int index, gboolean present, double value)
 {
@@ -578,6 +592,34 @@ finish_run (SlProject *project, const SlDeriveParams *params, SlDeriveReport *re
   return sl_ledger_append (project, "derive", summary, details, error);
 }
 
+/* Writes one star's derived row: over the one it has (UPDATE keeps the
+ * row where it is, which costs less than INSERT OR REPLACE's delete and
+ * insert), or as a new row. */
+static gboolean
+store_row (SlProject *project, sqlite3_stmt *update, sqlite3_stmt *insert, gint64 run_id,
+           const SlDeriveItem *item, GError **error)
+{
+  sqlite3_stmt *stmt = update;
+
+  for (int pass = 0; pass < 2; pass++, stmt = insert)
+    {
+      int rc;
+
+      sqlite3_bind_int64 (stmt, 1, item->inputs.star_id);
+      sqlite3_bind_int64 (stmt, 2, run_id);
+      bind_derived_row (stmt, 3, &item->inputs, &item->values);
+      rc = sqlite3_step (stmt);
+      if (rc != SQLITE_DONE)
+        sl_project_set_db_error (project, error, "derived");
+      sqlite3_reset (stmt);
+      if (rc != SQLITE_DONE)
+        return FALSE;
+      if (stmt == insert || sqlite3_changes (sl_project_db (project)) > 0)
+        break;
+    }
+  return TRUE;
+}
+
 static gboolean
 run_in_transaction (SlProject *project, const SlDeriveParams *params, gboolean all,
                     GCancellable *cancellable, SlProgressFunc progress, gpointer progress_data,
@@ -587,6 +629,8 @@ run_in_transaction (SlProject *project, const SlDeriveParams *params, gboolean a
   g_autofree char *started = sl_now_utc ();
   g_autofree char *columns = derived_columns_sql ();
   g_autofree char *insert_sql = NULL;
+  g_autofree char *update_sql = NULL;
+  sqlite3_stmt *update = NULL;
   g_autoptr (GArray) ids = NULL;
   g_autoptr (GHashTable) overrides = NULL;
   g_autoptr (SlInputCursor) cursor = NULL;
@@ -606,6 +650,7 @@ run_in_transaction (SlProject *project, const SlDeriveParams *params, gboolean a
   if (!sl_derive_params_check (params, error))
     return FALSE;
   insert_sql = derived_insert_sql (columns);
+  update_sql = derived_update_sql (columns);
 
   if (!sl_project_begin (project, error))
     return FALSE;
@@ -613,10 +658,12 @@ run_in_transaction (SlProject *project, const SlDeriveParams *params, gboolean a
   overrides = ids ? load_all_overrides (project, error) : NULL;
   report->run_id = overrides ? insert_run (project, params_text, started, error) : 0;
   insert = report->run_id ? sl_project_prepare (project, insert_sql, error) : NULL;
-  cursor = insert ? sl_input_cursor_new (project, 0, error) : NULL;
+  update = insert ? sl_project_prepare (project, update_sql, error) : NULL;
+  cursor = update ? sl_input_cursor_new (project, 0, error) : NULL;
   if (cursor == NULL)
     {
       sqlite3_finalize (insert);
+      sqlite3_finalize (update);
       sl_project_rollback (project);
       return FALSE;
     }
@@ -650,21 +697,14 @@ run_in_transaction (SlProject *project, const SlDeriveParams *params, gboolean a
       /* A cancelled worker leaves the rest of its batch underived. */
       if (g_cancellable_set_error_if_cancelled (cancellable, &local))
         break;
-      sqlite3_bind_int64 (insert, 1, item->inputs.star_id);
-      sqlite3_bind_int64 (insert, 2, report->run_id);
-      bind_derived_row (insert, 3, &item->inputs, &item->values);
-      if (sqlite3_step (insert) != SQLITE_DONE)
-        {
-          sl_project_set_db_error (project, &local, "derived");
-          sqlite3_reset (insert);
-          break;
-        }
-      sqlite3_reset (insert);
+      if (!store_row (project, update, insert, report->run_id, item, &local))
+        break;
       report->computed++;
       if (report->computed % check_every == 0 && progress)
         progress ((double) report->computed / ids->len, progress_data);
     }
   sqlite3_finalize (insert);
+  sqlite3_finalize (update);
 
   report->up_to_date = total - report->computed;
   report->seconds = g_timer_elapsed (timer, NULL);
