@@ -15,6 +15,7 @@
 #include <math.h>
 #include <string.h>
 
+#include "derive/pool.h"
 #include "inputs.h"
 #include "ledger.h"
 #include "sl-error.h"
@@ -71,6 +72,20 @@ derived_insert_sql (const char *columns)
     if (*p == ',')
       g_string_append (sql, ", ?");
   g_string_append (sql, ", ?)");   /* the first column has no comma before it */
+  return g_string_free (sql, FALSE);
+}
+
+/* UPDATE derived SET run_id = ?2, COLUMN = ?3, ... WHERE star_id = ?1:
+ * the parameters of the insert, in its order. */
+static char *
+derived_update_sql (const char *columns)
+{
+  g_auto (GStrv) names = g_strsplit (columns, ", ", -1);
+  GString *sql = g_string_new ("UPDATE derived SET run_id = ?2");
+
+  for (int i = 0; names[i]; i++)
+    g_string_append_printf (sql, ", %s = ?%d", names[i], i + 3);
+  g_string_append (sql, " WHERE star_id = ?1");
   return g_string_free (sql, FALSE);
 }
 
@@ -458,18 +473,21 @@ static GArray *
 stars_to_derive (SlProject *project, const char *params_text, gboolean all, guint64 *total,
                  GError **error)
 {
+  /* Every star needs no look at the derived table, which is most of the
+   * file: reading it would cost more than the stars' ids. */
   sqlite3_stmt *stmt = sl_project_prepare (project,
-                                           "SELECT s.id, ?1 OR d.star_id IS NULL OR d.stale OR r.parameters <> ?2 "
-                                           "FROM stars s LEFT JOIN derived d ON d.star_id = s.id "
-                                           "LEFT JOIN derivation_runs r ON r.id = d.run_id ORDER BY s.id",
+                                           all ? "SELECT id, 1 FROM stars ORDER BY id"
+                                               : "SELECT s.id, d.star_id IS NULL OR d.stale OR r.parameters <> ?2 "
+                                                 "FROM stars s LEFT JOIN derived d ON d.star_id = s.id "
+                                                 "LEFT JOIN derivation_runs r ON r.id = d.run_id ORDER BY s.id",
                                            error);
   GArray *ids;
   int rc;
 
   if (stmt == NULL)
     return NULL;
-  sqlite3_bind_int (stmt, 1, all);
-  sqlite3_bind_text (stmt, 2, params_text, -1, SQLITE_STATIC);
+  if (!all)
+    sqlite3_bind_text (stmt, 2, params_text, -1, SQLITE_STATIC);
   ids = g_array_new (FALSE, FALSE, sizeof (gint64));
   *total = 0;
   while ((rc = sqlite3_step (stmt)) == SQLITE_ROW)
@@ -576,32 +594,65 @@ finish_run (SlProject *project, const SlDeriveParams *params, SlDeriveReport *re
   return sl_ledger_append (project, "derive", summary, details, error);
 }
 
-gboolean
-sl_derivation_run (SlProject *project, const SlDeriveParams *params, gboolean all,
-                   GCancellable *cancellable, SlProgressFunc progress, gpointer progress_data,
-                   SlDeriveReport *report, GError **error)
+/* Writes one star's derived row: over the one it has (UPDATE keeps the
+ * row where it is, which costs less than INSERT OR REPLACE's delete and
+ * insert), or as a new row. */
+static gboolean
+store_row (SlProject *project, sqlite3_stmt *update, sqlite3_stmt *insert, gint64 run_id,
+           const SlDeriveItem *item, GError **error)
+{
+  sqlite3_stmt *stmt = update;
+
+  for (int pass = 0; pass < 2; pass++, stmt = insert)
+    {
+      int rc;
+
+      sqlite3_bind_int64 (stmt, 1, item->inputs.star_id);
+      sqlite3_bind_int64 (stmt, 2, run_id);
+      bind_derived_row (stmt, 3, &item->inputs, &item->values);
+      rc = sqlite3_step (stmt);
+      if (rc != SQLITE_DONE)
+        sl_project_set_db_error (project, error, "derived");
+      sqlite3_reset (stmt);
+      if (rc != SQLITE_DONE)
+        return FALSE;
+      if (stmt == insert || sqlite3_changes (sl_project_db (project)) > 0)
+        break;
+    }
+  return TRUE;
+}
+
+static gboolean
+run_in_transaction (SlProject *project, const SlDeriveParams *params, gboolean all,
+                    GCancellable *cancellable, SlProgressFunc progress, gpointer progress_data,
+                    SlDeriveReport *report, GError **error)
 {
   g_autofree char *params_text = sl_derive_params_to_keyfile (params);
   g_autofree char *started = sl_now_utc ();
   g_autofree char *columns = derived_columns_sql ();
   g_autofree char *insert_sql = NULL;
+  g_autofree char *update_sql = NULL;
+  sqlite3_stmt *update = NULL;
   g_autoptr (GArray) ids = NULL;
   g_autoptr (GHashTable) overrides = NULL;
   g_autoptr (SlInputCursor) cursor = NULL;
-  g_autoptr (SlEngine) engine = NULL;
+  g_autoptr (SlDerivePool) pool = NULL;
   g_autoptr (GTimer) timer = g_timer_new ();
   sqlite3_stmt *insert = NULL;
   SlStarInputs inputs;
-  SlDerivedValues values;
   GError *local = NULL;
   guint64 total;
   guint next = 0;
+  gboolean read_all = FALSE;
+  /* Monte Carlo stars take a thousand times longer: report them often. */
+  guint check_every = params->errors == SL_ERRORS_MONTE_CARLO ? 64 : ROWS_PER_CHECK;
 
   memset (report, 0, sizeof *report);
   /* The same limits whichever front end chose the parameters. */
   if (!sl_derive_params_check (params, error))
     return FALSE;
   insert_sql = derived_insert_sql (columns);
+  update_sql = derived_update_sql (columns);
 
   if (!sl_project_begin (project, error))
     return FALSE;
@@ -609,46 +660,53 @@ sl_derivation_run (SlProject *project, const SlDeriveParams *params, gboolean al
   overrides = ids ? load_all_overrides (project, error) : NULL;
   report->run_id = overrides ? insert_run (project, params_text, started, error) : 0;
   insert = report->run_id ? sl_project_prepare (project, insert_sql, error) : NULL;
-  cursor = insert ? sl_input_cursor_new (project, 0, error) : NULL;
+  update = insert ? sl_project_prepare (project, update_sql, error) : NULL;
+  cursor = update ? sl_input_cursor_new (project, 0, error) : NULL;
   if (cursor == NULL)
     {
       sqlite3_finalize (insert);
+      sqlite3_finalize (update);
       sl_project_rollback (project);
       return FALSE;
     }
 
-  engine = sl_engine_new (params);
-  while (next < ids->len && sl_input_cursor_next (cursor, &inputs, &local))
+  /* This thread reads and writes (one SQLite connection, one thread);
+   * the pool derives, in order, on as many threads as there are cores. */
+  pool = sl_derive_pool_new (params, sl_derive_threads (), cancellable);
+  for (;;)
     {
-      GArray *star_overrides;
+      const SlDeriveItem *item;
 
-      if (inputs.star_id != g_array_index (ids, gint64, next))
-        continue;
-      next++;
-      star_overrides = g_hash_table_lookup (overrides, &inputs.star_id);
-      sl_engine_derive (engine, &inputs,
-                        star_overrides ? (const SlOverride *) star_overrides->data : NULL,
-                        star_overrides ? star_overrides->len : 0, &values);
-      sqlite3_bind_int64 (insert, 1, inputs.star_id);
-      sqlite3_bind_int64 (insert, 2, report->run_id);
-      bind_derived_row (insert, 3, &inputs, &values);
-      if (sqlite3_step (insert) != SQLITE_DONE)
+      while (!read_all && !sl_derive_pool_full (pool))
         {
-          sl_project_set_db_error (project, &local, "derived");
-          sqlite3_reset (insert);
-          break;
+          GArray *star_overrides;
+
+          if (next == ids->len || !sl_input_cursor_next (cursor, &inputs, &local))
+            {
+              read_all = TRUE;
+              break;
+            }
+          if (inputs.star_id != g_array_index (ids, gint64, next))
+            continue;
+          next++;
+          star_overrides = g_hash_table_lookup (overrides, &inputs.star_id);
+          sl_derive_pool_push (pool, &inputs,
+                               star_overrides ? (const SlOverride *) star_overrides->data : NULL,
+                               star_overrides ? star_overrides->len : 0);
         }
-      sqlite3_reset (insert);
+      if (local != NULL || (item = sl_derive_pool_pop (pool)) == NULL)
+        break;
+      /* A cancelled worker leaves the rest of its batch underived. */
+      if (g_cancellable_set_error_if_cancelled (cancellable, &local))
+        break;
+      if (!store_row (project, update, insert, report->run_id, item, &local))
+        break;
       report->computed++;
-      if (report->computed % ROWS_PER_CHECK == 0)
-        {
-          if (g_cancellable_set_error_if_cancelled (cancellable, &local))
-            break;
-          if (progress)
-            progress ((double) report->computed / ids->len, progress_data);
-        }
+      if (report->computed % check_every == 0 && progress)
+        progress ((double) report->computed / ids->len, progress_data);
     }
   sqlite3_finalize (insert);
+  sqlite3_finalize (update);
 
   report->up_to_date = total - report->computed;
   report->seconds = g_timer_elapsed (timer, NULL);
@@ -659,6 +717,26 @@ sl_derivation_run (SlProject *project, const SlDeriveParams *params, gboolean al
       return FALSE;
     }
   return TRUE;
+}
+
+gboolean
+sl_derivation_run (SlProject *project, const SlDeriveParams *params, gboolean all,
+                   GCancellable *cancellable, SlProgressFunc progress, gpointer progress_data,
+                   SlDeriveReport *report, GError **error)
+{
+  gboolean ok;
+
+  memset (report, 0, sizeof *report);
+  /* Every derived row refers to a star read in the run's transaction and
+   * to the run it inserted: checking both references again for each row
+   * took a third of the time of writing it.  The setting holds for whole
+   * transactions, so it changes outside one. */
+  if (!sl_project_exec (project, "PRAGMA foreign_keys = OFF", error))
+    return FALSE;
+  ok = run_in_transaction (project, params, all, cancellable, progress, progress_data, report, error);
+  if (!sl_project_exec (project, "PRAGMA foreign_keys = ON", ok ? error : NULL))
+    ok = FALSE;
+  return ok;
 }
 
 gboolean

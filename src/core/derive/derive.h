@@ -219,7 +219,12 @@ sl_eval_set (SlEval *ev, SlQuantity q, SlDual value)
   if (ev->overridden[q])
     return;   /* a value set by hand wins; the engine put it in place */
   ev->has[q] = TRUE;
-  ev->q[q] = value;
+  /* Only the partials in use: a draw's value is one double, not a
+   * struct of them. */
+  ev->q[q].v = value.v;
+  ev->q[q].n = value.n;
+  for (int k = 0; k < value.n; k++)
+    ev->q[q].d[k] = value.d[k];
 }
 
 #define SL_MODULE_MAX_IO 6
@@ -236,6 +241,10 @@ typedef struct {
   SlQuantity  gives[SL_MODULE_MAX_IO];   /* outputs, SL_Q_NONE-terminated */
   const char *parameters;    /* names of the parameters it reads, for explain */
   void      (*compute) (SlEval *ev);
+  /* Takes random numbers of its own from ev->rng in a Monte Carlo draw.
+   * A module that does not, and none of whose inputs and needs vary
+   * between draws, runs once per star instead of once per draw. */
+  gboolean    draws;
 } SlModule;
 
 /* The registry (registry.c): every module, in an order the engine checks

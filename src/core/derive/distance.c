@@ -249,4 +249,5 @@ const SlModule sl_module_distance = {
   .gives = { SL_Q_DIST, SL_Q_NONE },
   .parameters = "distance, length_scale_pc, parallax_zero_point",
   .compute = compute_distance,
+  .draws = TRUE,
 };

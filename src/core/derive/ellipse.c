@@ -17,32 +17,87 @@
 #include <erfa.h>
 #include <glib/gi18n.h>
 #include <math.h>
+#include <string.h>
 
 #include "../constants.h"
 #include "derive.h"
 #include "methods.h"
 
+/* The orientation from the measured position: its uncertainty from
+ * position errors is negligible. */
+static double
+position_angle (double ra_deg, double dec_deg)
+{
+  double eps = sl_obliquity_j2000 ();
+  double ra = ra_deg * ERFA_DD2R, dec = dec_deg * ERFA_DD2R;
+  double pa = atan2 (-sin (eps) * cos (ra), cos (eps) * cos (dec) + sin (eps) * sin (dec) * sin (ra)) * ERFA_DR2D
+              + 90.0;
+
+  return fmod (fmod (pa, 180.0) + 180.0, 180.0);
+}
+
+static SlDual
+abs_sin_latitude (SlDual elat)
+{
+  return sl_dual_fabs (sl_dual_sin (sl_dual_scale (elat, ERFA_DD2R)));
+}
+
+static gboolean
+same_bits (double a, double b)
+{
+  return memcmp (&a, &b, sizeof a) == 0;
+}
+
+/* A star's Monte Carlo draws share its measured position, and its
+ * latitude when the position has no errors: the trigonometry of the
+ * previous call on this thread is reused when its arguments are the
+ * same bits (the same operations, so the same numbers). */
+static _Thread_local struct {
+  gboolean set;
+  double   ra, dec, pa;
+  double   elat;
+  SlDual   abs_sin_b;
+} memo;
+
 static void
 compute_ellipse (SlEval *ev)
 {
-  double eps = sl_obliquity_j2000 ();
+  SlDual parallax, elat, abs_sin_b;
   double ra, dec, pa;
-  SlDual parallax;
 
   if (!ev->has_in[SL_FIELD_PARALLAX] || !ev->has[SL_Q_ELAT]
       || (ev->flags & SL_FLAG_NONPOSITIVE_PARALLAX))
     return;
   parallax = ev->in[SL_FIELD_PARALLAX];
+  elat = ev->q[SL_Q_ELAT];
+  ra = ev->measured[SL_FIELD_RA];
+  dec = ev->measured[SL_FIELD_DEC];
+  if (ev->rng == NULL || elat.n != 0)
+    {
+      abs_sin_b = abs_sin_latitude (elat);
+      pa = position_angle (ra, dec);
+    }
+  else
+    {
+      if (!memo.set || !same_bits (memo.ra, ra) || !same_bits (memo.dec, dec))
+        {
+          memo.ra = ra;
+          memo.dec = dec;
+          memo.pa = position_angle (ra, dec);
+          memo.elat = elat.v;
+          memo.abs_sin_b = abs_sin_latitude (elat);
+          memo.set = TRUE;
+        }
+      else if (!same_bits (memo.elat, elat.v))
+        {
+          memo.elat = elat.v;
+          memo.abs_sin_b = abs_sin_latitude (elat);
+        }
+      abs_sin_b = memo.abs_sin_b;
+      pa = memo.pa;
+    }
   sl_eval_set (ev, SL_Q_ELLIPSE_A, parallax);
-  sl_eval_set (ev, SL_Q_ELLIPSE_B,
-               sl_dual_mul (parallax, sl_dual_fabs (sl_dual_sin (sl_dual_scale (ev->q[SL_Q_ELAT], ERFA_DD2R)))));
-
-  /* The orientation: its uncertainty from position errors is negligible. */
-  ra = ev->measured[SL_FIELD_RA] * ERFA_DD2R;
-  dec = ev->measured[SL_FIELD_DEC] * ERFA_DD2R;
-  pa = atan2 (-sin (eps) * cos (ra), cos (eps) * cos (dec) + sin (eps) * sin (dec) * sin (ra)) * ERFA_DR2D
-       + 90.0;
-  pa = fmod (fmod (pa, 180.0) + 180.0, 180.0);
+  sl_eval_set (ev, SL_Q_ELLIPSE_B, sl_dual_mul (parallax, abs_sin_b));
   sl_eval_set (ev, SL_Q_ELLIPSE_PA, sl_dual_const (pa));
 }
 

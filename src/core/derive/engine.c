@@ -18,7 +18,6 @@
 #include "engine.h"
 
 #include <gsl/gsl_randist.h>
-#include <gsl/gsl_statistics_double.h>
 #include <math.h>
 #include <string.h>
 
@@ -33,6 +32,7 @@ struct _SlEngine {
   double               *samples;   /* SL_N_QUANTITIES x draws */
   double               *logt_draws, *logl_draws;
   double               *scratch;   /* draws */
+  gboolean              skip_constant;   /* run draw-independent modules once per star */
   SlEval                ev;
 };
 
@@ -109,7 +109,14 @@ sl_engine_new (const SlDeriveParams *params)
   engine->logl_draws = g_new (double, draws);
   engine->scratch = g_new (double, draws);
   engine->ev.params = &engine->params;
+  engine->skip_constant = TRUE;
   return engine;
+}
+
+void
+sl_engine_set_skip_constant (SlEngine *engine, gboolean skip)
+{
+  engine->skip_constant = skip;
 }
 
 void
@@ -228,8 +235,15 @@ start_pass (SlEngine *engine, const SlOverride *overrides, guint n_overrides, gb
       if (!ev->has_in[f])
         continue;
       value = ev->measured[f];
-      if (!track && isfinite (ev->sigma[f]))
-        value += gsl_ran_gaussian_ziggurat (ev->rng, ev->sigma[f]);
+      if (!track)
+        {
+          /* A draw: a plain value (sl_dual_const without the copy). */
+          if (isfinite (ev->sigma[f]))
+            value += gsl_ran_gaussian_ziggurat (ev->rng, ev->sigma[f]);
+          ev->in[f].v = value;
+          ev->in[f].n = 0;
+          continue;
+        }
       ev->in[f] = partial_of (f) >= 0 ? sl_dual_input (value, partial_of (f), track) : sl_dual_const (value);
     }
   for (guint i = 0; i < n_overrides; i++)
@@ -241,6 +255,35 @@ start_pass (SlEngine *engine, const SlOverride *overrides, guint n_overrides, gb
       if (!track && isfinite (sigma))
         value += gsl_ran_gaussian_ziggurat (ev->rng, sigma);
       ev->q[q] = sl_dual_input (value, SL_PARTIAL_OVERRIDE, track);
+      ev->has[q] = TRUE;
+      ev->overridden[q] = TRUE;
+    }
+}
+
+/* start_pass for a draw after the first: only the inputs with an error
+ * are drawn again (DRAWN, in field order, as start_pass draws them); the
+ * others keep the plain values the first draw put in place. */
+static void
+start_next_draw (SlEngine *engine, const SlOverride *overrides, guint n_overrides, const SlField *drawn,
+                 guint n_drawn)
+{
+  SlEval *ev = &engine->ev;
+
+  memset (ev->has, 0, sizeof ev->has);
+  memset (ev->overridden, 0, sizeof ev->overridden);
+  memset (ev->has_interval, 0, sizeof ev->has_interval);
+  for (guint i = 0; i < n_drawn; i++)
+    ev->in[drawn[i]].v = ev->measured[drawn[i]] + gsl_ran_gaussian_ziggurat (ev->rng, ev->sigma[drawn[i]]);
+  for (guint i = 0; i < n_overrides; i++)
+    {
+      SlQuantity q = overrides[i].quantity;
+      double value = overrides[i].value;
+      double sigma = (overrides[i].hi - overrides[i].lo) / 2.0;
+
+      if (isfinite (sigma))
+        value += gsl_ran_gaussian_ziggurat (ev->rng, sigma);
+      ev->q[q].v = value;
+      ev->q[q].n = 0;
       ev->has[q] = TRUE;
       ev->overridden[q] = TRUE;
     }
@@ -310,20 +353,162 @@ linear_results (SlEngine *engine, const double *sigma, SlDerivedValues *out)
     }
 }
 
-/* The P quantile of DATA as gsl_stats_quantile_from_sorted_data defines
- * it (linear between order statistics), found by selection (GSL's
- * quickselect) instead of a full sort. */
-static double
-quantile_by_selection (double *data, gsize n, double p)
+/* Puts the K-th smallest of DATA[LEFT..RIGHT] at DATA[K], the smaller
+ * ones before it and the larger ones after: Floyd and Rivest's SELECT
+ * (CACM 18, 173, 1975), which first narrows the range around K by
+ * selecting within a sample, so that a median costs about 1.5 N
+ * comparisons instead of quickselect's 3.4 N.  The order statistics are
+ * values, not positions: any selection gives the same numbers as GSL's. */
+static void
+select_range (double *data, gssize left, gssize right, gssize k)
 {
-  double position = p * (n - 1);
-  gsize k = (gsize) floor (position);
-  double below = gsl_stats_select (data, 1, n, k);
-  double fraction = position - k;
+#define SWAP(a, b) G_STMT_START { double t_ = data[a]; data[a] = data[b]; data[b] = t_; } G_STMT_END
+  while (right > left)
+    {
+      double t;
+      gssize i, j;
 
-  if (fraction == 0.0 || k + 1 >= n)
-    return below;
-  return below + fraction * (gsl_stats_select (data, 1, n, k + 1) - below);
+      if (right - left > 600)
+        {
+          double n = right - left + 1, m = k - left + 1, z = log (n);
+          double sample = 0.5 * exp (2.0 * z / 3.0);
+          double sd = 0.5 * sqrt (z * sample * (n - sample) / n) * (m < n / 2 ? -1.0 : 1.0);
+          gssize new_left = MAX (left, (gssize) (k - m * sample / n + sd));
+          gssize new_right = MIN (right, (gssize) (k + (n - m) * sample / n + sd));
+
+          select_range (data, new_left, new_right, k);
+        }
+      t = data[k];
+      i = left;
+      j = right;
+      SWAP (left, k);
+      if (data[right] > t)
+        SWAP (right, left);
+      while (i < j)
+        {
+          SWAP (i, j);
+          i++;
+          j--;
+          while (data[i] < t)
+            i++;
+          while (data[j] > t)
+            j--;
+        }
+      if (data[left] == t)
+        SWAP (left, j);
+      else
+        {
+          j++;
+          SWAP (j, right);
+        }
+      if (j <= k)
+        left = j + 1;
+      if (k <= j)
+        right = j - 1;
+    }
+#undef SWAP
+}
+
+static void
+select_kth (double *data, gsize n, gsize k)
+{
+  select_range (data, 0, (gssize) n - 1, (gssize) k);
+}
+
+static double
+min_of (const double *data, gsize n)
+{
+  double m = data[0];
+
+  for (gsize i = 1; i < n; i++)
+    if (data[i] < m)
+      m = data[i];
+  return m;
+}
+
+/* Linear between two order statistics (as GSL's quantiles, rounded as
+ * this engine always did). */
+static double
+interpolate (double below, double above, double fraction)
+{
+  return below + fraction * (above - below);
+}
+
+/* The median and the 15.87th and 84.13th percentiles of DATA[0..N), N > 0,
+ * in the order of the run's conventions: one selection for the median,
+ * then one in each half, instead of two over the whole sample for each. */
+static void
+three_quantiles (double *data, gsize n, gboolean constant, double *median, double *p16, double *p84)
+{
+  const double p[3] = { 0.5, P16, P84 };
+  gsize k[3];
+  double fraction[3], below[3], above[3];
+
+  for (int i = 0; i < 3; i++)
+    {
+      double position = p[i] * (n - 1);
+
+      k[i] = (gsize) floor (position);
+      fraction[i] = position - k[i];
+    }
+
+  if (constant)
+    {
+      /* Every order statistic is the one value. */
+      for (int i = 0; i < 3; i++)
+        below[i] = above[i] = data[0];
+      goto from_order_statistics;
+    }
+
+  /* The median's order statistics k and k + 1. */
+  select_kth (data, n, k[0]);
+  below[0] = data[k[0]];
+  above[0] = k[0] + 1 < n ? min_of (data + k[0] + 1, n - k[0] - 1) : below[0];
+
+  /* The lower percentile among the k[0] smallest, which now come first. */
+  if (k[1] < k[0])
+    {
+      select_kth (data, k[0], k[1]);
+      below[1] = data[k[1]];
+      above[1] = k[1] + 1 < k[0] ? min_of (data + k[1] + 1, k[0] - k[1] - 1) : data[k[0]];
+    }
+  else
+    {
+      below[1] = data[k[0]];
+      above[1] = above[0];
+    }
+
+  /* The upper percentile among those after the median's k. */
+  if (k[2] > k[0])
+    {
+      gsize base = k[0] + 1;
+
+      select_kth (data + base, n - base, k[2] - base);
+      below[2] = data[k[2]];
+      above[2] = k[2] + 1 < n ? min_of (data + k[2] + 1, n - k[2] - 1) : below[2];
+    }
+  else
+    {
+      below[2] = below[0];
+      above[2] = above[0];
+    }
+
+from_order_statistics:
+  /* No interpolation at a whole position or at the end. */
+  *median = fraction[0] == 0.0 || k[0] + 1 >= n ? below[0] : interpolate (below[0], above[0], fraction[0]);
+  *p16 = fraction[1] == 0.0 || k[1] + 1 >= n ? below[1] : interpolate (below[1], above[1], fraction[1]);
+  *p84 = fraction[2] == 0.0 || k[2] + 1 >= n ? below[2] : interpolate (below[2], above[2], fraction[2]);
+}
+
+void
+sl_draw_quantiles (double *data, gsize n, double *median, double *p16, double *p84)
+{
+  gboolean constant = TRUE;
+
+  g_return_if_fail (n > 0);
+  for (gsize i = 1; i < n; i++)
+    constant &= memcmp (&data[i], &data[0], sizeof (double)) == 0;
+  three_quantiles (data, n, constant, median, p16, p84);
 }
 
 /* Median and 68% percentiles of the finite draws of Q. */
@@ -332,20 +517,25 @@ draw_percentiles (SlEngine *engine, SlQuantity q, guint draws, SlDerivedValues *
 {
   const double *samples = engine->samples + (gsize) q * draws;
   double *finite = engine->scratch;
+  gboolean constant = TRUE;
   gsize n = 0;
 
+  /* Draw-independent quantities (a position without errors) are common:
+   * the same bits in every draw need no selection. */
   for (guint d = 0; d < draws; d++)
     if (isfinite (samples[d]))
-      finite[n++] = samples[d];
+      {
+        finite[n] = samples[d];
+        constant &= memcmp (&finite[n], &finite[0], sizeof (double)) == 0;
+        n++;
+      }
   if (n < MIN_DRAW_FRACTION * draws)
     {
       out->has[q] = FALSE;
       return;
     }
   out->has[q] = TRUE;
-  out->value[q] = quantile_by_selection (finite, n, 0.5);
-  out->lo[q] = quantile_by_selection (finite, n, P16);
-  out->hi[q] = quantile_by_selection (finite, n, P84);
+  three_quantiles (finite, n, constant, &out->value[q], &out->lo[q], &out->hi[q]);
 }
 
 /* A well-mixed 64-bit seed per star, so each star's draws are the same
@@ -360,6 +550,36 @@ star_seed (guint64 seed, gint64 star_id)
   return (unsigned long) (z ^ (z >> 31));
 }
 
+/* Which numeric modules must run in each draw of this star (RUN), and
+ * which quantities differ between draws (VARIES): those that depend on an
+ * input drawn with an error, on a hand-set value with an interval, or on
+ * a module taking random numbers of its own.  The others are the same in
+ * every draw, computed once (in the first draw) and copied. */
+static void
+plan_draws (SlEngine *engine, const SlOverride *overrides, guint n_overrides, gboolean *run,
+            gboolean *varies)
+{
+  SlEval *ev = &engine->ev;
+
+  memset (varies, 0, SL_N_QUANTITIES * sizeof *varies);
+  for (guint i = 0; i < n_overrides; i++)
+    if (isfinite ((overrides[i].hi - overrides[i].lo) / 2.0))
+      varies[overrides[i].quantity] = TRUE;
+  for (guint i = 0; i < engine->order->len; i++)
+    {
+      const SlModule *m = engine->order->pdata[i];
+      gboolean v = m->draws || !engine->skip_constant;
+
+      for (int k = 0; !v && k < SL_MODULE_MAX_IO && m->inputs[k] != SL_FIELD_NONE; k++)
+        v = ev->has_in[m->inputs[k]] && isfinite (ev->sigma[m->inputs[k]]);
+      for (int k = 0; !v && k < SL_MODULE_MAX_IO && m->needs[k] != SL_Q_NONE; k++)
+        v = varies[m->needs[k]];
+      run[i] = v && !gives_text (m);
+      for (int k = 0; v && k < SL_MODULE_MAX_IO && m->gives[k] != SL_Q_NONE; k++)
+        varies[m->gives[k]] = TRUE;
+    }
+}
+
 /* KEEP marks quantities whose module gave them an interval of their own in
  * the linear pass (the EDSD posterior's mode and HDI, the parallax S/N as
  * measured): draws do not replace those. */
@@ -370,16 +590,50 @@ run_draws (SlEngine *engine, gint64 star_id, const SlOverride *overrides, guint 
   SlEval *ev = &engine->ev;
   guint draws = engine->params.draws;
   double n_pairs = 0, mt = 0, ml = 0, ctt = 0, cll = 0, ctl = 0;
+  gboolean run[64], varies[SL_N_QUANTITIES], first_has[SL_N_QUANTITIES];
+  SlDual first_q[SL_N_QUANTITIES];
+  SlField drawn[SL_N_FIELDS];
+  guint n_drawn = 0;
 
+  g_assert (engine->order->len <= G_N_ELEMENTS (run));
+  plan_draws (engine, overrides, n_overrides, run, varies);
+  for (SlField f = 0; f < SL_N_FIELDS; f++)
+    if (ev->has_in[f] && isfinite (ev->sigma[f]))
+      drawn[n_drawn++] = f;
   gsl_rng_set (engine->rng, star_seed (engine->params.seed, star_id));
   ev->rng = engine->rng;
   for (guint d = 0; d < draws; d++)
     {
-      start_pass (engine, overrides, n_overrides, FALSE);
+      /* Every input is drawn in every draw, so that the generator's
+       * sequence does not depend on what is skipped. */
+      if (d == 0 || !engine->skip_constant)
+        start_pass (engine, overrides, n_overrides, FALSE);
+      else
+        start_next_draw (engine, overrides, n_overrides, drawn, n_drawn);
       ev->flags = linear_flags;
-      run_modules (engine, TRUE);
+      if (d == 0)
+        {
+          run_modules (engine, TRUE);
+          memcpy (first_has, ev->has, sizeof first_has);
+          memcpy (first_q, ev->q, sizeof first_q);
+        }
+      else
+        {
+          for (SlQuantity q = 0; q < SL_N_QUANTITIES; q++)
+            if (!varies[q])
+              {
+                /* Draws carry no partials: the value is all there is. */
+                ev->has[q] = first_has[q];
+                ev->q[q].v = first_q[q].v;
+                ev->q[q].n = 0;
+              }
+          for (guint i = 0; i < engine->order->len; i++)
+            if (run[i])
+              ((const SlModule *) engine->order->pdata[i])->compute (ev);
+        }
       for (SlQuantity q = 0; q < SL_N_QUANTITIES; q++)
-        engine->samples[(gsize) q * draws + d] = ev->has[q] ? ev->q[q].v : NAN;
+        if (d == 0 || varies[q])
+          engine->samples[(gsize) q * draws + d] = ev->has[q] ? ev->q[q].v : NAN;
       engine->logt_draws[d] = engine->logl_draws[d] = NAN;
       if (ev->has[SL_Q_TEFF] && ev->has[SL_Q_LUM] && ev->q[SL_Q_TEFF].v > 0 && ev->q[SL_Q_LUM].v > 0)
         {
@@ -394,7 +648,17 @@ run_draws (SlEngine *engine, gint64 star_id, const SlOverride *overrides, guint 
       {
         gboolean linear_interval = isfinite (out->lo[q]);
 
-        draw_percentiles (engine, q, draws, out);
+        if (varies[q])
+          draw_percentiles (engine, q, draws, out);
+        else
+          {
+            /* What draw_percentiles finds in DRAWS copies of the first. */
+            double first = engine->samples[(gsize) q * draws];
+
+            out->has[q] = isfinite (first);
+            if (out->has[q])
+              three_quantiles (&first, draws, TRUE, &out->value[q], &out->lo[q], &out->hi[q]);
+          }
         /* No interval where first order has none: an input without an
          * error, or a value that depends on no measured input. */
         if (!linear_interval)

@@ -44,6 +44,17 @@ void      sl_engine_derive (SlEngine *engine, const SlStarInputs *inputs,
                             const SlOverride *overrides, guint n_overrides,
                             SlDerivedValues *out);
 
+/* SKIP (the default) runs a module whose results cannot differ between
+ * the draws of a star once per star; FALSE runs every module in every
+ * draw.  The numbers are the same: tests compare the two. */
+void      sl_engine_set_skip_constant (SlEngine *engine, gboolean skip);
+
+/* The median and the 15.87th and 84.13th percentiles of DATA[0..N) (N > 0,
+ * finite): linear between the order statistics K = floor (P (N - 1)) and
+ * K + 1, below + fraction (above - below); DATA is reordered.  What Monte
+ * Carlo intervals are made of. */
+void      sl_draw_quantiles (double *data, gsize n, double *median, double *p16, double *p84);
+
 /* The modules in evaluation order. */
 const SlModule *const *sl_engine_modules (SlEngine *engine, guint *n_modules);
 

@@ -50,4 +50,5 @@ const SlModule sl_module_extinction = {
   .gives = { SL_Q_AV, SL_Q_BV0, SL_Q_NONE },
   .parameters = "rv, rv_err",
   .compute = compute_extinction,
+  .draws = TRUE,
 };
