@@ -263,8 +263,11 @@ check_against_brute_force (guint seed, guint n, double radius, double cluster_de
       for (guint i = 1; i < found->len; i++)
         g_assert_cmpfloat (g_array_index (found, SlSkyCandidate, i - 1).separation, <=,
                            g_array_index (found, SlSkyCandidate, i).separation);
-      qsort (want->data, want->len, sizeof (SlSkyCandidate), by_key);
-      qsort (found->data, found->len, sizeof (SlSkyCandidate), by_key);
+      /* (An empty array has no data to sort: qsort must not see NULL.) */
+      if (want->len > 0)
+        qsort (want->data, want->len, sizeof (SlSkyCandidate), by_key);
+      if (found->len > 0)
+        qsort (found->data, found->len, sizeof (SlSkyCandidate), by_key);
       for (guint i = 0; i < want->len; i++)
         {
           const SlSkyCandidate *w = &g_array_index (want, SlSkyCandidate, i);

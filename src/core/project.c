@@ -321,12 +321,13 @@ check_identity (SlProject *project, GError **error)
     }
 
   version = query_pragma (project, "user_version");
-  if (version == 0 && !has_no_tables (project))
+  if (version < 0 || (version == 0 && !has_no_tables (project)))
     {
       /* A project is created with its tables and version in one
-       * transaction: tables without a version were not made by Starledger. */
+       * transaction: tables without a version (or with a negative one,
+       * found by fuzzing) were not made by Starledger. */
       g_set_error (error, SL_ERROR, SL_ERROR_NOT_A_PROJECT,
-                   _("%s: a damaged project (tables but no schema version)"), project->path);
+                   _("%s: a damaged project (tables but no valid schema version)"), project->path);
       return FALSE;
     }
   if (version > sl_schema_current_version ())

@@ -6,12 +6,32 @@
 #include <glib.h>
 #include <glib/gstdio.h>
 #include <stdint.h>
+#include <stdlib.h>
 #include <string.h>
 
 int LLVMFuzzerTestOneInput (const uint8_t *data, size_t size);
 int LLVMFuzzerInitialize (int *argc, char ***argv);
 
 static char *fuzz_dir;
+
+/* At exit: the scratch directory and what the target left in it. */
+static inline void
+fuzz_cleanup (void)
+{
+  GDir *dir = g_dir_open (fuzz_dir, 0, NULL);
+  const char *name;
+
+  while (dir && (name = g_dir_read_name (dir)))
+    {
+      g_autofree char *path = g_build_filename (fuzz_dir, name, NULL);
+
+      g_unlink (path);
+    }
+  if (dir)
+    g_dir_close (dir);
+  g_rmdir (fuzz_dir);
+  g_clear_pointer (&fuzz_dir, g_free);
+}
 
 static inline void
 fuzz_init (void)
@@ -20,6 +40,7 @@ fuzz_init (void)
   g_setenv ("USER", "fuzz", TRUE);
   fuzz_dir = g_dir_make_tmp ("starledger-fuzz-XXXXXX", NULL);
   g_assert_nonnull (fuzz_dir);
+  atexit (fuzz_cleanup);
 }
 
 /* The bytes with a terminating NUL (inputs may hold NULs: the parsers see
