@@ -506,15 +506,18 @@ ledger_view_starts_with (const char *at, const char *action)
   return FALSE;
 }
 
-/* The first widget of TYPE under WIDGET, depth first. */
+/* The first widget under ROOT (ROOT included), depth first, for which
+ * TEST holds; the finders below are its tests. */
+typedef gboolean (*WidgetTest) (GtkWidget *widget, gconstpointer data);
+
 static GtkWidget *
-find_descendant (GtkWidget *widget, GType type)
+find_widget (GtkWidget *root, WidgetTest test, gconstpointer data)
 {
-  if (G_TYPE_CHECK_INSTANCE_TYPE (widget, type))
-    return widget;
-  for (GtkWidget *child = gtk_widget_get_first_child (widget); child; child = gtk_widget_get_next_sibling (child))
+  if (test (root, data))
+    return root;
+  for (GtkWidget *child = gtk_widget_get_first_child (root); child; child = gtk_widget_get_next_sibling (child))
     {
-      GtkWidget *found = find_descendant (child, type);
+      GtkWidget *found = find_widget (child, test, data);
 
       if (found)
         return found;
@@ -522,20 +525,30 @@ find_descendant (GtkWidget *widget, GType type)
   return NULL;
 }
 
+/* The first widget of TYPE under WIDGET, depth first. */
+static gboolean
+is_of_type (GtkWidget *widget, gconstpointer type)
+{
+  return G_TYPE_CHECK_INSTANCE_TYPE (widget, GPOINTER_TO_SIZE (type));
+}
+
+static GtkWidget *
+find_descendant (GtkWidget *widget, GType type)
+{
+  return find_widget (widget, is_of_type, GSIZE_TO_POINTER (type));
+}
+
 /* The first button under WIDGET that activates ACTION. */
+static gboolean
+is_button_for_action (GtkWidget *widget, gconstpointer action)
+{
+  return GTK_IS_BUTTON (widget) && g_strcmp0 (gtk_actionable_get_action_name (GTK_ACTIONABLE (widget)), action) == 0;
+}
+
 static GtkWidget *
 action_button (GtkWidget *widget, const char *action)
 {
-  if (GTK_IS_BUTTON (widget) && g_strcmp0 (gtk_actionable_get_action_name (GTK_ACTIONABLE (widget)), action) == 0)
-    return widget;
-  for (GtkWidget *child = gtk_widget_get_first_child (widget); child; child = gtk_widget_get_next_sibling (child))
-    {
-      GtkWidget *found = action_button (child, action);
-
-      if (found)
-        return found;
-    }
-  return NULL;
+  return find_widget (widget, is_button_for_action, action);
 }
 
 /* A value set by hand makes a star stale; Derive in the window derives
@@ -946,20 +959,17 @@ test_import_assistant (void)
 }
 
 /* The entry row under WIDGET whose title starts with TITLE. */
+static gboolean
+is_entry_row_titled (GtkWidget *widget, gconstpointer title)
+{
+  return ADW_IS_ENTRY_ROW (widget)
+         && g_str_has_prefix (adw_preferences_row_get_title (ADW_PREFERENCES_ROW (widget)), title);
+}
+
 static GtkWidget *
 find_entry_row (GtkWidget *widget, const char *title)
 {
-  if (ADW_IS_ENTRY_ROW (widget)
-      && g_str_has_prefix (adw_preferences_row_get_title (ADW_PREFERENCES_ROW (widget)), title))
-    return widget;
-  for (GtkWidget *child = gtk_widget_get_first_child (widget); child; child = gtk_widget_get_next_sibling (child))
-    {
-      GtkWidget *found = find_entry_row (child, title);
-
-      if (found)
-        return found;
-    }
-  return NULL;
+  return find_widget (widget, is_entry_row_titled, title);
 }
 
 /* A change of delimiter reads the file again: with a comma the semicolon
@@ -1323,19 +1333,16 @@ test_shortcuts (void)
 
 /* The widget below ROOT named NAME (gtk_widget_set_name; the dialogs name
  * their option widgets), depth first, or NULL. */
+static gboolean
+is_named (GtkWidget *widget, gconstpointer name)
+{
+  return g_strcmp0 (gtk_widget_get_name (widget), name) == 0;
+}
+
 static GtkWidget *
 find_named (GtkWidget *root, const char *name)
 {
-  if (g_strcmp0 (gtk_widget_get_name (root), name) == 0)
-    return root;
-  for (GtkWidget *child = gtk_widget_get_first_child (root); child; child = gtk_widget_get_next_sibling (child))
-    {
-      GtkWidget *found = find_named (child, name);
-
-      if (found)
-        return found;
-    }
-  return NULL;
+  return find_widget (root, is_named, name);
 }
 
 static void
@@ -1931,19 +1938,16 @@ collect_row_titles (GtkWidget *widget, GPtrArray *titles)
     collect_row_titles (child, titles);
 }
 
+static gboolean
+is_action_row_titled (GtkWidget *widget, gconstpointer title)
+{
+  return ADW_IS_ACTION_ROW (widget) && g_strcmp0 (adw_preferences_row_get_title (ADW_PREFERENCES_ROW (widget)), title) == 0;
+}
+
 static GtkWidget *
 row_titled (GtkWidget *widget, const char *title)
 {
-  if (ADW_IS_ACTION_ROW (widget) && g_strcmp0 (adw_preferences_row_get_title (ADW_PREFERENCES_ROW (widget)), title) == 0)
-    return widget;
-  for (GtkWidget *child = gtk_widget_get_first_child (widget); child; child = gtk_widget_get_next_sibling (child))
-    {
-      GtkWidget *found = row_titled (child, title);
-
-      if (found)
-        return found;
-    }
-  return NULL;
+  return find_widget (widget, is_action_row_titled, title);
 }
 
 /* Projects opened in one window are listed on the welcome page of the
@@ -2022,31 +2026,29 @@ test_welcome_recent (void)
 
 /* The first button under WIDGET whose label is LABEL (as written, with
  * its mnemonic). */
+static gboolean
+is_button_labelled (GtkWidget *widget, gconstpointer label)
+{
+  return GTK_IS_BUTTON (widget) && g_strcmp0 (gtk_button_get_label (GTK_BUTTON (widget)), label) == 0;
+}
+
 static GtkWidget *
 find_button_labelled (GtkWidget *widget, const char *label)
 {
-  if (GTK_IS_BUTTON (widget) && g_strcmp0 (gtk_button_get_label (GTK_BUTTON (widget)), label) == 0)
-    return widget;
-  for (GtkWidget *child = gtk_widget_get_first_child (widget); child; child = gtk_widget_get_next_sibling (child))
-    {
-      GtkWidget *found = find_button_labelled (child, label);
-
-      if (found)
-        return found;
-    }
-  return NULL;
+  return find_widget (widget, is_button_labelled, label);
 }
 
 /* Whether a label under WIDGET begins with PREFIX. */
 static gboolean
+is_label_starting_with (GtkWidget *widget, gconstpointer prefix)
+{
+  return GTK_IS_LABEL (widget) && g_str_has_prefix (gtk_label_get_text (GTK_LABEL (widget)), prefix);
+}
+
+static gboolean
 label_under_starts_with (GtkWidget *widget, const char *prefix)
 {
-  if (GTK_IS_LABEL (widget) && g_str_has_prefix (gtk_label_get_text (GTK_LABEL (widget)), prefix))
-    return TRUE;
-  for (GtkWidget *child = gtk_widget_get_first_child (widget); child; child = gtk_widget_get_next_sibling (child))
-    if (label_under_starts_with (child, prefix))
-      return TRUE;
-  return FALSE;
+  return find_widget (widget, is_label_starting_with, prefix) != NULL;
 }
 
 /* List NAME's members as the core reads them, "STAR:PRIORITY:TAGS:NOTES|..."
@@ -2634,20 +2636,17 @@ header_titles (void)
 }
 
 /* The first row drawn whose first cell shows a star's name: that label. */
+static gboolean
+is_mapped_star_label (GtkWidget *widget, gconstpointer unused)
+{
+  return GTK_IS_LABEL (widget) && g_str_has_prefix (gtk_label_get_text (GTK_LABEL (widget)), "LHO ")
+         && gtk_widget_get_mapped (widget);
+}
+
 static GtkWidget *
 first_star_label (GtkWidget *widget)
 {
-  if (GTK_IS_LABEL (widget) && g_str_has_prefix (gtk_label_get_text (GTK_LABEL (widget)), "LHO ")
-      && gtk_widget_get_mapped (widget))
-    return widget;
-  for (GtkWidget *child = gtk_widget_get_first_child (widget); child; child = gtk_widget_get_next_sibling (child))
-    {
-      GtkWidget *found = first_star_label (child);
-
-      if (found)
-        return found;
-    }
-  return NULL;
+  return find_widget (widget, is_mapped_star_label, NULL);
 }
 
 /* The text of the cell in column INDEX of the row whose name cell is
