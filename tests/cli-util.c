@@ -14,27 +14,34 @@ cli_result_clear (CliResult *r)
 }
 
 void
-run_cli_in_locale (CliResult *r, const char *locale, const char *first, ...)
+run_cli_va (CliResult *r, const char *locale, GSpawnChildSetupFunc child_setup, gpointer child_data,
+            const char *first, va_list args)
 {
   g_autoptr (GPtrArray) argv = g_ptr_array_new ();
   g_auto (GStrv) envp = g_get_environ ();
   g_autoptr (GError) error = NULL;
-  const char *arg;
-  va_list args;
 
   g_ptr_array_add (argv, (gpointer) g_getenv ("STARLEDGER_CLI"));
-  va_start (args, first);
-  for (arg = first; arg != NULL; arg = va_arg (args, const char *))
+  for (const char *arg = first; arg != NULL; arg = va_arg (args, const char *))
     g_ptr_array_add (argv, (gpointer) arg);
-  va_end (args);
   g_ptr_array_add (argv, NULL);
   if (locale)
     envp = g_environ_setenv (envp, "LC_ALL", locale, TRUE);
 
-  g_spawn_sync (NULL, (char **) argv->pdata, envp, G_SPAWN_DEFAULT, NULL, NULL,
+  g_spawn_sync (NULL, (char **) argv->pdata, envp, G_SPAWN_DEFAULT, child_setup, child_data,
                 &r->out, &r->err, &r->status, &error);
   g_assert_no_error (error);
   r->status = WIFEXITED (r->status) ? WEXITSTATUS (r->status) : 128;
+}
+
+void
+run_cli_in_locale (CliResult *r, const char *locale, const char *first, ...)
+{
+  va_list args;
+
+  va_start (args, first);
+  run_cli_va (r, locale, NULL, NULL, first, args);
+  va_end (args);
 }
 
 char *

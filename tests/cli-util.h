@@ -4,6 +4,7 @@
 #pragma once
 
 #include <glib.h>
+#include <stdarg.h>
 
 typedef struct {
   int   status;   /* the exit status; 128 if killed by a signal */
@@ -20,6 +21,11 @@ G_DEFINE_AUTO_CLEANUP_CLEAR_FUNC (CliResult, cli_result_clear)
 void run_cli_in_locale (CliResult *r, const char *locale, const char *first, ...);
 
 #define run_cli(r, ...) run_cli_in_locale (r, NULL, __VA_ARGS__)
+
+/* The same with CHILD_SETUP run in the child before it starts (resource
+ * limits, another user), the arguments as a va_list. */
+void run_cli_va (CliResult *r, const char *locale, GSpawnChildSetupFunc child_setup, gpointer child_data,
+                 const char *first, va_list args);
 
 /* The path of data/demo/NAME in the source tree. */
 char *demo_file (const char *name);

@@ -111,22 +111,11 @@ limit_child (gpointer data)
 static void
 run_cli_limited (CliResult *r, const ChildLimits *limits, const char *first, ...)
 {
-  g_autoptr (GPtrArray) argv = g_ptr_array_new ();
-  g_autoptr (GError) error = NULL;
-  const char *arg;
   va_list args;
 
-  g_ptr_array_add (argv, (gpointer) g_getenv ("STARLEDGER_CLI"));
   va_start (args, first);
-  for (arg = first; arg != NULL; arg = va_arg (args, const char *))
-    g_ptr_array_add (argv, (gpointer) arg);
+  run_cli_va (r, NULL, limit_child, (gpointer) limits, first, args);
   va_end (args);
-  g_ptr_array_add (argv, NULL);
-
-  g_spawn_sync (NULL, (char **) argv->pdata, NULL, G_SPAWN_DEFAULT, limit_child, (gpointer) limits,
-                &r->out, &r->err, &r->status, &error);
-  g_assert_no_error (error);
-  r->status = WIFEXITED (r->status) ? WEXITSTATUS (r->status) : 128;
   g_assert_cmpint (r->status, !=, 125);   /* the limit could not be set */
   g_assert_cmpint (r->status, !=, 126);   /* nor the user changed */
 }
