@@ -1050,9 +1050,17 @@ stamp_file (int fd, FileStamp *stamp)
     }
 }
 
-/* The file is mapped, not copied: a program writing to it while we read
- * would make the rows stored differ from the bytes hashed.  Checked
- * before the commit, so such an import writes nothing. */
+static void
+set_changed_error (const char *file_name, GError **error)
+{
+  g_set_error (error, SL_ERROR, SL_ERROR_IO,
+               _("%s: the file changed while it was read (another program is writing to it); "
+                 "nothing was imported: import it again once it is complete"),
+               file_name);
+}
+
+/* A file another program writes while we import it is not complete yet:
+ * checked before the commit, so such an import writes nothing. */
 static gboolean
 check_unchanged (int fd, const FileStamp *before, const char *file_name, GError **error)
 {
@@ -1061,13 +1069,56 @@ check_unchanged (int fd, const FileStamp *before, const char *file_name, GError 
   stamp_file (fd, &after);
   if (memcmp (&after, before, sizeof after) != 0)
     {
-      g_set_error (error, SL_ERROR, SL_ERROR_IO,
-                   _("%s: the file changed while it was read (another program is writing to it); "
-                     "nothing was imported: import it again once it is complete"),
-                   file_name);
+      set_changed_error (file_name, error);
       return FALSE;
     }
   return TRUE;
+}
+
+/* The whole file, read once from FD into memory: the bytes hashed are the
+ * bytes parsed.  Not mapped: a mapped file that another program truncates
+ * ends the process with SIGBUS.  EXPECTED is its size when the import
+ * began; fewer or more bytes mean it changed while being read. */
+static char *
+read_whole_file (int fd, gint64 expected, const char *path, const char *file_name, gsize *length,
+                 GError **error)
+{
+  g_autofree char *data = NULL;
+  gsize got = 0;
+  char extra;
+
+  if (expected < 0 || (guint64) expected >= G_MAXSIZE)
+    {
+      set_changed_error (file_name, error);
+      return NULL;
+    }
+  data = g_malloc ((gsize) expected + 1);
+  if (lseek (fd, 0, SEEK_SET) != 0)
+    goto io_error;
+  while (got < (gsize) expected)
+    {
+      ssize_t n = read (fd, data + got, (gsize) expected - got);
+
+      if (n < 0 && errno == EINTR)
+        continue;
+      if (n < 0)
+        goto io_error;
+      if (n == 0)
+        break;
+      got += (gsize) n;
+    }
+  if (got != (gsize) expected || read (fd, &extra, 1) > 0)
+    {
+      set_changed_error (file_name, error);
+      return NULL;
+    }
+  data[got] = '\0';
+  *length = got;
+  return g_steal_pointer (&data);
+
+io_error:
+  g_set_error (error, SL_ERROR, SL_ERROR_IO, _("%s: cannot read: %s"), path, g_strerror (errno));
+  return NULL;
 }
 
 /* Commits, or for a dry run rolls back what was done in the transaction. */
@@ -1085,27 +1136,19 @@ static SlImportReport *
 import_file (SlProject *project, const char *path, int fd, const FileStamp *stamp,
              const SlImportOptions *options, GError **error)
 {
+  g_autofree char *data = NULL;   /* first: the reader below borrows it */
   g_autoptr (SlImportReport) report = NULL;
-  g_autoptr (GMappedFile) mapped = NULL;
   g_autoptr (SlCsvReader) reader = NULL;
   g_autofree char *file_name = NULL;
   g_autofree char *mapping = NULL;
-  g_autoptr (GError) local_error = NULL;
   SlCsvRecord header;
-  const char *data;
-  gsize length;
+  gsize length = 0;
   Import im = { project, options, NULL, .matcher = NULL };
 
   file_name = g_path_get_basename (path);
-  mapped = g_mapped_file_new_from_fd (fd, FALSE, &local_error);
-  if (mapped == NULL)
-    {
-      g_set_error (error, SL_ERROR, SL_ERROR_IO, _("%s: cannot read: %s"), path,
-                   local_error->message);
-      return NULL;
-    }
-  data = g_mapped_file_get_contents (mapped);
-  length = g_mapped_file_get_length (mapped);
+  data = read_whole_file (fd, stamp->size, path, file_name, &length, error);
+  if (data == NULL)
+    return NULL;
   if (length == 0)
     {
       g_set_error (error, SL_ERROR, SL_ERROR_BAD_INPUT, _("%s: the file is empty"), file_name);
