@@ -980,6 +980,23 @@ export_figure_action (GtkWidget *widget, const char *action, GVariant *parameter
   gtk_window_present (GTK_WINDOW (sl_figure_dialog_new (self, (SlFigureKind) kind)));
 }
 
+static void
+restore_view_positions (SlWindow *self)
+{
+  gtk_paned_set_position (self->views_paned, self->saved_positions[0]);
+  gtk_paned_set_position (self->lower_views_paned, self->saved_positions[1]);
+}
+
+static gboolean
+restore_view_positions_after_layout (GtkWidget *widget, GdkFrameClock *clock, gpointer data)
+{
+  SlWindow *self = SL_WINDOW (widget);
+
+  if (self->maximized == 0)
+    restore_view_positions (self);
+  return G_SOURCE_REMOVE;
+}
+
 /* One view fills the area right of the table; the others are hidden and
  * the panes' positions kept for when they come back. */
 static void
@@ -999,8 +1016,11 @@ show_views (SlWindow *self, int maximized)
   gtk_widget_set_visible (parallax, maximized != SL_PLOT_KIND_SKY + 1);
   if (self->maximized != 0 && maximized == 0)
     {
-      gtk_paned_set_position (self->views_paned, self->saved_positions[0]);
-      gtk_paned_set_position (self->lower_views_paned, self->saved_positions[1]);
+      restore_view_positions (self);
+      /* Once more after the first layout: a paned that gets its children
+       * back rescales its position to an allocation that may still be
+       * settling, which can move it by a pixel or two. */
+      gtk_widget_add_tick_callback (GTK_WIDGET (self), restore_view_positions_after_layout, NULL, NULL);
     }
   self->maximized = maximized;
   for (guint i = 0; i < G_N_ELEMENTS (self->panes); i++)
