@@ -431,7 +431,7 @@ test_reimport_marks_stale (void)
 {
   g_autofree char *dir = sl_test_scratch_new ();
   g_autofree char *project = demo_project (dir, NULL, TRUE);
-  g_autofree char *extra = sl_test_write_file (dir, "extra.csv", "id,vmag,vmag_err\nLHO 0001,8.50,0.005\n", -1);
+  g_autofree char *extra = sl_test_write_file (dir, "extra.csv", "id,vmag,vmag_err\nLHO 0001,8.85,0.005\n", -1);
   g_autofree char *flags = NULL;
   g_autofree char *flags_after = NULL;
   g_autofree char *vmag = NULL;
@@ -459,7 +459,7 @@ test_reimport_marks_stale (void)
   g_assert_cmpstr (flags, ==, "stale");
   g_assert_cmpuint (count_lines_containing (export.out, "stale"), ==, 1);
   vmag = csv_cell (export.out, "LHO 0001", "vmag");
-  g_assert_cmpstr (vmag, ==, "8.5");   /* the new, more precise measurement is the input now */
+  g_assert_cmpstr (vmag, ==, "8.85");   /* the new, more precise measurement is the input now */
 
   run_cli (&derive, "derive", project, NULL);
   g_assert_cmpint (derive.status, ==, 0);
@@ -472,10 +472,10 @@ test_reimport_marks_stale (void)
   flags_after = csv_cell (export_after.out, "LHO 0001", "flags");
   g_assert_cmpstr (flags_after, ==, "");
   /* Only V changed, so L scales as 10^(-0.4 delta V) (Pogson's ratio). */
-  g_assert_cmpfloat (csv_number (original.out, "LHO 0001", "vmag"), >, 8.5);
+  g_assert_cmpfloat (csv_number (original.out, "LHO 0001", "vmag"), >, 8.85);
   g_assert_cmpstr (original.out, !=, export.out);
   sl_assert_close (csv_number (export_after.out, "LHO 0001", "lum") / csv_number (export.out, "LHO 0001", "lum"),
-                   pow (10.0, 0.4 * (csv_number (original.out, "LHO 0001", "vmag") - 8.50)), 1e-9,
+                   pow (10.0, 0.4 * (csv_number (original.out, "LHO 0001", "vmag") - 8.85)), 1e-9,
                    "luminosity ratio after the new V magnitude");
   sl_test_scratch_free (g_steal_pointer (&dir));
 }

@@ -628,6 +628,31 @@ test_flag_sptype_not_dwarf (void)
 }
 
 static void
+test_flag_sources_disagree (void)
+{
+  /* The agreement test is the inputs' (test-inputs.c checks it); the
+   * engine must carry its flag into the results, a Monte Carlo run's too. */
+  SlDeriveParams params;
+  SlStarInputs in;
+  SlDerivedValues out;
+
+  star_init (&in);
+  star_set_err (&in, SL_FIELD_PARALLAX, 10.0, 0.5);
+  star_set_err (&in, SL_FIELD_VMAG, 8.0, 0.01);
+  derive (NULL, &in, NULL, 0, &out);
+  assert_flag (&out, SL_FLAG_SOURCES_DISAGREE, FALSE);
+  in.flags = SL_FLAG_SOURCES_DISAGREE;
+  derive (NULL, &in, NULL, 0, &out);
+  assert_flag (&out, SL_FLAG_SOURCES_DISAGREE, TRUE);
+  g_assert_true (out.has[SL_Q_ABSMAG]);
+  sl_derive_params_init (&params);
+  params.errors = SL_ERRORS_MONTE_CARLO;
+  params.draws = 50;
+  derive (&params, &in, NULL, 0, &out);
+  assert_flag (&out, SL_FLAG_SOURCES_DISAGREE, TRUE);
+}
+
+static void
 test_flags_all_covered (void)
 {
   /* Every flag of derive.h is raised by one of the tests above: a new flag
@@ -636,7 +661,7 @@ test_flags_all_covered (void)
     SL_FLAG_NO_PARALLAX_ERROR, SL_FLAG_NONPOSITIVE_PARALLAX, SL_FLAG_LOW_PARALLAX_SNR,
     SL_FLAG_PRIOR_DOMINATED, SL_FLAG_MONTE_CARLO_AUTO, SL_FLAG_EXTINCTION_ASSUMED_ZERO,
     SL_FLAG_COLOUR_OUT_OF_RANGE, SL_FLAG_TEFF_OUT_OF_RANGE, SL_FLAG_MISSING_ERROR,
-    SL_FLAG_OVERRIDDEN, SL_FLAG_SPTYPE_NOT_DWARF,
+    SL_FLAG_OVERRIDDEN, SL_FLAG_SPTYPE_NOT_DWARF, SL_FLAG_SOURCES_DISAGREE,
   };
   guint32 all = 0;
 
@@ -1068,6 +1093,7 @@ main (int argc, char **argv)
   g_test_add_func ("/derive/engine/flag/missing-error/monte-carlo", test_flag_missing_error_monte_carlo);
   g_test_add_func ("/derive/engine/flag/overridden", test_flag_overridden);
   g_test_add_func ("/derive/engine/flag/sptype-not-dwarf", test_flag_sptype_not_dwarf);
+  g_test_add_func ("/derive/engine/flag/sources-disagree", test_flag_sources_disagree);
   g_test_add_func ("/derive/engine/flag/all-covered", test_flags_all_covered);
   g_test_add_func ("/derive/engine/vtan/iau-constant", test_vtan_constant);
   g_test_add_func ("/derive/engine/geometry/ecliptic-pole", test_geometry_ecliptic_pole);

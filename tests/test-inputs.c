@@ -1,10 +1,13 @@
 /* test-inputs.c: choosing one set of inputs per star among the
  * measurements of several sources. */
 #include <locale.h>
+#include <math.h>
 #include <string.h>
 
+#include "derive/derive.h"
 #include "import.h"
 #include "inputs.h"
+#include "sl-error.h"
 #include "test-util.h"
 
 static void
@@ -139,6 +142,244 @@ test_single_star_cursor (SlTestProject *f, gconstpointer data)
   g_assert_no_error (error);
 }
 
+
+/* ------------------------------------------------------------------ */
+/* Combination policies (combine.h)                                    */
+
+static void
+set_policy (SlTestProject *f, SlField lead, SlCombineRule rule, const char *priority, double level)
+{
+  g_autoptr (GError) error = NULL;
+  SlCombinePolicy policy;
+
+  g_assert_true (sl_combine_policy_read (f->project, &policy, &error));
+  policy.rule[lead] = rule;
+  g_strlcpy (policy.priority, priority, sizeof policy.priority);
+  policy.level = level;
+  g_assert_true (sl_combine_policy_write (f->project, &policy, &error));
+  g_assert_no_error (error);
+}
+
+/* Three sources of one parallax, the second without a V error. */
+static void
+import_three_parallaxes (SlTestProject *f)
+{
+  import_text (f, "north.csv", "id,parallax,parallax_err,vmag,vmag_err\nA,10.0,0.5,8.00,0.02\n");
+  import_text (f, "south.csv", "id,parallax,parallax_err,vmag\nA,10.3,0.2,8.10\n");
+  import_text (f, "archive.csv", "id,parallax,parallax_err,vmag,vmag_err\nA,9.9,0.4,8.05,0.05\n");
+}
+
+static void
+test_weighted_mean (SlTestProject *f, gconstpointer data)
+{
+  g_autoptr (SlInputCursor) cursor = NULL;
+  g_autoptr (GArray) used = NULL;
+  SlStarInputs in;
+
+  import_three_parallaxes (f);
+  set_policy (f, SL_FIELD_PARALLAX, SL_COMBINE_WEIGHTED_MEAN, "", 0.01);
+  cursor = read_only_star (f, &in);
+  /* By hand: weights 1/sigma^2 = 4, 25, 6.25 (sum 35.25); sum w x =
+   * 40 + 257.5 + 61.875 = 359.375; mean 359.375 / 35.25; error
+   * 35.25^-1/2 (Taylor 1997, eqs. 7.10 and 7.12). */
+  sl_assert_close (in.value[SL_FIELD_PARALLAX], 359.375 / 35.25, 1e-13, "weighted mean");
+  sl_assert_close (in.value[SL_FIELD_PARALLAX_ERR], 1.0 / sqrt (35.25), 1e-15, "error of the mean");
+  g_assert_cmpuint (in.n_combined[SL_FIELD_PARALLAX], ==, 3);
+  /* chi-square by hand: 4 (10 - m)^2 + 25 (10.3 - m)^2 + 6.25 (9.9 - m)^2
+   * = 0.97163...; with 2 degrees of freedom its tail is exp (-chi2 / 2)
+   * = 0.61520 (scipy.stats.chi2.sf gives 0.6151952371116288). */
+  sl_assert_close (in.chi2[SL_FIELD_PARALLAX], 0.9716312056737612, 1e-12, "chi-square");
+  g_assert_cmpuint (in.dof[SL_FIELD_PARALLAX], ==, 2);
+  sl_assert_close (in.p_value[SL_FIELD_PARALLAX], exp (-0.9716312056737612 / 2), 1e-12, "tail probability");
+  g_assert_false (in.flags & SL_FLAG_SOURCES_DISAGREE);
+  /* The recorded row is the most precise of those averaged (south). */
+  g_assert_cmpint (in.measurement[SL_FIELD_PARALLAX], ==,
+                   sl_test_query_int (f->db, "SELECT m.id FROM measurements m JOIN sources s ON s.id = m.source_id"
+                                             " WHERE s.name = 'south.csv'"));
+  /* V keeps the smallest uncertainty: north's 8.00, not a mean. */
+  sl_assert_close (in.value[SL_FIELD_VMAG], 8.00, 0, "vmag by its own rule");
+  g_assert_cmpuint (in.n_combined[SL_FIELD_VMAG], ==, 0);
+  /* Two of three V rows have errors: tested, agreeing (0.05 apart, errors 0.02 and 0.05). */
+  g_assert_cmpuint (in.n_tested[SL_FIELD_VMAG], ==, 2);
+  used = sl_input_cursor_contributions (cursor, SL_FIELD_PARALLAX);
+  g_assert_cmpuint (used->len, ==, 3);
+  for (guint i = 0; i < used->len; i++)
+    g_assert_true (g_array_index (used, SlInputContribution, i).used);
+}
+
+static void
+test_weighted_mean_needs_two_errors (SlTestProject *f, gconstpointer data)
+{
+  g_autoptr (SlInputCursor) cursor = NULL;
+  g_autoptr (GArray) used = NULL;
+  SlStarInputs in;
+
+  /* Only one V has an error: no mean, the rule falls back to the
+   * smallest uncertainty (the row with an error). */
+  import_text (f, "one.csv", "id,vmag,vmag_err\nA,8.00,0.02\n");
+  import_text (f, "two.csv", "id,vmag\nA,8.30\n");
+  set_policy (f, SL_FIELD_VMAG, SL_COMBINE_WEIGHTED_MEAN, "", 0.01);
+  cursor = read_only_star (f, &in);
+  sl_assert_close (in.value[SL_FIELD_VMAG], 8.00, 0, "the one row with an error");
+  g_assert_cmpuint (in.n_combined[SL_FIELD_VMAG], ==, 0);
+  g_assert_cmpuint (in.n_tested[SL_FIELD_VMAG], ==, 0);
+  g_assert_true (isnan (in.p_value[SL_FIELD_VMAG]));
+  used = sl_input_cursor_contributions (cursor, SL_FIELD_VMAG);
+  g_assert_cmpuint (used->len, ==, 2);
+  g_assert_true (g_array_index (used, SlInputContribution, 0).used);
+  g_assert_false (g_array_index (used, SlInputContribution, 1).used);
+}
+
+static void
+test_weighted_mean_proper_motion (SlTestProject *f, gconstpointer data)
+{
+  g_autoptr (SlInputCursor) cursor = NULL;
+  SlStarInputs in;
+
+  /* Each component on its own: pmra 100 +/- 1 and 103 +/- 2 give
+   * (100 + 103/4) / 1.25 = 102.6 ... by hand: weights 1 and 0.25. */
+  import_text (f, "one.csv", "id,pmra,pmra_err,pmdec,pmdec_err\nA,100,1,-50,2\n");
+  import_text (f, "two.csv", "id,pmra,pmra_err,pmdec,pmdec_err\nA,103,2,-52,2\n");
+  set_policy (f, SL_FIELD_PMRA, SL_COMBINE_WEIGHTED_MEAN, "", 0.01);
+  cursor = read_only_star (f, &in);
+  sl_assert_close (in.value[SL_FIELD_PMRA], (100.0 + 103.0 / 4.0) / 1.25, 1e-13, "pmra mean");
+  sl_assert_close (in.value[SL_FIELD_PMRA_ERR], 1.0 / sqrt (1.25), 1e-15, "pmra error");
+  sl_assert_close (in.value[SL_FIELD_PMDEC], -51.0, 1e-13, "pmdec mean of equal errors");
+  sl_assert_close (in.value[SL_FIELD_PMDEC_ERR], 2.0 / sqrt (2.0), 1e-15, "pmdec error");
+  /* chi-square summed over both components: (3^2 / 5) + (2^2 / 8) = 1.8 + 0.5
+   * with 2 degrees of freedom (a difference d of two values with errors
+   * s1, s2 contributes d^2 / (s1^2 + s2^2)). */
+  sl_assert_close (in.chi2[SL_FIELD_PMRA], 2.3, 1e-12, "chi-square of both components");
+  g_assert_cmpuint (in.dof[SL_FIELD_PMRA], ==, 2);
+}
+
+static void
+test_source_order (SlTestProject *f, gconstpointer data)
+{
+  g_autoptr (SlInputCursor) cursor = NULL;
+  g_autoptr (GArray) used = NULL;
+  SlStarInputs in;
+
+  import_three_parallaxes (f);
+  /* archive first: its 9.9 +/- 0.4 despite south's smaller error. */
+  set_policy (f, SL_FIELD_PARALLAX, SL_COMBINE_PRIORITY, "archive.csv\nnorth.csv", 0.01);
+  cursor = read_only_star (f, &in);
+  sl_assert_close (in.value[SL_FIELD_PARALLAX], 9.9, 0, "the first source in the order");
+  used = sl_input_cursor_contributions (cursor, SL_FIELD_PARALLAX);
+  g_assert_cmpuint (used->len, ==, 3);
+  g_assert_cmpuint ((guint) g_array_index (used, SlInputContribution, 2).used, ==, TRUE);
+  g_assert_false (g_array_index (used, SlInputContribution, 0).used);
+  g_clear_pointer (&cursor, sl_input_cursor_free);
+
+  /* Listed sources come before unlisted ones, whatever their errors. */
+  set_policy (f, SL_FIELD_PARALLAX, SL_COMBINE_PRIORITY, "north.csv", 0.01);
+  cursor = read_only_star (f, &in);
+  sl_assert_close (in.value[SL_FIELD_PARALLAX], 10.0, 0, "the only listed source");
+  g_clear_pointer (&cursor, sl_input_cursor_free);
+
+  /* The listed source has no parallax: as smallest-error. */
+  import_text (f, "colours.csv", "id,bv,bv_err\nA,0.65,0.01\n");
+  set_policy (f, SL_FIELD_PARALLAX, SL_COMBINE_PRIORITY, "colours.csv", 0.01);
+  cursor = read_only_star (f, &in);
+  sl_assert_close (in.value[SL_FIELD_PARALLAX], 10.3, 0, "unlisted: the smallest uncertainty");
+}
+
+static void
+test_disagreement (SlTestProject *f, gconstpointer data)
+{
+  g_autoptr (SlInputCursor) cursor = NULL;
+  SlStarInputs in;
+
+  /* 10.0 and 11.0, each +/- 0.1: chi-square 50 with 1 degree of freedom,
+   * P = 1.54e-12 (scipy.stats.chi2.sf (50, 1)). */
+  import_text (f, "one.csv", "id,parallax,parallax_err\nA,10.0,0.1\n");
+  import_text (f, "two.csv", "id,parallax,parallax_err\nA,11.0,0.1\n");
+  cursor = read_only_star (f, &in);
+  sl_assert_close (in.chi2[SL_FIELD_PARALLAX], 50.0, 1e-12, "chi-square");
+  sl_assert_close (in.p_value[SL_FIELD_PARALLAX], 1.5374597944280386e-12, 1e-9 * 1.54e-12, "tail");
+  g_assert_true (in.flags & SL_FLAG_SOURCES_DISAGREE);
+  g_clear_pointer (&cursor, sl_input_cursor_free);
+
+  /* Level 0: no test. */
+  set_policy (f, SL_FIELD_PARALLAX, SL_COMBINE_SMALLEST_ERROR, "", 0.0);
+  cursor = read_only_star (f, &in);
+  g_assert_false (in.flags & SL_FLAG_SOURCES_DISAGREE);
+}
+
+static void
+test_policy_setting (SlTestProject *f, gconstpointer data)
+{
+  g_autoptr (GError) error = NULL;
+  g_autofree char *summary = NULL;
+  SlCombinePolicy policy, again;
+
+  /* A new project: the defaults. */
+  g_assert_true (sl_combine_policy_read (f->project, &policy, &error));
+  for (SlField lead = 0; lead < SL_N_FIELDS; lead++)
+    g_assert_cmpint (policy.rule[lead], ==, SL_COMBINE_SMALLEST_ERROR);
+  g_assert_cmpfloat (policy.level, ==, SL_COMBINE_DEFAULT_LEVEL);
+
+  /* Stored, read back, recorded in the ledger, derived values made stale. */
+  import_text (f, "one.csv", "id,parallax,parallax_err\nA,10.0,0.1\n");
+  import_text (f, "ridge;2016.csv", "id,parallax,parallax_err\nA,10.1,0.1\n");
+  g_assert_cmpint (sqlite3_exec (f->db, "INSERT INTO derivation_runs (started_at, who, software_version, parameters, methods)"
+                       " VALUES ('now', 'me', '1', '', '{}');"
+                       "INSERT INTO derived (star_id, run_id) SELECT id, 1 FROM stars;", NULL, NULL, NULL), ==, SQLITE_OK);
+  policy.rule[SL_FIELD_VMAG] = SL_COMBINE_WEIGHTED_MEAN;
+  g_strlcpy (policy.priority, "ridge;2016.csv\none.csv", sizeof policy.priority);
+  policy.level = 0.001;
+  g_assert_true (sl_combine_policy_write (f->project, &policy, &error));
+  g_assert_no_error (error);
+  g_assert_true (sl_combine_policy_read (f->project, &again, &error));
+  g_assert_true (sl_combine_policy_equal (&policy, &again));
+  g_assert_cmpuint (sl_combine_priority_rank (&again, "one.csv"), ==, 2);
+  g_assert_cmpuint (sl_combine_priority_rank (&again, "ridge;2016.csv"), ==, 1);
+  g_assert_cmpuint (sl_combine_priority_rank (&again, "ridge"), ==, 0);
+  g_assert_cmpint (sl_test_query_int (f->db, "SELECT stale FROM derived"), ==, 1);
+  summary = sl_test_query_text (f->db, "SELECT summary FROM ledger WHERE action = 'combine'");
+  g_assert_nonnull (strstr (summary, "vmag weighted-mean"));
+
+  /* Refused, and nothing changed: an unknown source, a mean of positions,
+   * a level of 1. */
+  g_strlcpy (again.priority, "one.csv\nnone.csv", sizeof again.priority);
+  g_assert_false (sl_combine_policy_write (f->project, &again, &error));
+  g_assert_error (error, SL_ERROR, SL_ERROR_BAD_INPUT);
+  g_assert_nonnull (strstr (error->message, "'none.csv'"));
+  g_assert_nonnull (strstr (error->message, "'ridge;2016.csv'"));
+  g_clear_error (&error);
+  g_strlcpy (again.priority, policy.priority, sizeof again.priority);
+  again.rule[SL_FIELD_RA] = SL_COMBINE_WEIGHTED_MEAN;
+  g_assert_false (sl_combine_policy_write (f->project, &again, &error));
+  g_assert_error (error, SL_ERROR, SL_ERROR_BAD_INPUT);
+  g_clear_error (&error);
+  again.rule[SL_FIELD_RA] = SL_COMBINE_SMALLEST_ERROR;
+  again.level = 1.0;
+  g_assert_false (sl_combine_policy_write (f->project, &again, &error));
+  g_clear_error (&error);
+  g_assert_true (sl_combine_policy_read (f->project, &again, &error));
+  g_assert_true (sl_combine_policy_equal (&policy, &again));
+  g_assert_cmpint (sl_test_query_int (f->db, "SELECT count(*) FROM ledger WHERE action = 'combine'"), ==, 1);
+}
+
+static void
+test_choose_again (SlTestProject *f, gconstpointer data)
+{
+  g_autoptr (SlInputCursor) cursor = NULL;
+  SlCombinePolicy mean;
+  SlStarInputs in, other;
+
+  /* What verify does with a run's policy: the same rows, chosen anew. */
+  import_three_parallaxes (f);
+  cursor = read_only_star (f, &in);
+  sl_assert_close (in.value[SL_FIELD_PARALLAX], 10.3, 0, "the project's policy");
+  sl_combine_policy_init (&mean);
+  mean.rule[SL_FIELD_PARALLAX] = SL_COMBINE_WEIGHTED_MEAN;
+  sl_input_cursor_choose (cursor, &mean, &other);
+  sl_assert_close (other.value[SL_FIELD_PARALLAX], 359.375 / 35.25, 1e-13, "a run's policy");
+  g_assert_cmpstr (other.designation, ==, "A");
+  g_assert_cmpint (other.star_id, ==, in.star_id);
+}
+
 int
 main (int argc, char **argv)
 {
@@ -151,6 +392,13 @@ main (int argc, char **argv)
   ADD ("/inputs/tie-goes-to-later-source", test_tie_goes_to_later_source);
   ADD ("/inputs/random-against-reference", test_random_against_reference);
   ADD ("/inputs/single-star", test_single_star_cursor);
+  ADD ("/inputs/combine/weighted-mean", test_weighted_mean);
+  ADD ("/inputs/combine/weighted-mean-needs-two-errors", test_weighted_mean_needs_two_errors);
+  ADD ("/inputs/combine/weighted-mean-proper-motion", test_weighted_mean_proper_motion);
+  ADD ("/inputs/combine/source-order", test_source_order);
+  ADD ("/inputs/combine/disagreement", test_disagreement);
+  ADD ("/inputs/combine/policy-setting", test_policy_setting);
+  ADD ("/inputs/combine/choose-again", test_choose_again);
 #undef ADD
 
   return g_test_run ();

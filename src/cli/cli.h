@@ -66,5 +66,6 @@ int sl_cli_select  (int argc, char **argv);
 int sl_cli_lists   (int argc, char **argv);
 int sl_cli_methods (int argc, char **argv);
 int sl_cli_split   (int argc, char **argv);
+int sl_cli_combine (int argc, char **argv);
 
 G_END_DECLS

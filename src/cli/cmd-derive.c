@@ -169,7 +169,7 @@ sl_cli_derive (int argc, char **argv)
     return SL_EXIT_FAILURE;
   if (!sl_derivation_run (project, &params, all, NULL, NULL, NULL, &report, &error))
     return sl_cli_fail (error);
-  described = sl_derive_params_describe (&params);
+  described = sl_derive_params_describe (&report.params);
   /* g_ascii_formatd: a '.' decimal point whatever the locale (README). */
   printf (_("derived %" PRIu64 " stars, %" PRIu64 " already up to date (run %"
             PRId64 ", %s s)\n"),

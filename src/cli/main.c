@@ -14,6 +14,7 @@ static const SlCliCommand commands[] = {
   { "new",     sl_cli_new,     N_("Create an empty project file") },
   { "import",  sl_cli_import,  N_("Import a CSV file of measurements as a new source") },
   { "split",   sl_cli_split,   N_("Undo matches by position: rows become stars of their own") },
+  { "combine", sl_cli_combine, N_("Show or set how several sources' measurements are combined") },
   { "derive",  sl_cli_derive,  N_("Derive physical quantities with their uncertainties") },
   { "explain", sl_cli_explain, N_("Show how a value was obtained, down to the raw rows") },
   { "override", sl_cli_override, N_("Set a derived value by hand, or clear it") },

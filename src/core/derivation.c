@@ -627,7 +627,7 @@ run_in_transaction (SlProject *project, const SlDeriveParams *params, gboolean a
                     GCancellable *cancellable, SlProgressFunc progress, gpointer progress_data,
                     SlDeriveReport *report, GError **error)
 {
-  g_autofree char *params_text = sl_derive_params_to_keyfile (params);
+  g_autofree char *params_text = NULL;
   g_autofree char *started = sl_now_utc ();
   g_autofree char *columns = derived_columns_sql ();
   g_autofree char *insert_sql = NULL;
@@ -656,12 +656,20 @@ run_in_transaction (SlProject *project, const SlDeriveParams *params, gboolean a
 
   if (!sl_project_begin (project, error))
     return FALSE;
+  report->params = *params;
+  if (!sl_combine_policy_read (project, &report->params.combine, error))
+    {
+      sl_project_rollback (project);
+      return FALSE;
+    }
+  params = &report->params;
+  params_text = sl_derive_params_to_keyfile (params);
   ids = stars_to_derive (project, params_text, all, &total, error);
   overrides = ids ? load_all_overrides (project, error) : NULL;
   report->run_id = overrides ? insert_run (project, params_text, started, error) : 0;
   insert = report->run_id ? sl_project_prepare (project, insert_sql, error) : NULL;
   update = insert ? sl_project_prepare (project, update_sql, error) : NULL;
-  cursor = update ? sl_input_cursor_new (project, 0, error) : NULL;
+  cursor = update ? sl_input_cursor_new_with_policy (project, 0, &params->combine, error) : NULL;
   if (cursor == NULL)
     {
       sqlite3_finalize (insert);
@@ -904,6 +912,7 @@ sl_verify (SlProject *project, GCancellable *cancellable, GError **error)
   g_autoptr (GHashTable) overrides = NULL;
   g_autoptr (SlInputCursor) cursor = NULL;
   sqlite3_stmt *stmt = NULL;
+  SlCombinePolicy policy;
   SlStarInputs inputs;
   gboolean have_inputs = FALSE;
   GError *local = NULL;
@@ -915,7 +924,8 @@ sl_verify (SlProject *project, GCancellable *cancellable, GError **error)
   report->integrity = integrity_check (project, error);
   overrides = report->integrity ? load_all_overrides (project, error) : NULL;
   stmt = overrides ? sl_project_prepare (project, sql, error) : NULL;
-  cursor = stmt ? sl_input_cursor_new (project, 0, error) : NULL;
+  cursor = stmt && sl_combine_policy_read (project, &policy, error)
+             ? sl_input_cursor_new_with_policy (project, 0, &policy, error) : NULL;
   if (cursor == NULL)
     {
       sqlite3_finalize (stmt);
@@ -952,6 +962,9 @@ sl_verify (SlProject *project, GCancellable *cancellable, GError **error)
       engine = engine_for_run (project, engines, sqlite3_column_int64 (stmt, 1), &local);
       if (engine == NULL)
         break;
+      /* The run's policy chose its inputs, whatever the project's is now. */
+      if (!sl_combine_policy_equal (&sl_engine_params (engine)->combine, &policy))
+        sl_input_cursor_choose (cursor, &sl_engine_params (engine)->combine, &inputs);
       star_overrides = g_hash_table_lookup (overrides, &star_id);
       sl_engine_derive (engine, &inputs, star_overrides ? (const SlOverride *) star_overrides->data : NULL,
                         star_overrides ? star_overrides->len : 0, &values);

@@ -18,10 +18,13 @@ typedef struct {
   guint64 computed;     /* stars derived in this run */
   guint64 up_to_date;   /* stars left as they were */
   double  seconds;
+  SlDeriveParams params;  /* as recorded with the run: PARAMS with the project's policy */
 } SlDeriveReport;
 
 /* Derives every star that has no derived row, is stale, or was derived
- * with other parameters; ALL derives every star.  One transaction. */
+ * with other parameters; ALL derives every star.  One transaction.
+ * PARAMS->combine is not used: a run combines sources by the project's
+ * policy (sl_combine_policy_read) and records it. */
 gboolean sl_derivation_run (SlProject *project, const SlDeriveParams *params, gboolean all,
                             GCancellable *cancellable, SlProgressFunc progress,
                             gpointer progress_data, SlDeriveReport *report, GError **error);

@@ -28,6 +28,7 @@ typedef struct {
   gint64   line;
   char    *source_name, *file_name, *sha256, *imported_by, *imported_at, *column;
   char    *unit_declared;
+  guint    n_averaged;   /* > 0: not a row but the weighted mean of the next N raw inputs */
 } RawInput;
 
 static void
@@ -266,12 +267,42 @@ json_close (Writer *w, char bracket)
   w->first_item = FALSE;
 }
 
+/* A value that is the weighted mean of the rows that follow it. */
+static void
+write_mean_input (Writer *w, const RawInput *r)
+{
+  const SlFieldInfo *info = sl_field_info (r->field);
+  char v[G_ASCII_DTOSTR_BUF_SIZE], e[G_ASCII_DTOSTR_BUF_SIZE];
+
+  if (w->format == SL_EXPLAIN_JSON)
+    {
+      json_open (w, NULL, '{');
+      json_string (w, "field", info->name);
+      json_number (w, "value", r->value);
+      json_number (w, "error", r->error);
+      json_string (w, "unit", sl_unit_name (info->canonical));
+      json_string (w, "combined_by", "weighted-mean");
+      json_number (w, "rows", r->n_averaged);
+      json_close (w, '}');
+      return;
+    }
+  g_string_append_printf (w->out, _("      %s = %s +/- %s %s, the inverse-variance weighted mean of the %u rows "
+                                    "below (Taylor 1997, ch. 7):\n"),
+                          info->name, sl_format_double (v, r->value), sl_format_double (e, r->error),
+                          sl_unit_name (info->canonical), r->n_averaged);
+}
+
 static void
 write_raw_input (Writer *w, const RawInput *r)
 {
   const SlFieldInfo *info = sl_field_info (r->field);
   char sha[17];
 
+  if (r->n_averaged > 0)
+    {
+      write_mean_input (w, r);
+      return;
+    }
   g_strlcpy (sha, r->sha256 ? r->sha256 : "", sizeof sha);
   if (w->format == SL_EXPLAIN_JSON)
     {
@@ -450,18 +481,55 @@ measurement_for_field (const SlDerivedRow *row, SlField field)
   return lead == SL_FIELD_NONE ? 0 : row->measurement[lead];
 }
 
+/* The rows a run averaged for the group led by LEAD: the mean first,
+ * then each row.  FALSE on a database error. */
 static gboolean
-collect_raw_inputs (SlProject *project, const SlModule *m, const SlDerivedRow *row, GArray *raw,
-                    GError **error)
+collect_mean (SlProject *project, SlInputCursor *cursor, const SlStarInputs *in, SlField field, GArray *raw,
+              GError **error)
+{
+  g_autoptr (GArray) rows = sl_input_cursor_contributions (cursor, sl_input_group_lead (field));
+  RawInput mean = { .field = field, .present = TRUE, .value = in->value[field],
+                    .error = in->value[sl_field_info (field)->error],
+                    .n_averaged = in->n_combined[sl_input_group_lead (field)] };
+
+  g_array_append_val (raw, mean);
+  for (guint i = 0; i < rows->len; i++)
+    {
+      const SlInputContribution *c = &g_array_index (rows, SlInputContribution, i);
+      RawInput r;
+
+      if (!c->used)
+        continue;
+      if (!load_raw_input (project, c->measurement, field, &r, error))
+        return FALSE;
+      g_array_append_val (raw, r);
+    }
+  return TRUE;
+}
+
+/* The measurements behind module M's inputs: each field's row, or for a
+ * field the run averaged over several rows (IN, chosen by the run's
+ * policy through CURSOR), the mean and every row in it. */
+static gboolean
+collect_raw_inputs (SlProject *project, const SlModule *m, const SlDerivedRow *row, SlInputCursor *cursor,
+                    const SlStarInputs *in, GArray *raw, GError **error)
 {
   for (int k = 0; k < SL_MODULE_MAX_IO && m->inputs[k] != SL_FIELD_NONE; k++)
     {
       SlField f = m->inputs[k];
       gint64 measurement = measurement_for_field (row, f);
+      SlField lead = sl_input_group_lead (f);
       RawInput r;
 
       if (sl_field_info (f)->kind == SL_FIELD_KIND_ERROR || measurement == 0)
         continue;   /* errors come with their values */
+      if (in != NULL && lead != SL_FIELD_NONE && in->n_combined[lead] >= 2
+          && sl_field_info (f)->error != SL_FIELD_NONE)
+        {
+          if (!collect_mean (project, cursor, in, f, raw, error))
+            return FALSE;
+          continue;
+        }
       if (!load_raw_input (project, measurement, f, &r, error))
         return FALSE;
       g_array_append_val (raw, r);
@@ -620,14 +688,147 @@ write_matches (Writer *w, SlProject *project, gint64 star_id, GError **error)
   return TRUE;
 }
 
+/* For a group that two or more rows measured: the rule that chose, the
+ * agreement test, and the rows the value did not use (those it used are
+ * in the steps). */
+static gboolean
+write_sources (Writer *w, SlProject *project, SlInputCursor *cursor, const SlStarInputs *in, SlField lead,
+               const SlCombinePolicy *policy, gboolean show_used, GError **error)
+{
+  g_autoptr (GArray) rows = sl_input_cursor_contributions (cursor, lead);
+  SlCombineRule rule = policy->rule[lead];
+  gboolean tested = in->n_tested[lead] >= 2;
+  gboolean disagree = tested && policy->level > 0 && in->p_value[lead] < policy->level;
+  char chi2[G_ASCII_DTOSTR_BUF_SIZE], p[G_ASCII_DTOSTR_BUF_SIZE], level[G_ASCII_DTOSTR_BUF_SIZE];
+
+  if (rows->len < 2)
+    return TRUE;
+  g_ascii_formatd (chi2, sizeof chi2, "%.3g", in->chi2[lead]);
+  g_ascii_formatd (p, sizeof p, "%.3g", in->p_value[lead]);
+  sl_format_double (level, policy->level);
+  if (w->format == SL_EXPLAIN_JSON)
+    {
+      json_open (w, NULL, '{');
+      json_string (w, "group", sl_combine_group_name (lead));
+      json_string (w, "rule", sl_combine_rule_name (rule));
+      json_number (w, "rows", rows->len);
+      json_number (w, "averaged", in->n_combined[lead]);
+      json_number (w, "chi2", tested ? in->chi2[lead] : NAN);
+      json_number (w, "dof", tested ? in->dof[lead] : NAN);
+      json_number (w, "p_value", tested ? in->p_value[lead] : NAN);
+      json_number (w, "level", policy->level);
+      json_key (w, "disagree");
+      g_string_append (w->out, disagree ? "true" : "false");
+      json_open (w, "rows_not_used", '[');
+    }
+  else
+    {
+      g_string_append_printf (w->out, _("  %s: %u rows; rule %s"), sl_combine_group_name (lead), rows->len,
+                              sl_combine_rule_name (rule));
+      if (in->n_combined[lead] >= 2)
+        g_string_append_printf (w->out, _(": the weighted mean of %u of them\n"), in->n_combined[lead]);
+      else if (rule == SL_COMBINE_WEIGHTED_MEAN)
+        g_string_append (w->out, _(": fewer than two rows with errors, so the smallest uncertainty\n"));
+      else
+        g_string_append (w->out, _(": one row chosen\n"));
+      if (!tested)
+        g_string_append (w->out, lead == SL_FIELD_RA
+                                   ? _("    agreement not tested (positions of different epochs differ by the "
+                                       "proper motion)\n")
+                                   : _("    agreement not tested (fewer than two rows with errors)\n"));
+      else
+        g_string_append_printf (w->out, ngettext ("    agreement: chi-square %s for %u degree of freedom, P = %s: %s\n",
+                                                  "    agreement: chi-square %s for %u degrees of freedom, P = %s: %s\n",
+                                                  in->dof[lead]),
+                                chi2, in->dof[lead], p,
+                                policy->level <= 0 ? _("not judged (the run had no test level)")
+                                : disagree ? _("the sources DISAGREE beyond their errors")
+                                : _("consistent"));
+      if (tested && policy->level > 0)
+        g_string_append_printf (w->out, _("    (level %s; Taylor 1997, ch. 12)\n"), level);
+    }
+  for (guint i = 0; i < rows->len; i++)
+    {
+      const SlInputContribution *c = &g_array_index (rows, SlInputContribution, i);
+      RawInput r;
+
+      if (c->used && !show_used)
+        continue;
+      if (!load_raw_input (project, c->measurement, lead, &r, error))
+        return FALSE;
+      if (w->format == SL_EXPLAIN_TEXT)
+        g_string_append (w->out, c->used ? _("    used:\n") : _("    not used:\n"));
+      write_raw_input (w, &r);
+      raw_input_clear (&r);
+    }
+  if (w->format == SL_EXPLAIN_JSON)
+    {
+      json_close (w, ']');
+      json_close (w, '}');
+    }
+  return TRUE;
+}
+
+/* The sources section for the groups behind NEEDED's modules. */
+static gboolean
+write_all_sources (Writer *w, SlProject *project, SlInputCursor *cursor, const SlStarInputs *in,
+                   const SlCombinePolicy *policy, GHashTable *needed, GError **error)
+{
+  gboolean want[SL_N_FIELDS] = { FALSE };
+  gboolean any = FALSE;
+  GHashTableIter iter;
+  gpointer key;
+
+  g_hash_table_iter_init (&iter, needed);
+  while (g_hash_table_iter_next (&iter, &key, NULL))
+    {
+      const SlModule *m = key;
+
+      for (int k = 0; k < SL_MODULE_MAX_IO && m->inputs[k] != SL_FIELD_NONE; k++)
+        {
+          SlField lead = sl_input_group_lead (m->inputs[k]);
+
+          if (lead != SL_FIELD_NONE && sl_combine_group_name (lead) != NULL)
+            want[lead] = TRUE;
+        }
+    }
+  for (SlField lead = 0; lead < SL_N_FIELDS; lead++)
+    {
+      g_autoptr (GArray) rows = NULL;
+
+      if (!want[lead])
+        continue;
+      rows = sl_input_cursor_contributions (cursor, lead);
+      if (rows->len < 2)
+        continue;
+      if (!any && w->format == SL_EXPLAIN_JSON)
+        json_open (w, "sources", '[');
+      else if (!any)
+        g_string_append (w->out, _("Inputs measured by several sources:\n"));
+      any = TRUE;
+      if (!write_sources (w, project, cursor, in, lead, policy, FALSE, error))
+        return FALSE;
+    }
+  if (any && w->format == SL_EXPLAIN_JSON)
+    json_close (w, ']');
+  return TRUE;
+}
+
 static gboolean
 explain_input (SlProject *project, const char *designation, SlField field, Writer *w, GError **error)
 {
   gint64 star_id = sl_star_lookup (project, designation, error);
-  g_autoptr (SlInputCursor) cursor = star_id ? sl_input_cursor_new (project, star_id, error) : NULL;
+  g_autoptr (SlInputCursor) cursor = NULL;
+  g_autoptr (GArray) raw = g_array_new (FALSE, TRUE, sizeof (RawInput));
+  SlField lead = sl_input_group_lead (field);
+  SlCombinePolicy policy;
   SlStarInputs in;
-  RawInput r;
+  gboolean ok;
 
+  g_array_set_clear_func (raw, (GDestroyNotify) raw_input_clear);
+  if (star_id == 0 || !sl_combine_policy_read (project, &policy, error))
+    return FALSE;
+  cursor = sl_input_cursor_new_with_policy (project, star_id, &policy, error);
   if (cursor == NULL || !sl_input_cursor_next (cursor, &in, error))
     return FALSE;
   if (in.measurement[field] == 0)
@@ -636,24 +837,46 @@ explain_input (SlProject *project, const char *designation, SlField field, Write
                    sl_field_info (field)->name);
       return FALSE;
     }
-  if (!load_raw_input (project, in.measurement[field], field, &r, error))
+  if (in.n_combined[lead] >= 2 && sl_field_info (field)->error != SL_FIELD_NONE)
+    ok = collect_mean (project, cursor, &in, field, raw, error);
+  else
+    {
+      RawInput r;
+
+      ok = load_raw_input (project, in.measurement[field], field, &r, error);
+      if (ok)
+        g_array_append_val (raw, r);
+    }
+  if (!ok)
     return FALSE;
   if (w->format == SL_EXPLAIN_JSON)
     {
       json_string (w, "star", designation);
       json_string (w, "quantity", sl_field_info (field)->name);
       json_open (w, "raw_inputs", '[');
-      write_raw_input (w, &r);
+      for (guint i = 0; i < raw->len; i++)
+        write_raw_input (w, &g_array_index (raw, RawInput, i));
       json_close (w, ']');
+      if (field != SL_FIELD_SPTYPE)
+        json_open (w, "sources", '[');
     }
   else
     {
-      g_string_append_printf (w->out, _("%s: %s, a measured input (chosen among %u measurements of the "
-                                        "star: the smallest uncertainty wins)\n"),
+      g_string_append_printf (w->out, ngettext ("%s: %s, a measured input (the star has %u row of measurements; "
+                                                "the project combines sources by its policy, see "
+                                                "'starledger-cli combine')\n",
+                                                "%s: %s, a measured input (the star has %u rows of measurements; "
+                                                "the project combines sources by its policy, see "
+                                                "'starledger-cli combine')\n", in.n_measurements),
                               designation, sl_field_info (field)->name, in.n_measurements);
-      write_raw_input (w, &r);
+      for (guint i = 0; i < raw->len; i++)
+        write_raw_input (w, &g_array_index (raw, RawInput, i));
     }
-  raw_input_clear (&r);
+  if (field != SL_FIELD_SPTYPE
+      && !write_sources (w, project, cursor, &in, lead, &policy, FALSE, error))
+    return FALSE;
+  if (w->format == SL_EXPLAIN_JSON && field != SL_FIELD_SPTYPE)
+    json_close (w, ']');
   return write_matches (w, project, star_id, error);
 }
 
@@ -665,6 +888,8 @@ sl_explain (SlProject *project, const char *designation, const char *quantity,
   g_autoptr (GHashTable) needed = g_hash_table_new (NULL, NULL);
   g_autoptr (GPtrArray) order = NULL;
   g_autoptr (GArray) overrides = NULL;
+  g_autoptr (SlInputCursor) cursor = NULL;
+  SlStarInputs in;
   RunInfo run;
   SlDerivedRow row;
   SlQuantity q;
@@ -703,6 +928,14 @@ sl_explain (SlProject *project, const char *designation, const char *quantity,
     }
   if (!load_run (project, row.run_id, &run, error))
     return FALSE;
+  /* The inputs as the run chose them: its policy, today's rows (a row
+   * imported since makes the star stale, which the header says). */
+  cursor = sl_input_cursor_new_with_policy (project, star_id, &run.params.combine, error);
+  if (cursor == NULL || !sl_input_cursor_next (cursor, &in, error))
+    {
+      run_info_clear (&run);
+      return FALSE;
+    }
   overrides = load_override_infos (project, star_id, error);
 
   write_header (&w, designation, quantity, &row, &run, row.run_id);
@@ -729,13 +962,14 @@ sl_explain (SlProject *project, const char *designation, const char *quantity,
         continue;
       raw = g_array_new (FALSE, TRUE, sizeof (RawInput));
       g_array_set_clear_func (raw, (GDestroyNotify) raw_input_clear);
-      ok = collect_raw_inputs (project, m, &row, raw, error);
+      ok = collect_raw_inputs (project, m, &row, cursor, &in, raw, error);
       if (ok)
         write_step (&w, m, &row, &run, overrides, raw, ++number);
     }
 
   if (format == SL_EXPLAIN_JSON)
     json_close (&w, ']');
+  ok = ok && write_all_sources (&w, project, cursor, &in, &run.params.combine, needed, error);
   ok = ok && write_matches (&w, project, star_id, error);
   if (format == SL_EXPLAIN_JSON)
     g_string_append (out, "}\n");

@@ -9,6 +9,7 @@
 
 #include <gsl/gsl_rng.h>
 
+#include "../combine.h"
 #include "../dual.h"
 #include "../vocabulary.h"
 
@@ -63,9 +64,10 @@ typedef enum {
   SL_FLAG_MISSING_ERROR       = 1u << 8,  /* an input has no error: some values have no interval */
   SL_FLAG_OVERRIDDEN          = 1u << 9,  /* a value was set by hand; values below it follow it */
   SL_FLAG_SPTYPE_NOT_DWARF    = 1u << 10, /* catalogued type is not class V: the class estimate is on the dwarf scale */
+  SL_FLAG_SOURCES_DISAGREE    = 1u << 11, /* sources' values of an input differ beyond their errors (inputs.c) */
 } SlFlag;
 
-#define SL_N_FLAGS 11
+#define SL_N_FLAGS 12
 
 typedef struct {
   SlFlag      flag;
@@ -105,6 +107,8 @@ typedef struct {
   guint            draws;                /* Monte Carlo draws per star */
   guint64          seed;
   double           mc_below_snr;         /* linear runs use Monte Carlo below this parallax S/N */
+  SlCombinePolicy  combine;              /* how several sources' rows become one input: the
+                                          * project's policy when the run began (inputs.h) */
 } SlDeriveParams;
 
 void     sl_derive_params_init (SlDeriveParams *params);

@@ -95,6 +95,12 @@ sl_modules_in_order (void)
   return order;
 }
 
+const SlDeriveParams *
+sl_engine_params (const SlEngine *engine)
+{
+  return &engine->params;
+}
+
 SlEngine *
 sl_engine_new (const SlDeriveParams *params)
 {
@@ -745,7 +751,7 @@ sl_engine_derive (SlEngine *engine, const SlStarInputs *inputs, const SlOverride
   load_inputs (engine, inputs);
   partial_sigmas (engine, overrides, n_overrides, sigma);
   ev->rng = NULL;
-  ev->flags = 0;
+  ev->flags = inputs->flags;
   start_pass (engine, overrides, n_overrides, TRUE);
   run_modules (engine, TRUE);
   out->flags = ev->flags;

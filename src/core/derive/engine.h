@@ -37,6 +37,8 @@ typedef struct {
 typedef struct _SlEngine SlEngine;
 
 SlEngine *sl_engine_new (const SlDeriveParams *params);
+/* The parameters it derives with. */
+const SlDeriveParams *sl_engine_params (const SlEngine *engine);
 void      sl_engine_free (SlEngine *engine);
 
 /* Derives everything for one star.  OVERRIDES may be NULL. */

@@ -110,6 +110,8 @@ static const SlFlagInfo flag_table[SL_N_FLAGS] = {
     N_("A value of this star was set by hand; the values derived from it follow it.") },
   { SL_FLAG_SPTYPE_NOT_DWARF, "sptype_not_dwarf",
     N_("The catalogued type is not a dwarf's: the class estimate is on the dwarf scale and may be several subtypes off.") },
+  { SL_FLAG_SOURCES_DISAGREE, "sources_disagree",
+    N_("Two or more sources measured an input and differ by more than their errors allow (chi-square test at the run's level).") },
 };
 
 const SlFlagInfo *
@@ -148,6 +150,7 @@ sl_derive_params_init (SlDeriveParams *params)
   params->draws = 1000;
   params->seed = 1;
   params->mc_below_snr = 5.0;
+  sl_combine_policy_init (&params->combine);
 }
 
 char *
@@ -177,6 +180,7 @@ char *
 sl_derive_params_describe (const SlDeriveParams *p)
 {
   char buf[4][G_ASCII_DTOSTR_BUF_SIZE];
+  g_autofree char *combine = NULL;
   GString *text = g_string_new (NULL);
 
   if (p->distance == SL_DISTANCE_EDSD)
@@ -194,6 +198,8 @@ sl_derive_params_describe (const SlDeriveParams *p)
     g_string_append_printf (text, _(", errors linear (Monte Carlo, %u draws, seed %" PRIu64
                                    ", below parallax S/N %s)"),
                             p->draws, p->seed, sl_format_double (buf[3], p->mc_below_snr));
+  combine = sl_combine_policy_describe (&p->combine);
+  g_string_append_printf (text, _(", sources combined: %s"), combine);
   return g_string_free (text, FALSE);
 }
 
@@ -216,6 +222,7 @@ sl_derive_params_to_keyfile (const SlDeriveParams *p)
   g_key_file_set_uint64 (kf, PARAMS_GROUP, "draws", p->draws);
   g_key_file_set_uint64 (kf, PARAMS_GROUP, "seed", p->seed);
   g_key_file_set_double (kf, PARAMS_GROUP, "mc_below_snr", p->mc_below_snr);
+  sl_combine_policy_save (&p->combine, kf);
   return g_key_file_to_data (kf, NULL, NULL);
 }
 
@@ -241,6 +248,11 @@ sl_derive_params_from_keyfile (SlDeriveParams *p, const char *text, GError **err
   if (!local) p->draws = (guint) g_key_file_get_uint64 (kf, PARAMS_GROUP, "draws", &local);
   if (!local) p->seed = g_key_file_get_uint64 (kf, PARAMS_GROUP, "seed", &local);
   if (!local) p->mc_below_snr = g_key_file_get_double (kf, PARAMS_GROUP, "mc_below_snr", &local);
+  /* A run recorded before combination policies chose the smallest
+   * uncertainty and tested nothing. */
+  p->combine.level = 0.0;
+  if (!local)
+    sl_combine_policy_load (&p->combine, kf, &local);
   if (local)
     {
       g_set_error (error, SL_ERROR, SL_ERROR_DATABASE, _("the run's recorded parameters are damaged: %s"),
