@@ -22,6 +22,7 @@
 #include "condition.h"
 #include "derivation.h"
 #include "export.h"
+#include "explain.h"
 #include "inputs.h"
 #include "ledger.h"
 #include "lists.h"
@@ -31,6 +32,7 @@
 #include "sl-import-dialog.h"
 #include "sl-matches-panel.h"
 #include "sl-figure-dialog.h"
+#include "sl-combine-dialog.h"
 #include "sl-derive-dialog.h"
 #include "sl-plot-view.h"
 #include "sl-recent-projects.h"
@@ -2976,6 +2978,112 @@ test_matches_panel (void)
   }
 }
 
+
+/* ------------------------------------------------------------------ */
+/* Combining sources                                                  */
+
+/* The Combining Sources dialog writes the project's policy through the
+ * core: a rule per group, the source order (ticked, moved), the test
+ * level (a refused level stops Save); saving marks the derived values
+ * stale, and the next derive records the policy and averages the
+ * proper motions of the stars the second catalogue matched.  Saved as
+ * gui-combine.png.  Last of the tests: it changes how the demo derives. */
+static void
+test_combine_dialog (void)
+{
+  g_autofree char *path = demo_path ();
+  g_autoptr (GError) error = NULL;
+  g_autoptr (SlLedgerEntry) entry = NULL;
+  const char *tarn = "Tarn Ridge second epoch 2016", *larkspur = "Larkspur Hill astrometry 2026";
+  g_autofree char *up_larkspur = g_strdup_printf ("up:%s", larkspur);
+  g_autofree char *listed_tarn = g_strdup_printf ("listed:%s", tarn);
+  g_autofree char *listed_larkspur = g_strdup_printf ("listed:%s", larkspur);
+  SlCombinePolicy policy;
+  SlCombineDialog *dialog;
+  GtkWidget *level, *save;
+  cairo_surface_t *picture;
+  guint n_entries = 0;
+
+  ENSURE_DEMO ();
+  WAIT_UNTIL (!sl_window_is_loading (demo), LOAD_TIMEOUT_S, "the window to be idle");
+  g_assert_true (gtk_widget_activate_action (GTK_WIDGET (demo), "win.combine-sources", NULL));
+  dialog = SL_COMBINE_DIALOG (find_toplevel (SL_TYPE_COMBINE_DIALOG));
+  g_assert_nonnull (dialog);
+  g_assert_true (gtk_window_get_modal (GTK_WINDOW (dialog)));
+  PAINT (dialog);
+
+  /* Positions offer no mean; the parallax does. */
+  g_assert_cmpuint (g_list_model_get_n_items (adw_combo_row_get_model (ADW_COMBO_ROW (find_named (GTK_WIDGET (dialog), "position")))),
+                    ==, 2);
+  adw_combo_row_set_selected (ADW_COMBO_ROW (find_named (GTK_WIDGET (dialog), "parallax")), 2);
+  g_assert_nonnull (strstr (adw_action_row_get_subtitle (ADW_ACTION_ROW (find_named (GTK_WIDGET (dialog), "parallax"))),
+                            "weighted mean"));
+  adw_combo_row_set_selected (ADW_COMBO_ROW (find_named (GTK_WIDGET (dialog), "vmag")), 1);
+  adw_combo_row_set_selected (ADW_COMBO_ROW (find_named (GTK_WIDGET (dialog), "pm")), 2);
+
+  /* Tick two sources; the second ticked goes after the first, then moves up. */
+  gtk_check_button_set_active (GTK_CHECK_BUTTON (find_named (GTK_WIDGET (dialog), listed_tarn)), TRUE);
+  gtk_check_button_set_active (GTK_CHECK_BUTTON (find_named (GTK_WIDGET (dialog), listed_larkspur)), TRUE);
+  g_assert_true (gtk_widget_get_sensitive (find_named (GTK_WIDGET (dialog), up_larkspur)));
+  g_signal_emit_by_name (find_named (GTK_WIDGET (dialog), up_larkspur), "clicked");
+  g_assert_false (gtk_widget_get_sensitive (find_named (GTK_WIDGET (dialog), up_larkspur)));
+
+  /* A level of 1.5 is no probability: marked, and Save waits. */
+  level = find_named (GTK_WIDGET (dialog), "level");
+  save = find_named (GTK_WIDGET (dialog), "save");
+  gtk_editable_set_text (GTK_EDITABLE (level), "1.5");
+  g_assert_true (gtk_widget_has_css_class (level, "error"));
+  g_assert_false (gtk_widget_get_sensitive (save));
+  gtk_editable_set_text (GTK_EDITABLE (level), "0.05");
+  g_assert_false (gtk_widget_has_css_class (level, "error"));
+  g_assert_true (gtk_widget_get_sensitive (save));
+  PAINT (dialog);
+  picture = render_widget (GTK_WIDGET (dialog));
+  save_png (picture, "gui-combine.png");
+  cairo_surface_destroy (picture);
+
+  g_signal_emit_by_name (save, "clicked");
+  WAIT_UNTIL (find_toplevel (SL_TYPE_COMBINE_DIALOG) == NULL, 5, "the dialog to close");
+  {
+    g_autoptr (SlProject) project = sl_project_open (path, &error);
+
+    g_assert_no_error (error);
+    g_assert_true (sl_combine_policy_read (project, &policy, &error));
+  }
+  g_assert_cmpint (policy.rule[SL_FIELD_PARALLAX], ==, SL_COMBINE_WEIGHTED_MEAN);
+  g_assert_cmpint (policy.rule[SL_FIELD_VMAG], ==, SL_COMBINE_PRIORITY);
+  g_assert_cmpint (policy.rule[SL_FIELD_PMRA], ==, SL_COMBINE_WEIGHTED_MEAN);
+  g_assert_cmpint (policy.rule[SL_FIELD_RA], ==, SL_COMBINE_SMALLEST_ERROR);
+  g_assert_cmpstr (policy.priority, ==, "Larkspur Hill astrometry 2026\nTarn Ridge second epoch 2016");
+  g_assert_cmpfloat (policy.level, ==, 0.05);
+  entry = newest_entry (path, &n_entries);
+  g_assert_cmpstr (entry->action, ==, "combine");
+  g_assert_cmpint (stale_stars (path), >, 300);
+
+  /* The next derive uses and records it. */
+  g_clear_pointer (&entry, sl_ledger_entry_free);
+  g_assert_true (gtk_widget_activate_action (GTK_WIDGET (demo), "win.derive-now", NULL));
+  WAIT_UNTIL (!sl_window_is_loading (demo), LOAD_TIMEOUT_S, "the derivation and the reload");
+  g_assert_cmpint (stale_stars (path), ==, 0);
+  {
+    g_autoptr (SlProject) project = sl_project_open (path, &error);
+    g_autoptr (GString) text = g_string_new (NULL);
+    g_autofree char *star = NULL;
+
+    g_assert_no_error (error);
+    /* A programme star the second catalogue matched: two proper motions. */
+    star = sl_test_query_text (sl_project_db (project),
+                               "SELECT designation FROM stars WHERE id IN (SELECT star_id FROM measurements"
+                               " WHERE pmra_err > 0 AND pmdec_err > 0 GROUP BY star_id HAVING count (*) = 2)"
+                               " ORDER BY id LIMIT 1");
+    g_assert_true (sl_explain (project, star, "vtan", SL_EXPLAIN_TEXT, text, &error));
+    g_assert_no_error (error);
+    g_assert_nonnull (strstr (text->str, "pm weighted-mean"));
+    g_assert_nonnull (strstr (text->str, "pmra = "));
+    g_assert_nonnull (strstr (text->str, "the inverse-variance weighted mean of the 2 rows below"));
+  }
+}
+
 int
 main (int argc, char **argv)
 {
@@ -3046,6 +3154,7 @@ main (int argc, char **argv)
   g_test_add_func ("/gui/matches/panel", test_matches_panel);
   g_test_add_func ("/gui/catalogue/columns", test_catalogue_columns);
   g_test_add_func ("/gui/import/assistant-unit-warning", test_import_assistant_unit_warning);
+  g_test_add_func ("/gui/combine/dialog", test_combine_dialog);
   status = g_test_run ();
 
   if (demo)

@@ -33,7 +33,8 @@
  * value was obtained. */
 #define WARNING_FLAGS                                                                        \
   (SL_FLAG_NONPOSITIVE_PARALLAX | SL_FLAG_LOW_PARALLAX_SNR | SL_FLAG_PRIOR_DOMINATED        \
-   | SL_FLAG_COLOUR_OUT_OF_RANGE | SL_FLAG_TEFF_OUT_OF_RANGE | SL_FLAG_SPTYPE_NOT_DWARF)
+   | SL_FLAG_COLOUR_OUT_OF_RANGE | SL_FLAG_TEFF_OUT_OF_RANGE | SL_FLAG_SPTYPE_NOT_DWARF      \
+   | SL_FLAG_SOURCES_DISAGREE)
 
 /* What a click on a cell of a column without a quantity of its own shows. */
 #define DEFAULT_QUANTITY "lum"

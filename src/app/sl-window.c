@@ -29,6 +29,7 @@
 #include "ledger.h"
 #include "sl-application.h"
 #include "sl-catalogue-view.h"
+#include "sl-combine-dialog.h"
 #include "sl-derive-dialog.h"
 #include "sl-figure-dialog.h"
 #include "sl-import-dialog.h"
@@ -604,7 +605,8 @@ sl_window_report_progress (double fraction, gpointer window)
 }
 
 /* While a job runs, nothing else that writes the project may start. */
-static const char *const work_actions[] = { "win.derive", "win.derive-now", "win.import", NULL };
+static const char *const work_actions[] = { "win.derive", "win.derive-now", "win.import", "win.combine-sources",
+                                            NULL };
 
 static void
 show_work (SlWindow *self, const char *what)
@@ -750,6 +752,16 @@ derive_action (GtkWidget *widget, const char *action, GVariant *parameter)
   if (self->path == NULL)
     return;
   gtk_window_present (GTK_WINDOW (sl_derive_dialog_new (self)));
+}
+
+static void
+combine_sources_action (GtkWidget *widget, const char *action, GVariant *parameter)
+{
+  SlWindow *self = SL_WINDOW (widget);
+
+  if (self->path == NULL)
+    return;
+  gtk_window_present (GTK_WINDOW (sl_combine_dialog_new (self)));
 }
 
 static void
@@ -1121,6 +1133,7 @@ sl_window_class_init (SlWindowClass *klass)
   gtk_widget_class_install_action (widget_class, "win.open-demo", NULL, open_demo_action);
   gtk_widget_class_install_action (widget_class, "win.derive", NULL, derive_action);
   gtk_widget_class_install_action (widget_class, "win.derive-now", NULL, derive_now_action);
+  gtk_widget_class_install_action (widget_class, "win.combine-sources", NULL, combine_sources_action);
   gtk_widget_class_install_action (widget_class, "win.import", NULL, import_action);
   gtk_widget_class_install_action (widget_class, "win.cancel-work", NULL, cancel_work_action);
   gtk_widget_class_install_action (widget_class, "win.override", NULL, override_action);

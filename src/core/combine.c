@@ -18,7 +18,7 @@ static const struct {
   const char *name;
   const char *label;
 } rules[SL_N_COMBINE_RULES] = {
-  [SL_COMBINE_SMALLEST_ERROR] = { "smallest-error", N_("Smallest uncertainty") },
+  [SL_COMBINE_SMALLEST_ERROR] = { "smallest-error", N_("Most precise") },
   [SL_COMBINE_PRIORITY]       = { "priority", N_("Source order") },
   [SL_COMBINE_WEIGHTED_MEAN]  = { "weighted-mean", N_("Weighted mean") },
 };
