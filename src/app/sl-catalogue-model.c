@@ -24,31 +24,21 @@
 /* ------------------------------------------------------------------ */
 /* The columns in SQL                                                 */
 
-/* The measurements row a group of inputs comes from (inputs.h: the
- * fields chosen together, sl_input_group_lead), chosen as inputs.c
- * chooses it: among the star's rows that have the group's lead field, a
- * row with an error beats one without, the smaller error wins, and a tie
- * goes to the later source.  For the position the error is
- * hypot (ra_err, dec_err), compared here as its square.  (inputs.c
- * compares ra_err alone when only one of two rows has a dec_err; no
- * single sort key can say that, so for such a star the two may differ.)
- * Joined as "m_LEAD", once for all the shown columns of the group. */
+/* The measurements row the project's policy takes for the group led by
+ * LEAD (inputs.h, sl_input_order_sql; for a mean, the most precise row,
+ * which the mean falls back to), joined as "m_LEAD", once for all the
+ * shown columns of the group. */
 static void
-append_input_join (GString *sql, SlField lead)
+append_input_join (GString *sql, const SlCombinePolicy *policy, SlField lead)
 {
   const char *name = sl_field_info (lead)->name;
-  const char *error = sl_field_info (sl_field_info (lead)->error)->name;
+  g_autofree char *order = sl_input_order_sql (policy, lead);
 
   g_assert (sl_field_info (lead)->error != SL_FIELD_NONE);
   g_string_append_printf (sql, " LEFT JOIN measurements m_%s ON m_%s.id ="
                                " (SELECT m.id FROM measurements m WHERE m.star_id = s.id AND m.%s IS NOT NULL"
-                               " ORDER BY m.%s IS NULL, ",
-                          name, name, name, error);
-  if (lead == SL_FIELD_RA)
-    g_string_append (sql, "m.ra_err * m.ra_err + coalesce (m.dec_err * m.dec_err, 0)");
-  else
-    g_string_append_printf (sql, "m.%s", error);
-  g_string_append (sql, ", m.source_id DESC LIMIT 1)");
+                               " ORDER BY %s LIMIT 1)",
+                          name, name, name, order);
 }
 
 #define JOIN_DERIVED " LEFT JOIN derived d ON d.star_id = s.id"
@@ -86,24 +76,34 @@ joins_add (Joins *joins, SlCatalogueColumn column)
 }
 
 static void
-append_joins (GString *sql, const Joins *joins)
+append_joins (GString *sql, const SlCombinePolicy *policy, const Joins *joins)
 {
   for (SlField f = 0; f < SL_N_FIELDS; f++)
     if (joins->leads[f])
-      append_input_join (sql, f);
+      append_input_join (sql, policy, f);
   if (joins->derived)
     g_string_append (sql, JOIN_DERIVED);
 }
 
+/* The join alias of the row of FIELD's group: "m_parallax". */
+static char *
+row_alias (SlField field)
+{
+  return g_strdup_printf ("m_%s", sl_field_info (sl_input_group_lead (field))->name);
+}
+
 /* The SQL of COLUMN's value (its sort key). */
 static char *
-column_key_sql (SlCatalogueColumn column)
+column_key_sql (const SlCombinePolicy *policy, SlCatalogueColumn column)
 {
   const SlCatalogueColumnInfo *info = sl_catalogue_column_info (column);
 
   if (is_grouped_input (column))
-    return g_strdup_printf ("m_%s.%s", sl_field_info (sl_input_group_lead (info->field))->name,
-                            sl_field_info (info->field)->name);
+    {
+      g_autofree char *row = row_alias (info->field);
+
+      return sl_input_value_sql (policy, info->field, row, "s.id");
+    }
   if (info->field == SL_FIELD_SPTYPE)
     return g_strdup (SPTYPE_SQL);
   if (info->quantity != SL_Q_NONE)
@@ -133,7 +133,8 @@ typedef struct {
  * ids bound as ?1 ... ?PAGE_ROWS, in id order.  Hidden columns cost
  * nothing: neither joined nor read. */
 static char *
-page_sql (const SlCatalogueColumn *shown, guint n_shown, Fetch *fetch, guint *n_fetch)
+page_sql (const SlCombinePolicy *policy, const SlCatalogueColumn *shown, guint n_shown, Fetch *fetch,
+          guint *n_fetch)
 {
   g_autoptr (GString) sql = g_string_new ("SELECT s.id, s.designation");
   Joins joins = { { 0 }, FALSE };
@@ -144,7 +145,7 @@ page_sql (const SlCatalogueColumn *shown, guint n_shown, Fetch *fetch, guint *n_
     {
       SlCatalogueColumn column = shown[i];
       const SlCatalogueColumnInfo *info = sl_catalogue_column_info (column);
-      g_autofree char *key = column_key_sql (column);
+      g_autofree char *key = column_key_sql (policy, column);
       Fetch *f = &fetch[*n_fetch];
 
       if (column == SL_CATALOGUE_COLUMN_DESIGNATION)
@@ -174,9 +175,11 @@ page_sql (const SlCatalogueColumn *shown, guint n_shown, Fetch *fetch, guint *n_
         {
           /* RA and Dec have errors too, in mas on the sky: a table in
            * sexagesimal degrees shows the position alone. */
+          g_autofree char *row = row_alias (info->field);
+          g_autofree char *error = sl_input_value_sql (policy, sl_field_info (info->field)->error, row, "s.id");
+
           f->kind = FETCH_VALUE_ERROR;
-          g_string_append_printf (sql, ", %s, m_%s.%s", key, sl_field_info (sl_input_group_lead (info->field))->name,
-                                  sl_field_info (sl_field_info (info->field)->error)->name);
+          g_string_append_printf (sql, ", %s, %s", key, error);
           next += 2;
         }
       else
@@ -188,7 +191,7 @@ page_sql (const SlCatalogueColumn *shown, guint n_shown, Fetch *fetch, guint *n_
       (*n_fetch)++;
     }
   g_string_append (sql, " FROM stars s");
-  append_joins (sql, &joins);
+  append_joins (sql, policy, &joins);
   g_string_append (sql, " WHERE s.id IN (");
   for (guint i = 1; i <= SL_CATALOGUE_MODEL_PAGE_ROWS; i++)
     g_string_append_printf (sql, "%s?%u", i > 1 ? ", " : "", i);
@@ -204,7 +207,7 @@ page_sql (const SlCatalogueColumn *shown, guint n_shown, Fetch *fetch, guint *n_
 
 /* With IN_LIST, only the stars of the list bound to ?1. */
 static char *
-order_sql (SlCatalogueColumn column, gboolean descending, gboolean in_list)
+order_sql (const SlCombinePolicy *policy, SlCatalogueColumn column, gboolean descending, gboolean in_list)
 {
   const char *where = in_list ? " WHERE s.id IN (" LIST_MEMBERS_SQL ")" : "";
   g_autoptr (GString) joins = g_string_new (NULL);
@@ -213,9 +216,9 @@ order_sql (SlCatalogueColumn column, gboolean descending, gboolean in_list)
 
   if (column == SL_CATALOGUE_COLUMN_NONE)
     return g_strdup_printf ("SELECT s.id FROM stars s%s ORDER BY s.id", where);
-  key = column_key_sql (column);
+  key = column_key_sql (policy, column);
   joins_add (&needed, column);
-  append_joins (joins, &needed);
+  append_joins (joins, policy, &needed);
   return g_strdup_printf ("SELECT s.id FROM stars s%s%s ORDER BY %s %s NULLS LAST, s.id", joins->str, where, key,
                           descending ? "DESC" : "ASC");
 }
@@ -232,8 +235,9 @@ query_order (SlProject *project, SlCatalogueColumn column, gboolean descending, 
              GCancellable *cancellable, GError **error)
 {
   sqlite3 *db = sl_project_db (project);
-  g_autofree char *sql = order_sql (column, descending, list != NULL);
+  g_autofree char *sql = NULL;
   g_autoptr (GArray) ids = NULL;
+  SlCombinePolicy policy;
   sqlite3_stmt *stmt;
   gint64 count = 0;
   int rc;
@@ -241,6 +245,12 @@ query_order (SlProject *project, SlCatalogueColumn column, gboolean descending, 
   /* One read transaction: the count and the order see one snapshot. */
   if (!sl_project_exec (project, "BEGIN", error))
     return NULL;
+  if (!sl_combine_policy_read (project, &policy, error))
+    {
+      sl_project_rollback (project);
+      return NULL;
+    }
+  sql = order_sql (&policy, column, descending, list != NULL);
   /* Counted first so that the array is allocated once. */
   stmt = sl_project_prepare (project, list ? "SELECT count(*) FROM (" LIST_MEMBERS_SQL ")"
                                             : "SELECT count(*) FROM stars", error);
@@ -311,6 +321,7 @@ struct _SlCatalogueModel {
   char             *path;          /* the project, or NULL */
   SlProject        *project;       /* our read-only connection to it */
   sqlite3_stmt     *page_stmt;     /* a page's shown columns (page_sql) */
+  SlCombinePolicy   policy;        /* the project's, which page_stmt follows */
   sqlite3_stmt     *designation_stmt;  /* id -> designation */
   sqlite3_stmt     *id_stmt;       /* designation -> id */
 
@@ -607,9 +618,13 @@ close_project (SlCatalogueModel *self)
 static gboolean
 prepare_page (SlCatalogueModel *self, GError **error)
 {
-  g_autofree char *sql = page_sql (self->shown, self->n_shown, self->fetch, &self->n_fetch);
-  sqlite3_stmt *stmt = sl_project_prepare (self->project, sql, error);
+  g_autofree char *sql = NULL;
+  sqlite3_stmt *stmt;
 
+  if (!sl_combine_policy_read (self->project, &self->policy, error))
+    return FALSE;
+  sql = page_sql (&self->policy, self->shown, self->n_shown, self->fetch, &self->n_fetch);
+  stmt = sl_project_prepare (self->project, sql, error);
   if (stmt == NULL)
     return FALSE;
   g_clear_pointer (&self->page_stmt, sqlite3_finalize);
@@ -736,7 +751,7 @@ sl_catalogue_model_get_page_sql (SlCatalogueModel *self)
   guint n_fetch;
 
   g_return_val_if_fail (SL_IS_CATALOGUE_MODEL (self), NULL);
-  return page_sql (self->shown, self->n_shown, fetch, &n_fetch);
+  return page_sql (&self->policy, self->shown, self->n_shown, fetch, &n_fetch);
 }
 
 gboolean
@@ -759,10 +774,29 @@ sl_catalogue_model_sort (SlCatalogueModel *self, SlCatalogueColumn column, gbool
   return TRUE;
 }
 
+/* After the project changed: a new combination policy changes what the
+ * input columns show, so the page query follows it. */
+static gboolean
+follow_policy (SlCatalogueModel *self, GError **error)
+{
+  SlCombinePolicy policy;
+
+  if (self->project == NULL)
+    return TRUE;
+  if (!sl_combine_policy_read (self->project, &policy, error))
+    return FALSE;
+  if (sl_combine_policy_equal (&policy, &self->policy))
+    return TRUE;
+  drop_pages (self);
+  return prepare_page (self, error);
+}
+
 gboolean
 sl_catalogue_model_reload (SlCatalogueModel *self, GError **error)
 {
   g_return_val_if_fail (SL_IS_CATALOGUE_MODEL (self), FALSE);
+  if (!follow_policy (self, error))
+    return FALSE;
   return sl_catalogue_model_sort (self, self->sort_column, self->descending, error);
 }
 
@@ -879,8 +913,15 @@ void
 sl_catalogue_model_reload_async (SlCatalogueModel *self, GCancellable *cancellable, GAsyncReadyCallback callback,
                                  gpointer user_data)
 {
+  g_autoptr (GError) error = NULL;
+
   g_return_if_fail (SL_IS_CATALOGUE_MODEL (self));
 
+  if (!follow_policy (self, &error))
+    {
+      g_task_report_error (self, callback, user_data, order_async, g_steal_pointer (&error));
+      return;
+    }
   order_async (self, self->sort_column, self->descending, cancellable, callback, user_data);
 }
 

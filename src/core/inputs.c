@@ -513,6 +513,71 @@ sl_input_cursor_contributions (SlInputCursor *cursor, SlField lead)
   return out;
 }
 
+char *
+sl_input_order_sql (const SlCombinePolicy *policy, SlField lead)
+{
+  GString *sql = g_string_new (NULL);
+  const char *error = sl_field_info (sl_field_info (lead)->error)->name;
+
+  g_return_val_if_fail (group_of (lead) != NULL, NULL);
+  if (policy->rule[lead] == SL_COMBINE_PRIORITY && policy->priority[0] != '\0')
+    {
+      g_auto (GStrv) names = g_strsplit (policy->priority, "\n", -1);
+
+      g_string_append (sql, "CASE (SELECT name FROM sources WHERE id = m.source_id)");
+      for (guint i = 0; names[i] != NULL; i++)
+        {
+          char *quoted = sqlite3_mprintf ("%Q", names[i]);
+
+          g_string_append_printf (sql, " WHEN %s THEN %u", quoted, i + 1);
+          sqlite3_free (quoted);
+        }
+      g_string_append (sql, " ELSE 4294967295 END, ");
+    }
+  /* A row with an error first, then the smaller error (for the position
+   * hypot (ra_err, dec_err), compared as its square), then the later
+   * source.  (The cursor compares ra_err alone when only one of two rows
+   * has a dec_err; no single sort key can say that.) */
+  g_string_append_printf (sql, "m.%s IS NULL, ", error);
+  if (lead == SL_FIELD_RA)
+    g_string_append (sql, "m.ra_err * m.ra_err + coalesce (m.dec_err * m.dec_err, 0)");
+  else
+    g_string_append_printf (sql, "m.%s", error);
+  g_string_append (sql, ", m.source_id DESC");
+  return g_string_free (sql, FALSE);
+}
+
+char *
+sl_input_value_sql (const SlCombinePolicy *policy, SlField field, const char *row, const char *star)
+{
+  const SlFieldInfo *info = sl_field_info (field);
+  SlField lead = sl_input_group_lead (field);
+  SlField value = info->kind == SL_FIELD_KIND_ERROR ? info->value_of : field;
+  const FieldGroup *group = group_of (lead);
+  g_autoptr (GString) rows_with_errors = g_string_new (NULL);
+  const char *v, *e;
+  SlField values[2];
+  guint n_values;
+
+  if (group == NULL || policy->rule[lead] != SL_COMBINE_WEIGHTED_MEAN
+      || sl_field_info (value)->error == SL_FIELD_NONE)
+    return g_strdup_printf ("%s.%s", row, info->name);
+  n_values = group_values (group, values);
+  for (guint i = 0; i < n_values; i++)
+    g_string_append_printf (rows_with_errors, " AND m.%s IS NOT NULL AND m.%s > 0", sl_field_info (values[i])->name,
+                            sl_field_info (sl_field_info (values[i])->error)->name);
+  v = sl_field_info (value)->name;
+  e = sl_field_info (sl_field_info (value)->error)->name;
+  /* The weights as the cursor computes them: w = 1 / (e e), then w x. */
+  if (info->kind == SL_FIELD_KIND_ERROR)
+    return g_strdup_printf ("coalesce ((SELECT CASE WHEN count (*) >= 2 THEN 1.0 / sqrt (sum (1.0 / (m.%s * m.%s)))"
+                            " END FROM measurements m WHERE m.star_id = %s%s), %s.%s)",
+                            e, e, star, rows_with_errors->str, row, info->name);
+  return g_strdup_printf ("coalesce ((SELECT CASE WHEN count (*) >= 2 THEN sum ((1.0 / (m.%s * m.%s)) * m.%s)"
+                          " / sum (1.0 / (m.%s * m.%s)) END FROM measurements m WHERE m.star_id = %s%s), %s.%s)",
+                          e, e, v, e, e, star, rows_with_errors->str, row, info->name);
+}
+
 /* The policy's key in the settings table. */
 #define POLICY_KEY "combine"
 

@@ -82,6 +82,21 @@ typedef struct {
 
 GArray        *sl_input_cursor_contributions (SlInputCursor *cursor, SlField lead);
 
+/* The same rules in SQL, for what reads inputs through SQLite rather than
+ * a cursor (the window's table, conditions).  Both take a star's
+ * measurements rows as "m".
+ * sl_input_order_sql: ORDER BY terms that put first the row POLICY takes
+ * for the group led by LEAD (smallest-error, priority; for a mean, the
+ * most precise row, the one recorded with the derived values).
+ * sl_input_value_sql: FIELD's value or error as POLICY takes it: ROW.FIELD
+ * (ROW: the alias of the chosen row), or where POLICY averages the group,
+ * the weighted mean of the rows of the star whose id is the SQL STAR,
+ * falling back to ROW.FIELD where fewer than two rows have errors.  SQLite
+ * sums in row order, as the cursor does; the last bit may differ. */
+char          *sl_input_order_sql (const SlCombinePolicy *policy, SlField lead);
+char          *sl_input_value_sql (const SlCombinePolicy *policy, SlField field, const char *row,
+                                   const char *star);
+
 /* The project's combination policy (settings table, key "combine"): the
  * defaults when none was set. */
 gboolean       sl_combine_policy_read  (SlProject *project, SlCombinePolicy *policy, GError **error);
