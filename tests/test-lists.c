@@ -12,6 +12,7 @@
 #include "lists.h"
 #include "sl-error.h"
 #include "starset.h"
+#include "inputs.h"
 #include "test-util.h"
 
 /* Five derived stars: A (10 pc, B-V 0.3), B (20 pc, 0.65), C (50 pc,
@@ -633,6 +634,41 @@ test_count_matching (SlTestProject *f, gconstpointer data)
   g_assert_true (g_str_has_prefix (error->message, "at 17: unknown name 'tef'"));
 }
 
+/* A condition on an input the project averages reads the mean, as the
+ * derivation did, not the most precise row the derived values record:
+ * B's parallaxes 50 +/- 0.5 and 51 +/- 0.5 average to 50.5. */
+static void
+test_condition_reads_the_mean (SlTestProject *f, gconstpointer data)
+{
+  g_autoptr (GError) error = NULL;
+  g_autofree char *input = sl_test_write_file (f->dir, "more.csv", "id,parallax,parallax_err\nB,51,0.5\n", -1);
+  g_autoptr (SlImportReport) report = NULL;
+  g_autofree char *members = NULL;
+  SlImportOptions options;
+  SlCombinePolicy policy;
+  SlDeriveParams params;
+  SlDeriveReport derived;
+
+  sl_import_options_init (&options);
+  report = sl_import_csv (f->project, input, &options, &error);
+  g_assert_no_error (error);
+  sl_derive_params_init (&params);
+  g_assert_true (sl_derivation_run (f->project, &params, FALSE, NULL, NULL, NULL, &derived, &error));
+  /* By the smallest uncertainty (a tie: the later source), B's is 51. */
+  g_assert_cmpint (sl_list_count_matching (f->project, "parallax > 50.2 and parallax < 50.8", &error), ==, 0);
+  sl_combine_policy_init (&policy);
+  policy.rule[SL_FIELD_PARALLAX] = SL_COMBINE_WEIGHTED_MEAN;
+  g_assert_true (sl_combine_policy_write (f->project, &policy, &error));
+  g_assert_true (sl_derivation_run (f->project, &params, FALSE, NULL, NULL, NULL, &derived, &error));
+  g_assert_no_error (error);
+  g_assert_cmpint (create_ok (f, "mean", "parallax > 50.2 and parallax < 50.8", FALSE), ==, 1);
+  members = members_of (f, "mean");
+  g_assert_cmpstr (members, ==, "B");
+  /* Its error too: 0.5 / sqrt 2 = 0.354. */
+  g_assert_cmpint (sl_list_count_matching (f->project, "parallax_err < 0.36 and parallax_err > 0.35", &error),
+                   ==, 1);
+}
+
 int
 main (int argc, char **argv)
 {
@@ -649,6 +685,7 @@ main (int argc, char **argv)
   ADD ("/lists/create/bad-condition", test_create_bad_condition);
   ADD ("/lists/create/with-stars", test_create_with_stars);
   ADD ("/lists/count-matching", test_count_matching);
+  ADD ("/lists/condition-reads-the-mean", test_condition_reads_the_mean);
   ADD ("/lists/names", test_names);
   ADD ("/lists/members/add-remove", test_add_remove);
   ADD ("/lists/members/set", test_set_member);

@@ -88,13 +88,15 @@ field_join (SlField field)
 
 /* A name resolved to a column. */
 typedef struct {
-  char     sql[64];   /* e.g. "d.teff_lo", "in_vmag.vmag" */
+  char     sql[1024]; /* e.g. "d.teff_lo", "in_vmag.vmag", or a weighted mean (inputs.h) */
   gboolean is_text;
   Join     join;      /* N_JOINS: none (a column of derived) */
 } Column;
 
+/* POLICY NULL: each input as the row the derivation recorded (d.m_*);
+ * otherwise, for a group POLICY averages, the mean (inputs.h). */
 static gboolean
-resolve_name (const char *name, Column *column)
+resolve_name (const char *name, const SlCombinePolicy *policy, Column *column)
 {
   SlQuantity q;
   SlField f;
@@ -111,8 +113,15 @@ resolve_name (const char *name, Column *column)
       column->join = field_join (f);
       column->is_text = sl_field_info (f)->kind != SL_FIELD_KIND_VALUE
                         && sl_field_info (f)->kind != SL_FIELD_KIND_ERROR;
-      g_snprintf (column->sql, sizeof column->sql, "%s.%s", join_alias[column->join],
-                  f == SL_FIELD_ID ? "designation" : sl_field_info (f)->name);
+      if (policy != NULL && !column->is_text && f != SL_FIELD_ID)
+        {
+          g_autofree char *sql = sl_input_value_sql (policy, f, join_alias[column->join], "d.star_id");
+
+          g_strlcpy (column->sql, sql, sizeof column->sql);
+        }
+      else
+        g_snprintf (column->sql, sizeof column->sql, "%s.%s", join_alias[column->join],
+                    f == SL_FIELD_ID ? "designation" : sl_field_info (f)->name);
       return TRUE;
     }
   /* NAME_lo and NAME_hi of a numeric derived quantity. */
@@ -257,6 +266,7 @@ typedef struct {
   GString    *where;
   GArray     *params;
   gboolean    joins[N_JOINS];
+  const SlCombinePolicy *policy;
   GError    **error;
 } Parser;
 
@@ -462,7 +472,7 @@ parse_comparison (Parser *p)
   Column column;
   Op op;
 
-  if (!resolve_name (name, &column))
+  if (!resolve_name (name, p->policy, &column))
     {
       g_autofree char *names = known_names ();
       const char *suggestion = closest_name (name);
@@ -672,6 +682,12 @@ param_clear (gpointer data)
 SlCondition *
 sl_condition_compile (const char *text, GError **error)
 {
+  return sl_condition_compile_for (text, NULL, error);
+}
+
+SlCondition *
+sl_condition_compile_for (const char *text, const SlCombinePolicy *policy, GError **error)
+{
   g_autoptr (SlCondition) condition = NULL;
   Parser p = { 0 };
   const char *invalid;
@@ -693,6 +709,7 @@ sl_condition_compile (const char *text, GError **error)
   g_array_set_clear_func (condition->params, param_clear);
 
   p.text = text;
+  p.policy = policy;
   p.where = g_string_new (NULL);
   p.params = condition->params;
   p.error = error;
@@ -797,7 +814,7 @@ sl_condition_names (void)
 
       const SlQuantityInfo *info = sl_quantity_info (q);
 
-      if (!resolve_name (info->name, &column))
+      if (!resolve_name (info->name, NULL, &column))
         continue;
       add_name (names, info->name, column.is_text ? SL_CONDITION_NAME_TEXT : SL_CONDITION_NAME_NUMBER,
                 info->description, info->unit, 0);
@@ -814,7 +831,7 @@ sl_condition_names (void)
       /* A field that is also a quantity's name reaches the quantity. */
       const SlFieldInfo *info = sl_field_info (f);
 
-      if (resolve_name (info->name, &column) && column.join != N_JOINS)
+      if (resolve_name (info->name, NULL, &column) && column.join != N_JOINS)
         add_name (names, info->name, column.is_text ? SL_CONDITION_NAME_TEXT : SL_CONDITION_NAME_NUMBER,
                   info->description, column.is_text ? "" : sl_unit_name (info->canonical), 0);
     }

@@ -32,6 +32,8 @@
 #include <glib.h>
 #include <sqlite3.h>
 
+#include "combine.h"
+
 G_BEGIN_DECLS
 
 typedef enum {
@@ -58,6 +60,10 @@ typedef struct {
 /* Compiles TEXT; on a mistake sets an SL_ERROR whose message starts with
  * "at COLUMN:" (characters from 1) and says what was expected there. */
 SlCondition *sl_condition_compile (const char *text, GError **error);
+/* The same for a project whose combination POLICY averages some inputs:
+ * a name of such an input stands for the mean (inputs.h), not for the
+ * most precise row the derived values record.  POLICY NULL: as above. */
+SlCondition *sl_condition_compile_for (const char *text, const SlCombinePolicy *policy, GError **error);
 void         sl_condition_free    (SlCondition *condition);
 
 /* "SELECT d.star_id FROM derived d JOINS WHERE WHERE ORDER BY d.star_id". */

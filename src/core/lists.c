@@ -9,6 +9,7 @@
  *   deleting ............ sl_list_delete
  *   reading ............. sl_list_names, sl_list_star_ids, sl_list_infos, sl_list_members
  */
+#include "inputs.h"
 #include "lists.h"
 
 #include <inttypes.h>
@@ -155,6 +156,18 @@ append_to_ledger (SlProject *project, char *summary, GString *details, GError **
 /* ------------------------------------------------------------------ */
 /* Making lists                                                       */
 
+/* The condition as the project reads its inputs: averaged where its
+ * combination policy averages (inputs.h). */
+static SlCondition *
+compile_for_project (SlProject *project, const char *text, GError **error)
+{
+  SlCombinePolicy policy;
+
+  if (!sl_combine_policy_read (project, &policy, error))
+    return NULL;
+  return sl_condition_compile_for (text, &policy, error);
+}
+
 gint64
 sl_list_create_from_condition (SlProject *project, const char *name, const char *condition_text,
                                const char *description, gboolean replace, GError **error)
@@ -173,7 +186,7 @@ sl_list_create_from_condition (SlProject *project, const char *name, const char 
 
   if (!check_name (name, error) || !check_text (_("description"), description, error))
     return -1;
-  condition = sl_condition_compile (condition_text, error);
+  condition = compile_for_project (project, condition_text, error);
   if (condition == NULL)
     return -1;
 
@@ -380,7 +393,7 @@ sl_list_create_with_stars (SlProject *project, const char *name, const char *con
 
   if (!check_name (name, error) || !check_text (_("description"), description, error))
     return -1;
-  if (condition_text && (condition = sl_condition_compile (condition_text, error)) == NULL)
+  if (condition_text && (condition = compile_for_project (project, condition_text, error)) == NULL)
     return -1;
 
   if (!sl_project_begin (project, error))
@@ -483,7 +496,7 @@ sl_list_count_matching (SlProject *project, const char *condition_text, GError *
 
   g_return_val_if_fail (project != NULL && condition_text != NULL, -1);
 
-  condition = sl_condition_compile (condition_text, error);
+  condition = compile_for_project (project, condition_text, error);
   if (condition == NULL)
     return -1;
   sql = g_strdup_printf ("SELECT count(*) FROM derived d%s WHERE %s", condition->joins, condition->where);
