@@ -87,6 +87,13 @@ N_SECOND_COMMON = 40      # programme stars it measured (besides the fast ones)
 N_SECOND_FAST = 6         # the fastest programme stars, all in it
 N_SECOND_PAIRS = 2        # programme stars it resolves into two rows
 N_SECOND_NEW = 5          # stars the programme does not list
+# Two common stars are unresolved binaries: the orbit bends the photocentre's
+# path, so the survey's proper motion (over its own baseline) differs from
+# the programme's by far more than either error, and combining the two
+# catalogues must flag them (sources_disagree).  Added after the random
+# draws, so no other row changes.
+N_SECOND_WOBBLE = 2
+WOBBLE_PM = (31.0, -22.0)  # mas/yr added to the survey's pmra, pmdec
 
 
 def interp(anchors, x):
@@ -428,6 +435,8 @@ def build_second(stars, skip):
 
     rows = []
 
+    wobbling = set(common[:N_SECOND_WOBBLE])
+
     def row(ra, dec, st, kind, pm=True):
         # The survey's errors are larger than the programme's, so the
         # programme's astrometry stays what a matched star shows.
@@ -439,6 +448,8 @@ def build_second(stars, skip):
             pm_err = max(rng.uniform(1.5, 4.0), 2.0 * st["pm_err"])
             pmra = st["pmra"] + rng.gauss(0, pm_err)
             pmdec = st["pmdec"] + rng.gauss(0, pm_err)
+            if st["n"] in wobbling:
+                pmra, pmdec = pmra + WOBBLE_PM[0], pmdec + WOBBLE_PM[1]
             pm_cells = [fmt("%.2f", pmra), fmt("%.2f", pm_err), fmt("%.2f", pmdec), fmt("%.2f", pm_err)]
         elif pm:
             pm_err = rng.uniform(1.5, 4.0)
@@ -470,7 +481,7 @@ def build_second(stars, skip):
                for st in stars.values()):
             row(ra, dec, None, "new")
     rows.sort(key=lambda r: float(r[0][0]))
-    return fast, pairs, rows
+    return fast, pairs, rows, sorted(wobbling)
 
 
 def write_second(path, rows):
@@ -506,7 +517,7 @@ def main(argv):
     # Rows that name a programme star must find it: not the stars whose
     # astrometry row is bad (they exist only at the photometry's epoch).
     skip = {BAD_DEC_ID, BAD_PLX_ID, ZERO_PLXERR_ID, DUP_OF_ID, QUOTED_ID} | set(NEAR_EQUATOR_IDS)
-    fast, pairs, rows = build_second(stars, skip)
+    fast, pairs, rows, wobbling = build_second(stars, skip)
     moved = [back_to(stars[n], SECOND_EPOCH)[2] for n in fast]
     assert min(moved) > 3 * SECOND_RADIUS, "the fast stars must move well beyond the radius"
     write_second(os.path.join(outdir, "second-epoch.csv"), rows)
@@ -516,6 +527,8 @@ def main(argv):
             extra = ""
             if n is not None:
                 extra = " %s moves %.2f arcsec" % (designation(n), back_to(stars[n], SECOND_EPOCH)[2])
+            if n in wobbling:
+                extra += ", binary: proper motions disagree"
             print("line %d %s %s%s" % (line, second_designation(k), kind, extra))
     return 0
 

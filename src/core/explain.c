@@ -754,12 +754,19 @@ write_sources (Writer *w, SlProject *project, SlInputCursor *cursor, const SlSta
 
       if (c->used && !show_used)
         continue;
-      if (!load_raw_input (project, c->measurement, lead, &r, error))
-        return FALSE;
       if (w->format == SL_EXPLAIN_TEXT)
         g_string_append (w->out, c->used ? _("    used:\n") : _("    not used:\n"));
-      write_raw_input (w, &r);
-      raw_input_clear (&r);
+      /* Every value of the group: both proper-motion components. */
+      for (SlField f = 0; f < SL_N_FIELDS; f++)
+        {
+          if (sl_input_group_lead (f) != lead || sl_field_info (f)->kind != SL_FIELD_KIND_VALUE
+              || sl_field_info (f)->error == SL_FIELD_NONE)
+            continue;
+          if (!load_raw_input (project, c->measurement, f, &r, error))
+            return FALSE;
+          write_raw_input (w, &r);
+          raw_input_clear (&r);
+        }
     }
   if (w->format == SL_EXPLAIN_JSON)
     {
