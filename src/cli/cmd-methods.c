@@ -12,6 +12,7 @@
 #include <stdio.h>
 
 #include "cli.h"
+#include "combine.h"
 #include "derive/engine.h"
 #include "vocabulary.h"
 
@@ -102,6 +103,33 @@ param_sources (const SlParamInfo *p)
   return g_string_free (g_steal_pointer (&text), FALSE);
 }
 
+/* What each rule for combining sources takes, and its source. */
+static const char *
+rule_takes (SlCombineRule rule)
+{
+  switch (rule)
+    {
+    case SL_COMBINE_PRIORITY:
+      return N_("the row of the source listed first in the project's source order, then the smallest uncertainty");
+    case SL_COMBINE_WEIGHTED_MEAN:
+      return N_("the inverse-variance weighted mean of every row with an error, and its error "
+                "(not for positions; fewer than two such rows: the smallest uncertainty)");
+    case SL_COMBINE_SMALLEST_ERROR:
+    default:
+      return N_("the row with the smallest uncertainty; a row with an error beats one without; "
+                "ties go to the later source");
+    }
+}
+
+static const char *
+rule_source (SlCombineRule rule)
+{
+  return rule == SL_COMBINE_WEIGHTED_MEAN ? "Taylor 1997, An Introduction to Error Analysis, ch. 7"
+                                          : "common practice";
+}
+
+#define AGREEMENT_SOURCE "Taylor 1997, An Introduction to Error Analysis, ch. 12"
+
 static void
 print_markdown (GPtrArray *modules, const SlDeriveParams *defaults)
 {
@@ -127,6 +155,18 @@ print_markdown (GPtrArray *modules, const SlDeriveParams *defaults)
       printf ("| `%s`: %s | %s%s%s | %s | %s |\n", info->name, info->label, value, info->unit[0] ? " " : "",
               info->unit, range, sources[0] ? sources : "common practice");
     }
+  printf ("\nWhere several sources measured one input of a star, the project's combination policy "
+          "(`starledger-cli combine`, the window's Combining Sources dialog; recorded with each run) "
+          "chooses per group of inputs (position, parallax, pm, vmag, bmag, bv, ebv, vrad):\n\n"
+          "| Rule | Takes | Source |\n|---|---|---|\n");
+  for (SlCombineRule r = 0; r < SL_N_COMBINE_RULES; r++)
+    printf ("| `%s`%s | %s | %s |\n", sl_combine_rule_name (r), r == SL_COMBINE_SMALLEST_ERROR ? " (default)" : "",
+            rule_takes (r), rule_source (r));
+  printf ("\nWhatever the rule, two or more rows with errors are tested for agreement: chi-square "
+          "of the rows about their weighted mean with n - 1 degrees of freedom (2 (n - 1) for the "
+          "proper motion), its tail probability by GSL's `gsl_cdf_chisq_Q`; below the level "
+          "(default 0.01, common practice) the star is flagged `sources_disagree`. Positions are not "
+          "tested (rows of different epochs differ by the proper motion). Source: %s.\n", AGREEMENT_SOURCE);
 }
 
 static void
@@ -158,6 +198,16 @@ print_text (GPtrArray *modules, const SlDeriveParams *defaults)
       if (sources[0])
         printf (_("  %-20s source: %s\n"), "", sources);
     }
+  printf (_("\nCombining several sources' rows of one input (the project's policy: 'starledger-cli combine'):\n"));
+  for (SlCombineRule r = 0; r < SL_N_COMBINE_RULES; r++)
+    {
+      printf ("  %-20s %s%s\n", sl_combine_rule_name (r), _(rule_takes (r)),
+              r == SL_COMBINE_SMALLEST_ERROR ? _(" (default)") : "");
+      printf (_("  %-20s source: %s\n"), "", rule_source (r));
+    }
+  printf (_("  agreement test: chi-square of two or more rows with errors; a star is flagged "
+            "sources_disagree below the level (default 0.01)\n"));
+  printf (_("  %-20s source: %s\n"), "", AGREEMENT_SOURCE);
 }
 
 int
