@@ -65,13 +65,12 @@ rule_help (SlCombineRule rule)
   switch (rule)
     {
     case SL_COMBINE_PRIORITY:
-      return _("The row of the first source in the order below; then the smallest uncertainty.");
+      return _("The first source in the order below.");
     case SL_COMBINE_WEIGHTED_MEAN:
-      return _("The inverse-variance weighted mean of every row with an error, and its error "
-               "(Taylor 1997, ch. 7).");
+      return _("Inverse-variance weighted mean of the rows with errors (Taylor 1997, ch. 7).");
     case SL_COMBINE_SMALLEST_ERROR:
     default:
-      return _("The row with the smallest uncertainty; ties go to the later source.");
+      return _("The row with the smallest uncertainty.");
     }
 }
 
