@@ -610,6 +610,55 @@ test_scenario_ambiguous (void)
   (void) n_true;
 }
 
+/* The cross-match works on both cores (STARLEDGER_THREADS, or the
+ * processors): the outcome must not depend on how many. */
+static void
+test_threads_same_result (void)
+{
+  g_autoptr (GRand) rand = g_rand_new_with_seed (11);
+  const guint n = 40000;
+  g_autofree SlAstrometry *stars = g_new (SlAstrometry, n);
+  g_autofree SlAstrometry *rows = g_new (SlAstrometry, n);
+  g_autofree SlMatch *one = g_new0 (SlMatch, n);   /* zeroed: memcmp sees the padding too */
+  g_autofree SlMatch *more = g_new0 (SlMatch, n);
+  guint unique = 0, ambiguous = 0;
+
+  for (guint i = 0; i < n; i++)
+    {
+      sl_astrometry_init (&stars[i]);
+      stars[i].ra = g_rand_double_range (rand, 0, 360);
+      stars[i].dec = asin (g_rand_double_range (rand, -1, 1)) * ERFA_DR2D;
+      stars[i].pmra = g_rand_double_range (rand, -500, 500);
+      stars[i].pmdec = g_rand_double_range (rand, -500, 500);
+      stars[i].epoch = 2000.0;
+      /* Rows: a star seen again 16 years on, some twice, some nowhere
+       * near (ambiguous and new rows), some without a position. */
+      rows[i] = stars[g_rand_int_range (rand, 0, (gint32) n)];
+      sl_astrometry_propagate (&rows[i], 2016.0, &rows[i].ra, &rows[i].dec);
+      rows[i].ra = fmod (rows[i].ra + g_rand_double_range (rand, -0.002, 0.002) + 360.0, 360.0);
+      rows[i].epoch = 2016.0;
+      if (i % 97 == 0)
+        rows[i].dec = NAN;
+    }
+  g_setenv ("STARLEDGER_THREADS", "1", TRUE);
+  sl_crossmatch (stars, n, rows, n, 20.0, 2016.0, one);
+  for (const char *const *threads = (const char *const[]) { "2", "3", "7", NULL }; *threads; threads++)
+    {
+      g_setenv ("STARLEDGER_THREADS", *threads, TRUE);
+      sl_crossmatch (stars, n, rows, n, 20.0, 2016.0, more);
+      g_assert_cmpmem (one, n * sizeof (SlMatch), more, n * sizeof (SlMatch));
+    }
+  g_unsetenv ("STARLEDGER_THREADS");
+  for (guint j = 0; j < n; j++)
+    {
+      unique += one[j].status == SL_MATCH_UNIQUE;
+      ambiguous += one[j].status == SL_MATCH_AMBIGUOUS;
+    }
+  /* Both outcomes occur, so the comparison covers them. */
+  g_assert_cmpuint (unique, >, n / 4);
+  g_assert_cmpuint (ambiguous, >, n / 10);
+}
+
 int
 main (int argc, char **argv)
 {
@@ -620,6 +669,7 @@ main (int argc, char **argv)
   g_test_add_func ("/crossmatch/propagate/unmoved", test_propagate_unmoved);
   g_test_add_func ("/crossmatch/propagate/no-parallax", test_propagate_no_parallax);
   g_test_add_func ("/crossmatch/separation", test_separation);
+  g_test_add_func ("/crossmatch/threads-same-result", test_threads_same_result);
   g_test_add_func ("/crossmatch/index/random-small-radius", test_index_random_small_radius);
   g_test_add_func ("/crossmatch/index/random-large-radius", test_index_random_large_radius);
   g_test_add_func ("/crossmatch/index/random-huge-radius", test_index_random_huge_radius);

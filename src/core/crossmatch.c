@@ -16,10 +16,55 @@
 #include <stdlib.h>
 #include <string.h>
 
+#include "derive/pool.h"
+
 /* Zones are at least this tall (deg) even for tiny radii: below it the
  * zone table grows while a query saves nothing, each zone being nearly
  * empty already at a million stars on the sky. */
 #define MIN_ZONE_HEIGHT_DEG (30.0 / 3600.0)
+
+/* ------------------------------------------------------------------ */
+/* Work on both cores                                                 */
+
+/* FUNC (DATA, FIRST, LAST) on contiguous slices of [0, N), one per thread
+ * (sl_derive_threads: STARLEDGER_THREADS or the cores), the last on the
+ * calling thread.  Slices write disjoint results, so the outcome does not
+ * depend on the thread count. */
+typedef void (*SliceFunc) (gpointer data, gsize first, gsize last);
+
+typedef struct {
+  SliceFunc func;
+  gpointer  data;
+  gsize     first, last;
+} Slice;
+
+static gpointer
+run_slice (gpointer data)
+{
+  Slice *slice = data;
+
+  slice->func (slice->data, slice->first, slice->last);
+  return NULL;
+}
+
+/* Below this many items a thread costs more than it saves. */
+#define MIN_ITEMS_PER_THREAD 4096
+
+static void
+parallel_for (gsize n, SliceFunc func, gpointer data)
+{
+  guint n_threads = (guint) MIN ((gsize) sl_derive_threads (), MAX (n / MIN_ITEMS_PER_THREAD, 1));
+  g_autofree Slice *slices = g_new (Slice, n_threads);
+  g_autofree GThread **threads = g_new0 (GThread *, n_threads);
+
+  for (guint t = 0; t < n_threads; t++)
+    slices[t] = (Slice) { func, data, n * t / n_threads, n * (t + 1) / n_threads };
+  for (guint t = 0; t + 1 < n_threads; t++)
+    threads[t] = g_thread_new ("sl-crossmatch", run_slice, &slices[t]);
+  run_slice (&slices[n_threads - 1]);
+  for (guint t = 0; t + 1 < n_threads; t++)
+    g_thread_join (threads[t]);
+}
 
 void
 sl_astrometry_init (SlAstrometry *a)
@@ -182,25 +227,50 @@ compare_points (const void *a, const void *b)
   return (p->key > q->key) - (p->key < q->key);
 }
 
+/* Sorts zones [FIRST, LAST) of the bucketed points by RA. */
+static void
+sort_zones (gpointer data, gsize first, gsize last)
+{
+  SlSkyIndex *index = data;
+  Point *points = (Point *) index->points->data;
+
+  for (gsize z = first; z < last; z++)
+    {
+      gsize start = index->zone_start[z], n = index->zone_start[z + 1] - start;
+
+      if (n > 1)
+        qsort (points + start, n, sizeof (Point), compare_points);
+    }
+}
+
 void
 sl_sky_index_build (SlSkyIndex *index)
 {
-  const Point *points;
-  gsize n, i = 0;
+  const Point *unsorted;
+  g_autofree gsize *next = NULL;
+  GArray *bucketed;
+  gsize n;
 
   g_return_if_fail (index != NULL && !index->built);
 
-  qsort (index->points->data, index->points->len, sizeof (Point), compare_points);
-  points = (const Point *) index->points->data;
+  /* By zone first, in one counting pass (a zone holds a few dozen points
+   * at a million stars), then each zone by RA: far cheaper than one sort
+   * of every point, and the zones sort on both cores. */
   n = index->points->len;
-  index->zone_start = g_new (gsize, index->n_zones + 1);
+  unsorted = (const Point *) index->points->data;
+  index->zone_start = g_new0 (gsize, index->n_zones + 1);
+  for (gsize i = 0; i < n; i++)
+    index->zone_start[unsorted[i].zone + 1]++;
   for (guint z = 0; z < index->n_zones; z++)
-    {
-      index->zone_start[z] = i;
-      while (i < n && points[i].zone == z)
-        i++;
-    }
-  index->zone_start[index->n_zones] = n;
+    index->zone_start[z + 1] += index->zone_start[z];
+  next = g_memdup2 (index->zone_start, (index->n_zones + 1) * sizeof (gsize));
+  bucketed = g_array_sized_new (FALSE, FALSE, sizeof (Point), (guint) n);
+  g_array_set_size (bucketed, (guint) n);
+  for (gsize i = 0; i < n; i++)
+    g_array_index (bucketed, Point, next[unsorted[i].zone]++) = unsorted[i];
+  g_array_unref (index->points);
+  index->points = bucketed;
+  parallel_for (index->n_zones, sort_zones, index);
   index->built = TRUE;
 }
 
@@ -348,47 +418,94 @@ sl_sky_index_query (const SlSkyIndex *index, double ra, double dec, GArray *foun
 /* ------------------------------------------------------------------ */
 /* The rule                                                           */
 
+/* The stars moved to the common epoch, as index points (a star without a
+ * position: zone G_MAXUINT, left out). */
+typedef struct {
+  const SlSkyIndex   *index;
+  const SlAstrometry *stars;
+  Point              *points;
+  double              epoch;
+} PropagateJob;
+
+static void
+propagate_stars (gpointer data, gsize first, gsize last)
+{
+  PropagateJob *job = data;
+
+  for (gsize i = first; i < last; i++)
+    {
+      Point *p = &job->points[i];
+      double ra, dec;
+
+      p->zone = G_MAXUINT;
+      if (!isfinite (job->stars[i].ra) || !isfinite (job->stars[i].dec))
+        continue;
+      sl_astrometry_propagate (&job->stars[i], job->epoch, &ra, &dec);
+      p->ra = fmod (ra, 360.0);
+      if (p->ra < 0)
+        p->ra += 360.0;
+      unit_vector (p->ra, dec, p->v);
+      p->key = (gint64) i;
+      p->zone = zone_of (job->index, dec);
+    }
+}
+
+typedef struct {
+  const SlSkyIndex   *index;
+  const SlAstrometry *rows;
+  SlMatch            *out;
+  double              epoch;
+} QueryJob;
+
+static void
+query_rows (gpointer data, gsize first, gsize last)
+{
+  QueryJob *job = data;
+  g_autoptr (GArray) found = g_array_new (FALSE, FALSE, sizeof (SlSkyCandidate));
+
+  for (gsize j = first; j < last; j++)
+    {
+      double ra, dec;
+      SlMatch *m = &job->out[j];
+
+      m->status = SL_MATCH_NONE;
+      m->star = -1;
+      m->separation = NAN;
+      m->n_candidates = 0;
+      if (!isfinite (job->rows[j].ra) || !isfinite (job->rows[j].dec))
+        continue;
+      sl_astrometry_propagate (&job->rows[j], job->epoch, &ra, &dec);
+      m->n_candidates = sl_sky_index_query (job->index, ra, dec, found);
+      if (m->n_candidates == 0)
+        continue;
+      m->star = g_array_index (found, SlSkyCandidate, 0).key;
+      m->separation = g_array_index (found, SlSkyCandidate, 0).separation;
+    }
+}
+
 void
 sl_crossmatch (const SlAstrometry *stars, gsize n_stars,
                const SlAstrometry *rows, gsize n_rows,
                double radius_arcsec, double epoch, SlMatch *out)
 {
   g_autoptr (SlSkyIndex) index = sl_sky_index_new (radius_arcsec);
-  g_autoptr (GArray) found = g_array_new (FALSE, FALSE, sizeof (SlSkyCandidate));
   g_autofree guint8 *claims = g_new0 (guint8, n_stars);
+  g_autofree Point *moved = g_new (Point, n_stars);
+  PropagateJob propagate = { index, stars, moved, epoch };
+  QueryJob query = { index, rows, out, epoch };
 
+  /* Both sides move on both cores; the index keeps the stars' order. */
+  parallel_for (n_stars, propagate_stars, &propagate);
   for (gsize i = 0; i < n_stars; i++)
-    {
-      double ra, dec;
-
-      if (!isfinite (stars[i].ra) || !isfinite (stars[i].dec))
-        continue;
-      sl_astrometry_propagate (&stars[i], epoch, &ra, &dec);
-      sl_sky_index_add (index, ra, dec, (gint64) i);
-    }
+    if (moved[i].zone != G_MAXUINT)
+      g_array_append_val (index->points, moved[i]);
   sl_sky_index_build (index);
+  parallel_for (n_rows, query_rows, &query);
 
+  /* Which rows claim the same star: after every query, in row order. */
   for (gsize j = 0; j < n_rows; j++)
-    {
-      double ra, dec;
-      SlMatch *m = &out[j];
-
-      m->status = SL_MATCH_NONE;
-      m->star = -1;
-      m->separation = NAN;
-      m->n_candidates = 0;
-      if (!isfinite (rows[j].ra) || !isfinite (rows[j].dec))
-        continue;
-      sl_astrometry_propagate (&rows[j], epoch, &ra, &dec);
-      m->n_candidates = sl_sky_index_query (index, ra, dec, found);
-      if (m->n_candidates == 0)
-        continue;
-      m->star = g_array_index (found, SlSkyCandidate, 0).key;
-      m->separation = g_array_index (found, SlSkyCandidate, 0).separation;
-      if (claims[m->star] < 2)
-        claims[m->star]++;
-    }
-
+    if (out[j].star >= 0 && claims[out[j].star] < 2)
+      claims[out[j].star]++;
   for (gsize j = 0; j < n_rows; j++)
     {
       SlMatch *m = &out[j];
