@@ -2979,6 +2979,40 @@ test_matches_panel (void)
 }
 
 
+/* The figure dialog's numbers are written with a '.' whatever the
+ * locale, as the command line it shows; a ',' typed reads as the decimal
+ * point.  Under de_DE.UTF-8 where it is installed (build-aux/dev makes it). */
+static void
+test_figure_decimal_point (void)
+{
+  g_autofree char *numeric = g_strdup (setlocale (LC_NUMERIC, NULL));
+  SlFigureDialog *dialog;
+  GtkSpinButton *width;
+
+  ENSURE_DEMO ();
+  if (setlocale (LC_NUMERIC, "de_DE.UTF-8") == NULL)
+    {
+      g_test_skip ("no de_DE.UTF-8 locale (build-aux/dev generates it)");
+      return;
+    }
+  dialog = open_figure_dialog ("hr");
+  g_assert_nonnull (dialog);
+  width = GTK_SPIN_BUTTON (find_named (GTK_WIDGET (dialog), "width"));
+  gtk_spin_button_set_value (width, 120.5);
+  g_assert_cmpstr (gtk_editable_get_text (GTK_EDITABLE (width)), ==, "120.5");
+  gtk_editable_set_text (GTK_EDITABLE (width), "88,5");
+  gtk_spin_button_update (width);
+  g_assert_cmpfloat (gtk_spin_button_get_value (width), ==, 88.5);
+  g_assert_cmpstr (gtk_editable_get_text (GTK_EDITABLE (width)), ==, "88.5");
+  /* Typed: into the text the spin button holds. */
+  gtk_editable_set_text (gtk_editable_get_delegate (GTK_EDITABLE (width)), "90.5");
+  gtk_spin_button_update (width);
+  g_assert_cmpfloat (gtk_spin_button_get_value (width), ==, 90.5);
+  g_assert_cmpstr (gtk_editable_get_text (GTK_EDITABLE (width)), ==, "90.5");
+  gtk_window_close (GTK_WINDOW (dialog));
+  setlocale (LC_NUMERIC, numeric);
+}
+
 /* ------------------------------------------------------------------ */
 /* Combining sources                                                  */
 
@@ -3154,6 +3188,7 @@ main (int argc, char **argv)
   g_test_add_func ("/gui/matches/panel", test_matches_panel);
   g_test_add_func ("/gui/catalogue/columns", test_catalogue_columns);
   g_test_add_func ("/gui/import/assistant-unit-warning", test_import_assistant_unit_warning);
+  g_test_add_func ("/gui/figure/decimal-point", test_figure_decimal_point);
   g_test_add_func ("/gui/combine/dialog", test_combine_dialog);
   status = g_test_run ();
 

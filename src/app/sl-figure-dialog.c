@@ -104,6 +104,37 @@ action_row (AdwPreferencesGroup *group, const char *title, const char *subtitle)
   return row;
 }
 
+/* Numbers as the rest of Starledger writes and reads them, with a '.'
+ * whatever the locale (README, Languages), so that the size shown is the
+ * one the equivalent command line shows; a ',' typed out of habit is read
+ * as the decimal point too. */
+static gboolean
+on_spin_output (GtkSpinButton *spin, gpointer data)
+{
+  char format[16], text[G_ASCII_DTOSTR_BUF_SIZE];
+  GtkEditable *editable;
+
+  g_snprintf (format, sizeof format, "%%.%uf", gtk_spin_button_get_digits (spin));
+  g_ascii_formatd (text, sizeof text, format, gtk_adjustment_get_value (gtk_spin_button_get_adjustment (spin)));
+  /* On the text itself: through the spin button, a '.' that is not the
+   * locale's decimal point empties the text (GTK 4.8). */
+  editable = gtk_editable_get_delegate (GTK_EDITABLE (spin));
+  if (g_strcmp0 (gtk_editable_get_text (editable), text) != 0)
+    gtk_editable_set_text (editable, text);
+  return TRUE;
+}
+
+static int
+on_spin_input (GtkSpinButton *spin, double *value, gpointer data)
+{
+  g_autofree char *text = g_strstrip (g_strdup (gtk_editable_get_text (GTK_EDITABLE (spin))));
+  char *end;
+
+  g_strdelimit (text, ",", '.');
+  *value = g_ascii_strtod (text, &end);
+  return *text != '\0' && *end == '\0' && isfinite (*value) ? TRUE : GTK_INPUT_ERROR;
+}
+
 /* The widgets carry NAME (gtk_widget_set_name), for tests to find them. */
 static GtkSpinButton *
 spin_row (SlFigureDialog *self, AdwPreferencesGroup *group, const char *title, const char *subtitle,
@@ -112,6 +143,8 @@ spin_row (SlFigureDialog *self, AdwPreferencesGroup *group, const char *title, c
   GtkWidget *row = action_row (group, title, subtitle);
   GtkWidget *spin = gtk_spin_button_new_with_range (min, max, step);
 
+  g_signal_connect (spin, "output", G_CALLBACK (on_spin_output), NULL);
+  g_signal_connect (spin, "input", G_CALLBACK (on_spin_input), NULL);
   gtk_spin_button_set_digits (GTK_SPIN_BUTTON (spin), digits);
   gtk_spin_button_set_value (GTK_SPIN_BUTTON (spin), value);
   gtk_widget_set_valign (spin, GTK_ALIGN_CENTER);
