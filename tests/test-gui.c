@@ -1428,6 +1428,15 @@ run_shown_command (SlFigureDialog *dialog, const char *output)
   g_assert_true (g_shell_parse_argv (sl_figure_dialog_get_command_line (dialog), NULL, &words, &error));
   g_assert_no_error (error);
   g_assert_cmpstr (words[0], ==, "starledger-cli");
+  /* The project in the home folder is written "~/...", which a shell
+   * expands and g_shell_parse_argv does not. */
+  if (words[1] && g_str_has_prefix (words[1], "~/"))
+    {
+      char *expanded = g_build_filename (g_get_home_dir (), words[1] + 2, NULL);
+
+      g_free (words[1]);
+      words[1] = expanded;
+    }
   for (guint i = 1; words[i]; i++)
     if (strcmp (words[i], "-o") == 0 && words[i + 1])
       {
@@ -2976,6 +2985,29 @@ test_matches_panel (void)
   }
 }
 
+/* The window's subtitle and the welcome page show a path under the home
+ * folder as "~/..."; a folder that only begins like the home folder's
+ * name, or any other path, is shown as it is. */
+static void
+test_path_for_display (void)
+{
+  const char *home = g_get_home_dir ();
+  g_autofree char *inside = g_build_filename (home, "Observing", "nearby.starledger", NULL);
+  g_autofree char *lookalike = g_strconcat (home, "-old", G_DIR_SEPARATOR_S, "nearby.starledger", NULL);
+  g_autofree char *shown_inside = NULL, *shown_lookalike = NULL, *shown_home = NULL, *shown_other = NULL;
+
+  if (strlen (home) <= 1)
+    {
+      g_test_skip ("the home folder is the root folder");
+      return;
+    }
+  g_assert_cmpstr ((shown_inside = sl_path_for_display (inside)), ==, "~/Observing/nearby.starledger");
+  g_assert_cmpstr ((shown_lookalike = sl_path_for_display (lookalike)), ==, lookalike);
+  g_assert_cmpstr ((shown_home = sl_path_for_display (home)), ==, "~");
+  g_assert_cmpstr ((shown_other = sl_path_for_display ("/srv/stars/run7.starledger")), ==,
+                   "/srv/stars/run7.starledger");
+}
+
 int
 main (int argc, char **argv)
 {
@@ -3046,6 +3078,7 @@ main (int argc, char **argv)
   g_test_add_func ("/gui/matches/panel", test_matches_panel);
   g_test_add_func ("/gui/catalogue/columns", test_catalogue_columns);
   g_test_add_func ("/gui/import/assistant-unit-warning", test_import_assistant_unit_warning);
+  g_test_add_func ("/gui/path-for-display", test_path_for_display);
   status = g_test_run ();
 
   if (demo)

@@ -528,6 +528,9 @@ cell_label (const char *text, const char *css_class)
   gtk_label_set_xalign (GTK_LABEL (label), 0.0);
   gtk_label_set_ellipsize (GTK_LABEL (label), PANGO_ELLIPSIZE_END);
   gtk_label_set_max_width_chars (GTK_LABEL (label), 24);
+  /* As wide as its text (up to 24 characters) at the least: a wide file
+   * scrolls sideways instead of cutting every cell to an ellipsis. */
+  gtk_label_set_width_chars (GTK_LABEL (label), MIN ((int) g_utf8_strlen (text, -1), 24));
   if (css_class)
     gtk_widget_add_css_class (label, css_class);
   return label;
