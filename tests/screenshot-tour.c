@@ -12,11 +12,9 @@
  * Matches page, the Derive dialog, the Trail, Set by Hand, the Ledger,
  * New List and the Lists page, Export Figure, and the window itself.
  * Every step goes through what a user's click would reach (the window's
- * actions, the dialogs' widgets); the two things a click cannot reach
- * under Xvfb are done as their handlers do them: the New Project file
- * chooser (sl_project_create, then open) and the third catalogue's
- * import with a match radius (the assistant has no such option;
- * sl_import_csv as `starledger-cli import --match-radius` runs it).
+ * actions, the dialogs' widgets); the one thing a click cannot reach
+ * under Xvfb, the New Project file chooser, is done as its response
+ * handler does it (sl_project_create, then open).
  *
  * Not a test: it stops with a message on the first thing that does not
  * happen.  It is built with the tests because it links the window's
@@ -28,7 +26,7 @@
 #include <stdlib.h>
 #include <string.h>
 
-#include "import.h"
+#include "project.h"
 #include "sl-application.h"
 #include "sl-derive-dialog.h"
 #include "sl-figure-dialog.h"
@@ -498,45 +496,31 @@ step_import_photometry (void)
   check_and_import (assistant, "import-columns.png", FALSE);
 }
 
-/* 5. The survey's second epoch, joined to the programme's stars by
- * position within 1 arcsec (as `starledger-cli import --match-radius 1`),
- * and the Matches page with its first ambiguous row chosen. */
+/* 5. The survey's second epoch, with its own ids: joined to the
+ * programme's stars by position within 1 arcsec; then the Matches page
+ * with its first ambiguous row chosen. */
 static void
-step_matches (const char *project_path)
+step_matches (void)
 {
-  static const char *const specs[] = {
-    "id=trs_id", "ra=ra_deg", "ra_err=ra_err_mas", "dec=dec_deg", "dec_err=dec_err_mas", NULL
+  static const struct {
+    guint       column;
+    const char *field;
+  } maps[] = {
+    { 0, "id" }, { 1, "ra" }, { 2, "ra_err" }, { 3, "dec" }, { 4, "dec_err" },
   };
-  g_autofree char *file = demo_file ("second-epoch.csv");
-  g_autoptr (GArray) maps = g_array_new (FALSE, FALSE, sizeof (SlColumnMap));
-  g_autoptr (SlImportReport) report = NULL;
-  g_autoptr (SlProject) project = NULL;
-  g_autoptr (GError) error = NULL;
-  SlImportOptions options;
+  SlImportDialog *assistant = open_assistant ("second-epoch.csv");
   SlMatchesPanel *panel = sl_matches_panel_of (window);
 
-  g_array_set_clear_func (maps, (GDestroyNotify) sl_column_map_clear);
-  for (guint i = 0; specs[i]; i++)
-    {
-      SlColumnMap map;
-
-      if (!sl_column_map_parse (specs[i], &map, &error))
-        die ("%s", error->message);
-      g_array_append_val (maps, map);
-    }
-  sl_import_options_init (&options);
-  options.maps = (const SlColumnMap *) maps->data;
-  options.n_maps = maps->len;
-  options.match_radius = 1.0;
-  options.source_name = "Tarn Ridge second epoch 2016";
-  project = sl_project_open (project_path, &error);
-  if (project == NULL || (report = sl_import_csv (project, file, &options, &error)) == NULL)
-    die ("the second epoch's import: %s", error->message);
-  g_clear_pointer (&project, sl_project_close);
-  sl_window_reload (window);
-  sl_matches_panel_reload (panel);
-  wait_idle ("the project to be read again");
+  for (guint i = 0; i < G_N_ELEMENTS (maps); i++)
+    choose (sl_import_dialog_get_field_chooser (assistant, maps[i].column), maps[i].field);
+  set_row_text (GTK_WIDGET (assistant), "Join rows to known stars by position", "1");
+  set_row_text (GTK_WIDGET (assistant), "Source name", "Tarn Ridge second epoch 2016");
+  if (sl_import_dialog_get_problem (assistant))
+    die ("the second epoch's mapping: %s", sl_import_dialog_get_problem (assistant));
+  check_and_import (assistant, NULL, FALSE);
   WAIT_FOR (!sl_matches_panel_is_loading (panel), "the Matches page");
+  if (sl_matches_panel_get_n_rows (panel) == 0)
+    die ("the second epoch joined no row by position");
   show_side_page (GTK_WIDGET (panel));
   side_notebook_room (300);
   sl_matches_panel_choose (panel, 0);
@@ -720,7 +704,7 @@ main (int argc, char **argv)
   step_new_project (project);
   step_import_astrometry ();
   step_import_photometry ();
-  step_matches (project);
+  step_matches ();
   step_derive ();
   step_trail ();
   step_override ();
