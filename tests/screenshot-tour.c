@@ -21,10 +21,8 @@
  * library as test-gui does. */
 #include <glib/gstdio.h>
 #include <locale.h>
-#include <math.h>
 #include <stdarg.h>
 #include <stdlib.h>
-#include <string.h>
 
 #include "project.h"
 #include "sl-application.h"
@@ -388,7 +386,13 @@ step_new_project (const char *path)
   g_autofree char *folder = g_path_get_dirname (path);
 
   g_mkdir_with_parents (folder, 0755);
-  g_unlink (path);
+  /* A tour run before in the same home left its project: start afresh. */
+  for (const char *const *suffix = (const char *const[]) { "", "-wal", "-shm", NULL }; *suffix; suffix++)
+    {
+      g_autofree char *file = g_strconcat (path, *suffix, NULL);
+
+      g_unlink (file);
+    }
   project = sl_project_create (path, &error);
   if (project == NULL)
     die ("cannot create %s: %s", path, error->message);
