@@ -1430,6 +1430,15 @@ run_shown_command (SlFigureDialog *dialog, const char *output)
   g_assert_true (g_shell_parse_argv (sl_figure_dialog_get_command_line (dialog), NULL, &words, &error));
   g_assert_no_error (error);
   g_assert_cmpstr (words[0], ==, "starledger-cli");
+  /* The project in the home folder is written "~/...", which a shell
+   * expands and g_shell_parse_argv does not. */
+  if (words[1] && g_str_has_prefix (words[1], "~/"))
+    {
+      char *expanded = g_build_filename (g_get_home_dir (), words[1] + 2, NULL);
+
+      g_free (words[1]);
+      words[1] = expanded;
+    }
   for (guint i = 1; words[i]; i++)
     if (strcmp (words[i], "-o") == 0 && words[i + 1])
       {
@@ -3118,6 +3127,109 @@ test_combine_dialog (void)
   }
 }
 
+/* A match radius in the import assistant joins a row whose id the project
+ * does not know to the star at its position, as starledger-cli import
+ * --match-radius does; a radius that is not a number of arcseconds in
+ * (0, 3600] holds Check and Import back and says why. */
+static void
+test_import_assistant_match_radius (void)
+{
+  g_autofree char *path = demo_path ();
+  g_autofree char *dir = sl_test_scratch_new ();
+  g_autofree char *file = NULL;
+  g_autofree char *csv = NULL;
+  char ra[G_ASCII_DTOSTR_BUF_SIZE], dec[G_ASCII_DTOSTR_BUF_SIZE], epoch[G_ASCII_DTOSTR_BUF_SIZE];
+  SlImportDialog *assistant;
+  GtkWidget *radius;
+  gint64 stars;
+
+  ENSURE_DEMO ();
+  WAIT_UNTIL (!sl_window_is_working (demo) && !sl_window_is_loading (demo), LOAD_TIMEOUT_S,
+              "earlier work to finish");
+  /* LHO 0004 as the programme measured it, 0.2 arcsec north. */
+  {
+    g_autoptr (GError) error = NULL;
+    g_autoptr (SlProject) project = sl_project_open (path, &error);
+    sqlite3_stmt *stmt;
+
+    g_assert_no_error (error);
+    g_assert_cmpint (sqlite3_prepare_v2 (sl_project_db (project),
+                                         "SELECT m.ra, m.dec, m.epoch FROM measurements m JOIN stars s ON s.id = m.star_id "
+                                         "JOIN sources o ON o.id = m.source_id "
+                                         "WHERE s.designation = 'LHO 0004' AND o.file_name = 'astrometry.csv'",
+                                         -1, &stmt, NULL), ==, SQLITE_OK);
+    g_assert_cmpint (sqlite3_step (stmt), ==, SQLITE_ROW);
+    g_ascii_dtostr (ra, sizeof ra, sqlite3_column_double (stmt, 0));
+    g_ascii_dtostr (dec, sizeof dec, sqlite3_column_double (stmt, 1) + 0.2 / 3600.0);
+    g_ascii_dtostr (epoch, sizeof epoch, sqlite3_column_double (stmt, 2));
+    sqlite3_finalize (stmt);
+  }
+  csv = g_strdup_printf ("id,ra,dec,epoch\nGUI M001,%s,%s,%s\n", ra, dec, epoch);
+  file = sl_test_write_file (dir, "gui-by-position.csv", csv, -1);
+  stars = count_in (path, "SELECT count(*) FROM stars");
+
+  assistant = sl_import_dialog_open (demo, file);
+  g_assert_nonnull (assistant);
+  g_assert_null (sl_import_dialog_get_problem (assistant));
+  radius = find_entry_row (GTK_WIDGET (assistant), "Join rows to known stars by position");
+  g_assert_nonnull (radius);
+  {
+    const char *const refused[] = { "0", "-1", "3601", "one", "1,5" };
+
+    for (guint i = 0; i < G_N_ELEMENTS (refused); i++)
+      {
+        gtk_editable_set_text (GTK_EDITABLE (radius), refused[i]);
+        g_assert_nonnull (sl_import_dialog_get_problem (assistant));
+        g_assert_true (g_str_has_prefix (sl_import_dialog_get_problem (assistant), "Match radius: "));
+        g_assert_nonnull (strstr (sl_import_dialog_get_problem (assistant), refused[i]));
+      }
+  }
+  gtk_editable_set_text (GTK_EDITABLE (radius), "1");
+  g_assert_null (sl_import_dialog_get_problem (assistant));
+
+  g_assert_true (gtk_widget_activate_action (GTK_WIDGET (assistant), "assistant.check", NULL));
+  WAIT_UNTIL (!sl_import_dialog_is_checking (assistant), LOAD_TIMEOUT_S, "the check");
+  g_test_message ("check: %s", sl_import_dialog_get_check_summary (assistant));
+  g_assert_nonnull (strstr (sl_import_dialog_get_check_summary (assistant),
+                            "0 new stars. Nothing was written.\nBy position: 1 row joined to a known star, "
+                            "0 ambiguous"));
+  g_assert_cmpint (count_in (path, "SELECT count(*) FROM matches WHERE row_designation = 'GUI M001'"), ==, 0);
+
+  g_assert_true (gtk_widget_activate_action (GTK_WIDGET (assistant), "assistant.import", NULL));
+  WAIT_UNTIL (!sl_window_is_working (demo) && !sl_window_is_loading (demo)
+              && count_in (path, "SELECT count(*) FROM matches WHERE row_designation = 'GUI M001'") == 1,
+              LOAD_TIMEOUT_S, "the import");
+  g_assert_cmpint (count_in (path, "SELECT count(*) FROM matches x JOIN measurements m ON m.id = x.measurement_id "
+                                   "JOIN stars s ON s.id = m.star_id WHERE x.row_designation = 'GUI M001' "
+                                   "AND x.status = 'matched' AND s.designation = 'LHO 0004' "
+                                   "AND x.radius_arcsec = 1 AND abs (x.separation_arcsec - 0.2) < 0.01"), ==, 1);
+  g_assert_cmpint (count_in (path, "SELECT count(*) FROM stars"), ==, stars);
+  sl_test_scratch_free (g_steal_pointer (&dir));
+}
+
+/* The window's subtitle and the welcome page show a path under the home
+ * folder as "~/..."; a folder that only begins like the home folder's
+ * name, or any other path, is shown as it is. */
+static void
+test_path_for_display (void)
+{
+  const char *home = g_get_home_dir ();
+  g_autofree char *inside = g_build_filename (home, "Observing", "nearby.starledger", NULL);
+  g_autofree char *lookalike = g_strconcat (home, "-old", G_DIR_SEPARATOR_S, "nearby.starledger", NULL);
+  g_autofree char *shown_inside = NULL, *shown_lookalike = NULL, *shown_home = NULL, *shown_other = NULL;
+
+  if (strlen (home) <= 1)
+    {
+      g_test_skip ("the home folder is the root folder");
+      return;
+    }
+  g_assert_cmpstr ((shown_inside = sl_path_for_display (inside)), ==, "~/Observing/nearby.starledger");
+  g_assert_cmpstr ((shown_lookalike = sl_path_for_display (lookalike)), ==, lookalike);
+  g_assert_cmpstr ((shown_home = sl_path_for_display (home)), ==, "~");
+  g_assert_cmpstr ((shown_other = sl_path_for_display ("/srv/stars/run7.starledger")), ==,
+                   "/srv/stars/run7.starledger");
+}
+
 int
 main (int argc, char **argv)
 {
@@ -3188,7 +3300,11 @@ main (int argc, char **argv)
   g_test_add_func ("/gui/matches/panel", test_matches_panel);
   g_test_add_func ("/gui/catalogue/columns", test_catalogue_columns);
   g_test_add_func ("/gui/import/assistant-unit-warning", test_import_assistant_unit_warning);
+  g_test_add_func ("/gui/path-for-display", test_path_for_display);
+  /* After /gui/matches/panel, which counts the demo's matches. */
+  g_test_add_func ("/gui/matches/import-assistant-radius", test_import_assistant_match_radius);
   g_test_add_func ("/gui/figure/decimal-point", test_figure_decimal_point);
+  /* Last: it changes how the demo derives. */
   g_test_add_func ("/gui/combine/dialog", test_combine_dialog);
   status = g_test_run ();
 

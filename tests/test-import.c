@@ -1,9 +1,12 @@
 /* test-import.c: CSV import: dialects, units, missing values, every
  * rejection reason, the one-transaction rule, the re-import guard,
  * provenance and locale independence, the dry run and the preview. */
+#include <glib/gstdio.h>
 #include <locale.h>
 #include <sqlite3.h>
 #include <string.h>
+#include <sys/stat.h>
+#include <unistd.h>
 
 #include "import.h"
 #include "sl-error.h"
@@ -719,6 +722,181 @@ test_preview_refusals (SlTestProject *f, gconstpointer data)
   g_assert_error (error, SL_ERROR, SL_ERROR_IO);
 }
 
+/* The preview reads the file's start, not the file: a 10 MB tail of rows
+ * that ends in a NUL byte (which the import refuses, having read it all)
+ * is never reached, and the rows it shows are the file's first ones. */
+static void
+test_preview_reads_a_prefix (SlTestProject *f, gconstpointer data)
+{
+  g_autoptr (GString) text = g_string_new ("# run 12\nid,parallax,vmag\n");
+  g_autofree char *path = NULL;
+  g_autoptr (SlImportPreview) preview = NULL;
+  g_autoptr (SlImportReport) report = NULL;
+  g_autoptr (GError) error = NULL;
+  SlImportOptions options;
+  guint i;
+
+  for (i = 0; text->len < 10u << 20; i++)
+    g_string_append_printf (text, "S%u,%u.25,%u.5\n", i, i % 97, 5 + i % 11);
+  g_string_append_c (text, '\0');
+  path = sl_test_write_file (f->dir, "long-run.csv", text->str, text->len);
+
+  sl_import_options_init (&options);
+  preview = sl_import_preview (path, &options, 20, &error);
+  g_assert_no_error (error);
+  g_assert_cmpuint (preview->header_line, ==, 2);
+  g_assert_cmpuint (preview->rows->len, ==, 20);
+  g_assert_true (preview->more_rows);
+  for (i = 0; i < 20; i++)
+    {
+      const SlPreviewRow *row = preview->rows->pdata[i];
+      g_autofree char *id = g_strdup_printf ("S%u", i);
+      g_autofree char *parallax = g_strdup_printf ("%u.25", i % 97);
+      g_autofree char *vmag = g_strdup_printf ("%u.5", 5 + i % 11);
+
+      g_assert_cmpuint (row->line, ==, i + 3);
+      g_assert_cmpuint (g_strv_length (row->cells), ==, 3);
+      g_assert_cmpstr (row->cells[0], ==, id);
+      g_assert_cmpstr (row->cells[1], ==, parallax);
+      g_assert_cmpstr (row->cells[2], ==, vmag);
+      g_assert_null (row->malformed);
+    }
+  g_assert_cmpuint (preview->bytes_read, >, 0);
+  g_assert_cmpuint (preview->bytes_read, <=, 256u << 10);
+
+  /* The import reads every byte, so it meets the NUL. */
+  report = sl_import_csv (f->project, path, &options, &error);
+  g_assert_null (report);
+  g_assert_error (error, SL_ERROR, SL_ERROR_BAD_INPUT);
+  g_assert_nonnull (strstr (error->message, "not a text file"));
+}
+
+/* A row longer than what the preview reads first is read to its end; the
+ * header may end on a CR whose LF the first read did not reach; a row over
+ * 1 MiB is refused with its line, as the import refuses it. */
+static void
+test_preview_long_rows (SlTestProject *f, gconstpointer data)
+{
+  g_autoptr (GString) text = g_string_new ("id,parallax,");
+  g_autoptr (GString) refused = NULL;
+  g_autofree char *long_note = NULL;
+  g_autofree char *path = NULL;
+  g_autofree char *refused_path = NULL;
+  g_autoptr (SlImportPreview) preview = NULL;
+  g_autoptr (GError) error = NULL;
+  SlImportOptions options;
+  const SlPreviewRow *row;
+
+  /* A header of 64 KiB less its CR and LF: the CR is the last byte of the
+   * first read (the reader would take a lone CR for an old Mac line end). */
+  while (text->len < (64u << 10) - 1)
+    g_string_append_c (text, 'x');
+  g_string_append (text, "\r\nA,1,\r\n");
+  long_note = g_strnfill (300u << 10, 'n');
+  g_string_append_printf (text, "B,2,\"%s\"\r\nC,3,short\r\n", long_note);
+  path = sl_test_write_file (f->dir, "long-rows.csv", text->str, text->len);
+
+  sl_import_options_init (&options);
+  preview = sl_import_preview (path, &options, 20, &error);
+  g_assert_no_error (error);
+  g_assert_cmpint (preview->delimiter, ==, ',');
+  g_assert_cmpuint (preview->columns->len, ==, 3);
+  g_assert_cmpuint (strlen (preview_column (preview, 2)->name), ==, (64u << 10) - 1 - 12);
+  g_assert_cmpuint (preview->rows->len, ==, 3);
+  g_assert_false (preview->more_rows);
+  row = preview->rows->pdata[1];
+  g_assert_cmpuint (row->line, ==, 3);
+  g_assert_cmpstr (row->cells[0], ==, "B");
+  g_assert_cmpstr (row->cells[2], ==, long_note);
+  row = preview->rows->pdata[2];
+  g_assert_cmpuint (row->line, ==, 4);
+  g_assert_cmpstr (row->cells[2], ==, "short");
+  g_assert_cmpuint (preview->bytes_read, ==, text->len);
+
+  refused = g_string_new ("id,parallax,sptype\nA,1,K0\nB,2,G2\nC,3,");
+  while (refused->len < (3u << 20))
+    g_string_append_c (refused, 'M');
+  g_string_append (refused, "\nD,4,F5\n");
+  refused_path = sl_test_write_file (f->dir, "long-line.csv", refused->str, refused->len);
+  g_assert_null (sl_import_preview (refused_path, &options, 20, &error));
+  g_assert_error (error, SL_ERROR, SL_ERROR_BAD_INPUT);
+  g_assert_cmpstr (error->message, ==,
+                   "long-line.csv:4: line longer than 1 MiB; not a table of measurements");
+}
+
+/* A file cut in the middle of its last line (another program stopped
+ * writing it there) shows that line as far as it goes. */
+static void
+test_preview_partial_last_line (SlTestProject *f, gconstpointer data)
+{
+  g_autofree char *cut = sl_test_write_file (f->dir, "cut.csv",
+                                             "id,parallax,vmag\nA,1,9.5\nB,2.", -1);
+  g_autofree char *cut_quote = sl_test_write_file (f->dir, "cut-quote.csv",
+                                                   "id,sptype\nA,K0\nB,\"G2 V", -1);
+  g_autoptr (SlImportPreview) preview = NULL;
+  g_autoptr (SlImportPreview) quoted = NULL;
+  g_autoptr (GError) error = NULL;
+  SlImportOptions options;
+  const SlPreviewRow *row;
+
+  sl_import_options_init (&options);
+  preview = sl_import_preview (cut, &options, 20, &error);
+  g_assert_no_error (error);
+  g_assert_cmpuint (preview->rows->len, ==, 2);
+  g_assert_false (preview->more_rows);
+  row = preview->rows->pdata[1];
+  g_assert_cmpuint (row->line, ==, 3);
+  g_assert_cmpuint (g_strv_length (row->cells), ==, 2);
+  g_assert_cmpstr (row->cells[0], ==, "B");
+  g_assert_cmpstr (row->cells[1], ==, "2.");
+  g_assert_null (row->malformed);
+
+  quoted = sl_import_preview (cut_quote, &options, 20, &error);
+  g_assert_no_error (error);
+  g_assert_cmpuint (quoted->rows->len, ==, 2);
+  row = quoted->rows->pdata[1];
+  g_assert_cmpuint (row->line, ==, 3);
+  g_assert_cmpstr (row->malformed, ==, "a quoted field is never closed");
+}
+
+/* A named pipe, a folder or a file the user may not read has no preview,
+ * and the preview says so at once (opening a pipe must not wait for a
+ * writer that never comes). */
+static void
+test_preview_not_a_file (SlTestProject *f, gconstpointer data)
+{
+  g_autofree char *fifo = g_build_filename (f->dir, "pipe.csv", NULL);
+  g_autofree char *folder = g_build_filename (f->dir, "folder.csv", NULL);
+  g_autofree char *locked = sl_test_write_file (f->dir, "locked.csv", "id\nA\n", -1);
+  g_autoptr (GError) error = NULL;
+  SlImportOptions options;
+
+  sl_import_options_init (&options);
+  g_assert_cmpint (mkfifo (fifo, 0600), ==, 0);
+  g_assert_null (sl_import_preview (fifo, &options, 20, &error));
+  g_assert_error (error, SL_ERROR, SL_ERROR_IO);
+  g_assert_true (g_str_has_prefix (error->message, fifo));
+  g_assert_nonnull (strstr (error->message, "not a regular file"));
+  g_clear_error (&error);
+
+  g_assert_cmpint (g_mkdir (folder, 0700), ==, 0);
+  g_assert_null (sl_import_preview (folder, &options, 20, &error));
+  g_assert_error (error, SL_ERROR, SL_ERROR_IO);
+  g_assert_nonnull (strstr (error->message, "not a regular file"));
+  g_clear_error (&error);
+
+  g_assert_cmpint (g_chmod (locked, 0), ==, 0);
+  if (access (locked, R_OK) == 0)
+    {
+      /* Root reads it anyway; the test of the message needs another user. */
+      g_test_message ("running as root: locked.csv is readable; its message is not checked");
+      return;
+    }
+  g_assert_null (sl_import_preview (locked, &options, 20, &error));
+  g_assert_error (error, SL_ERROR, SL_ERROR_IO);
+  g_assert_nonnull (strstr (error->message, "locked.csv: cannot read: "));
+}
+
 /* ---------------------------------------------------------------- locale */
 
 /* A German locale writes 12,5; the file says 12.5 and must still be read
@@ -784,6 +962,10 @@ main (int argc, char **argv)
   ADD ("/import/mapping/explicit-only", test_explicit_only);
   ADD ("/import/preview/mapping-and-rows", test_preview);
   ADD ("/import/preview/refusals", test_preview_refusals);
+  ADD ("/import/preview/reads-a-prefix", test_preview_reads_a_prefix);
+  ADD ("/import/preview/long-rows", test_preview_long_rows);
+  ADD ("/import/preview/partial-last-line", test_preview_partial_last_line);
+  ADD ("/import/preview/not-a-file", test_preview_not_a_file);
 #undef ADD
 
   return g_test_run ();

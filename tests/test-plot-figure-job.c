@@ -381,10 +381,25 @@ test_command_line (void)
   g_autofree char *full = NULL;
   g_autofree char *custom = NULL;
   g_autofree char *sky = NULL;
+  g_autofree char *home = NULL;
+  g_autofree char *home_spaced = NULL;
+  g_autofree char *tilde_list = NULL;
 
   sl_figure_job_init (&job, SL_FIGURE_KIND_HR);
   plain = sl_figure_job_command_line (&job, "/data/p.starledger", "hr.pdf");
   g_assert_cmpstr (plain, ==, "starledger-cli figure /data/p.starledger hr -o hr.pdf");
+
+  /* A project in the home folder, as the window shows it: the shell
+   * expands the "~/", so it stays outside the quotes. */
+  home = sl_figure_job_command_line (&job, "~/Observing/p.starledger", "hr.pdf");
+  g_assert_cmpstr (home, ==, "starledger-cli figure ~/Observing/p.starledger hr -o hr.pdf");
+  home_spaced = sl_figure_job_command_line (&job, "~/My Stars/p.starledger", "hr.pdf");
+  g_assert_cmpstr (home_spaced, ==, "starledger-cli figure ~/'My Stars/p.starledger' hr -o hr.pdf");
+  /* Anything else that begins with "~" is quoted: it is a name, not a home. */
+  sl_figure_job_set_list (&job, "~/list");
+  tilde_list = sl_figure_job_command_line (&job, "p.starledger", "hr.pdf");
+  g_assert_cmpstr (tilde_list, ==, "starledger-cli figure p.starledger hr -o hr.pdf --list '~/list'");
+  sl_figure_job_set_list (&job, NULL);
 
   sl_figure_style_preset (&job.style, "double");
   job.style.dpi = 600;

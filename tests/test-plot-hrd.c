@@ -472,6 +472,14 @@ test_empty (void)
   g_assert_true (r.ok);
   g_assert_true (has_note (&r, "No star has a derived temperature and luminosity yet"));
   render_clear (&r);
+
+  /* The window says it in its own words. */
+  o.empty_message = "Nothing derived yet: Derive… derives it.";
+  render (&r, set, &o);
+  g_assert_true (r.ok);
+  g_assert_true (has_note (&r, "Nothing derived yet: Derive… derives it."));
+  g_assert_false (has_note (&r, "No star has a derived temperature"));
+  render_clear (&r);
 }
 
 static void

@@ -19,6 +19,7 @@
 #include <string.h>
 
 #include "lists.h"
+#include "sl-recent-projects.h"
 
 #define MM_PER_INCH 25.4
 #define PT_PER_INCH 72.0
@@ -274,13 +275,17 @@ static void
 update_command_line (SlFigureDialog *self)
 {
   g_autofree char *fallback = default_output (self);
+  g_autofree char *shown = NULL;
   g_autofree char *line = NULL;
   SlFigureFormat named;
 
   /* The file name last chosen, while it still fits the format. */
   if (self->output_name && (!sl_figure_format_from_path (self->output_name, &named) || named != self->format))
     g_clear_pointer (&self->output_name, g_free);
-  line = sl_figure_job_command_line (&self->job, self->project, self->output_name ? self->output_name : fallback);
+  /* The project as the window's title shows it (~/... in the home folder),
+   * which a shell reads back as the same file. */
+  shown = sl_path_for_display (self->project);
+  line = sl_figure_job_command_line (&self->job, shown, self->output_name ? self->output_name : fallback);
   gtk_label_set_text (self->command, line);
 }
 

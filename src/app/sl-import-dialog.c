@@ -2,7 +2,8 @@
  *
  * Contents:
  *   the user's choices ..... ImportChoices: delimiter, one map per column,
- *                            missing tokens, epoch, source name -> SlImportOptions
+ *                            missing tokens, epoch, match radius, source name
+ *                            -> SlImportOptions
  *   the preview ............ refresh_preview (sl_import_preview), the rows table
  *   the columns ............ a field and a unit chooser per header column
  *   the check .............. a dry run (sl_import_csv, options.dry_run) in a GTask
@@ -54,6 +55,7 @@ struct _SlImportDialog {
   AdwWindowTitle  *title;
   AdwComboRow     *delimiter_row;
   AdwEntryRow     *missing_row, *epoch_row, *source_row;
+  AdwEntryRow     *radius_row;      /* join rows to stars by position within, arcsec */
   AdwPreferencesGroup *rows_group, *columns_group;
   GtkScrolledWindow *rows_scroller;
   GtkGrid         *rows_grid;
@@ -85,6 +87,7 @@ typedef struct {
   GArray *maps;          /* SlColumnMap */
   GStrv   missing;
   double  epoch;         /* NAN: none */
+  double  match_radius;  /* arcsec: join rows to stars by position; 0: by id only */
   char   *source_name;   /* NULL: the file's name */
 } ImportChoices;
 
@@ -111,6 +114,7 @@ import_choices_fill_options (const ImportChoices *choices, SlImportOptions *opti
   options->explicit_only = TRUE;
   options->missing = (const char *const *) choices->missing;
   options->epoch = choices->epoch;
+  options->match_radius = choices->match_radius;
   options->source_name = choices->source_name;
 }
 
@@ -134,6 +138,29 @@ read_epoch (SlImportDialog *self, double *epoch, char **problem)
     {
       *problem = g_strdup_printf (_("Epoch: %s"), range);
       g_free (range);
+      return FALSE;
+    }
+  return TRUE;
+}
+
+/* The match radius entry: empty is none (rows join stars by id only);
+ * otherwise arcseconds, as starledger-cli import --match-radius takes
+ * them, or *PROBLEM. */
+static gboolean
+read_match_radius (SlImportDialog *self, double *radius, char **problem)
+{
+  g_autofree char *text = g_strstrip (g_strdup (gtk_editable_get_text (GTK_EDITABLE (self->radius_row))));
+  const char *reason = NULL;
+
+  *radius = 0.0;
+  if (*text == '\0')
+    return TRUE;
+  /* Up to a degree, as the command line: beyond it "the same star" means little. */
+  if (!sl_parse_number (text, radius, &reason) || !(*radius > 0.0) || *radius > 3600.0)
+    {
+      *problem = g_strdup_printf (_("Match radius: expected a number of arcseconds above 0 and at most "
+                                    "3600, not “%s”"), text);
+      *radius = 0.0;
       return FALSE;
     }
   return TRUE;
@@ -174,7 +201,8 @@ current_choices (SlImportDialog *self, gboolean maps_only, char **problem)
       g_strv_builder_add (missing, tokens[i]);
   choices->missing = g_strv_builder_end (missing);
   choices->source_name = *source ? g_strdup (source) : NULL;
-  if (!read_epoch (self, &choices->epoch, problem))
+  if (!read_epoch (self, &choices->epoch, problem)
+      || !read_match_radius (self, &choices->match_radius, problem))
     {
       import_choices_free (choices);
       return NULL;
@@ -298,6 +326,18 @@ report_summary (const SlImportReport *report)
                                              report->rows_read),
                           n_read, n_accepted, report->rejections->len, new_stars);
   g_string_append (text, _(" Nothing was written."));
+  if (report->matched > 0 || report->ambiguous->len > 0)
+    {
+      g_autofree char *n_matched = g_strdup_printf ("%" PRIu64, report->matched);
+
+      g_string_append_printf (text, g_dngettext (GETTEXT_PACKAGE,
+                                                 "\nBy position: %s row joined to a known star, %u ambiguous "
+                                                 "(kept as stars of their own; the Matches page lists them).",
+                                                 "\nBy position: %s rows joined to known stars, %u ambiguous "
+                                                 "(kept as stars of their own; the Matches page lists them).",
+                                                 report->matched),
+                              n_matched, report->ambiguous->len);
+    }
   if (report->ignored_columns->len > 0)
     {
       g_autofree char *names = NULL;
@@ -528,6 +568,9 @@ cell_label (const char *text, const char *css_class)
   gtk_label_set_xalign (GTK_LABEL (label), 0.0);
   gtk_label_set_ellipsize (GTK_LABEL (label), PANGO_ELLIPSIZE_END);
   gtk_label_set_max_width_chars (GTK_LABEL (label), 24);
+  /* As wide as its text (up to 24 characters) at the least: a wide file
+   * scrolls sideways instead of cutting every cell to an ellipsis. */
+  gtk_label_set_width_chars (GTK_LABEL (label), MIN ((int) g_utf8_strlen (text, -1), 24));
   if (css_class)
     gtk_widget_add_css_class (label, css_class);
   return label;
@@ -777,7 +820,7 @@ static char *
 find_problem (SlImportDialog *self)
 {
   gboolean has_id = FALSE;
-  double epoch;
+  double epoch, radius;
   char *problem = NULL;
 
   for (guint i = 0; i < self->choices->len; i++)
@@ -796,7 +839,7 @@ find_problem (SlImportDialog *self)
     return g_strdup (_("No column is the id: set the column that holds each star's designation to 'id'."));
   if (self->preview->mapping_problem)
     return g_strdup (self->preview->mapping_problem);
-  if (!read_epoch (self, &epoch, &problem))
+  if (!read_epoch (self, &epoch, &problem) || !read_match_radius (self, &radius, &problem))
     return problem;
   return NULL;
 }
@@ -1007,6 +1050,8 @@ sl_import_dialog_init (SlImportDialog *self)
   adw_preferences_group_add (ADW_PREFERENCES_GROUP (group), GTK_WIDGET (self->missing_row));
   self->epoch_row = ADW_ENTRY_ROW (entry_row_new (self, _("Epoch of rows without an epoch column (Julian year; empty: none)")));
   adw_preferences_group_add (ADW_PREFERENCES_GROUP (group), GTK_WIDGET (self->epoch_row));
+  self->radius_row = ADW_ENTRY_ROW (entry_row_new (self, _("Join rows to known stars by position within (arcsec; empty: by id only)")));
+  adw_preferences_group_add (ADW_PREFERENCES_GROUP (group), GTK_WIDGET (self->radius_row));
   self->source_row = ADW_ENTRY_ROW (entry_row_new (self, _("Source name")));
   adw_preferences_group_add (ADW_PREFERENCES_GROUP (group), GTK_WIDGET (self->source_row));
   gtk_box_append (GTK_BOX (box), group);

@@ -1,7 +1,8 @@
 /* sl-import-dialog.h: the import assistant: a CSV file's first rows, its
  * delimiter, the column mapping with a unit per column, the missing-value
- * tokens, the epoch and source name, and a dry run's counts and rejected
- * rows, all before anything is written; Import then runs the import with
+ * tokens, the epoch, the radius for joining rows to stars by position and
+ * the source name, and a dry run's counts and rejected rows, all before
+ * anything is written; Import then runs the import with
  * exactly those choices as the window's long work. */
 #pragma once
 

@@ -196,6 +196,7 @@ draw_picture (Drawing *d)
 
         sl_hrd_options_init (&options);
         options.highlight = (const char *const *) d->selection;
+        options.empty_message = d->empty_message;
         sl_hrd_draw (&fig, d->stars, &options, NULL, NULL, NULL);
         break;
       }
@@ -232,7 +233,10 @@ drawing_new (SlPlotView *self, const PictureKey *key)
   d->stars = drawn ? sl_star_set_ref (drawn) : NULL;
   d->selection = g_strdupv (self->selection);
   d->key = *key;
-  d->empty_message = g_strdup (_("Select stars in the table or a view to see their parallax paths."));
+  /* What to do next, in the window's words rather than the command line's. */
+  d->empty_message = g_strdup (self->kind == SL_PLOT_KIND_HRD
+                                 ? _("No star has a derived temperature and luminosity yet: Derive… (Ctrl+D) derives them.")
+                                 : _("Select stars in the table or a view to see their parallax paths."));
   return d;
 }
 

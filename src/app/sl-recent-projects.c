@@ -144,17 +144,25 @@ when_text (GDateTime *when)
   return g_date_time_format (local, _("%-d %B %Y"));
 }
 
+char *
+sl_path_for_display (const char *path)
+{
+  const char *home = g_get_home_dir ();
+  gsize n = strlen (home);
+
+  g_return_val_if_fail (path != NULL, NULL);
+  if (n > 1 && g_str_has_prefix (path, home) && (path[n] == '\0' || path[n] == G_DIR_SEPARATOR))
+    return g_strconcat ("~", path + n, NULL);
+  return g_strdup (path);
+}
+
 /* The folder, with the home folder as "~" to keep it short. */
 static char *
 folder_text (const char *path)
 {
   g_autofree char *folder = g_path_get_dirname (path);
-  const char *home = g_get_home_dir ();
-  gsize n = strlen (home);
 
-  if (n > 1 && g_str_has_prefix (folder, home) && (folder[n] == '\0' || folder[n] == G_DIR_SEPARATOR))
-    return g_strconcat ("~", folder + n, NULL);
-  return g_steal_pointer (&folder);
+  return sl_path_for_display (folder);
 }
 
 static void

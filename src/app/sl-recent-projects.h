@@ -16,6 +16,10 @@ void       sl_recent_projects_add (const char *path);
  * project (it has its own button).  Free with g_strfreev. */
 GStrv      sl_recent_projects_paths (guint max);
 
+/* PATH as the window shows it: under the home folder as "~/...", to keep
+ * it short; any other path as it is.  Not for a command line. */
+char      *sl_path_for_display (const char *path);
+
 #define SL_TYPE_RECENT_PROJECTS (sl_recent_projects_get_type ())
 G_DECLARE_FINAL_TYPE (SlRecentProjects, sl_recent_projects, SL, RECENT_PROJECTS, AdwBin)
 

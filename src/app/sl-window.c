@@ -379,7 +379,11 @@ sl_window_open_project (SlWindow *self, const char *path, GError **error)
   self->path = g_strdup (path);
   name = g_path_get_basename (path);
   adw_window_title_set_title (self->window_title, name);
-  adw_window_title_set_subtitle (self->window_title, path);
+  {
+    g_autofree char *shown = sl_path_for_display (path);
+
+    adw_window_title_set_subtitle (self->window_title, shown);
+  }
   gtk_stack_set_visible_child_name (self->stack, "project");
   g_clear_pointer (&self->trail_star, g_free);
   g_clear_pointer (&self->trail_quantity, g_free);
@@ -1302,14 +1306,12 @@ sl_window_show_list (SlWindow *self, const char *name)
   if (self->path == NULL)
     return;
   /* Whichever tab is in front, the title says that not every star is shown. */
-  if (name)
-    {
-      g_autofree char *subtitle = g_strdup_printf (_("only list “%s” · %s"), name, self->path);
+  {
+    g_autofree char *shown = sl_path_for_display (self->path);
+    g_autofree char *subtitle = name ? g_strdup_printf (_("only list “%s” · %s"), name, shown) : NULL;
 
-      adw_window_title_set_subtitle (self->window_title, subtitle);
-    }
-  else
-    adw_window_title_set_subtitle (self->window_title, self->path);
+    adw_window_title_set_subtitle (self->window_title, subtitle ? subtitle : shown);
+  }
   sl_catalogue_view_set_list (self->catalogue, name);
   load_stars (self);
   sl_lists_panel_reload (self->lists);

@@ -1325,66 +1325,122 @@ preview_mapping (SlImportPreview *preview, const SlCsvRecord *header,
     }
 }
 
-SlImportPreview *
-sl_import_preview (const char *path, const SlImportOptions *options, guint max_rows,
-                   GError **error)
+/* How much of the file the preview reads first; it reads more (twice as
+ * much each time) only while the header and the rows it wants are not
+ * all complete in what it has. */
+#define PREVIEW_FIRST_READ ((gsize) 64 << 10)
+
+/* What one parse of the file's start came to. */
+typedef enum {
+  PREVIEW_DONE,       /* the preview is complete */
+  PREVIEW_NEED_MORE,  /* a record it needs runs past the bytes read so far */
+  PREVIEW_FAILED      /* the file cannot be previewed; error set */
+} PreviewStep;
+
+static SlImportPreview *
+preview_new (const char *path)
 {
-  g_autoptr (SlImportPreview) preview = NULL;
-  g_autoptr (GMappedFile) mapped = NULL;
-  g_autoptr (SlCsvReader) reader = NULL;
-  g_autoptr (GError) local_error = NULL;
-  g_auto (GStrv) names = NULL;
-  SlCsvRecord header, record;
-  gsize length;
+  SlImportPreview *preview = g_new0 (SlImportPreview, 1);
 
-  g_return_val_if_fail (path != NULL && options != NULL, NULL);
-
-  preview = g_new0 (SlImportPreview, 1);
   preview->file_name = g_path_get_basename (path);
   preview->columns = g_array_new (FALSE, FALSE, sizeof (SlPreviewColumn));
   g_array_set_clear_func (preview->columns, preview_column_clear);
   preview->rows = g_ptr_array_new_with_free_func (preview_row_free);
+  return preview;
+}
 
-  mapped = g_mapped_file_new (path, FALSE, &local_error);
-  if (mapped == NULL)
+/* The bytes of the file's start read so far. */
+typedef struct {
+  char     *data;
+  gsize     length;
+  gboolean  at_end;   /* DATA is the whole file */
+} PreviewBuffer;
+
+/* Reads from FD until BUFFER holds WANT bytes or the file ends.  Ordinary
+ * reads, never a mapping: a mapped file that another program truncates
+ * ends the process with SIGBUS. */
+static gboolean
+preview_read_more (int fd, PreviewBuffer *buffer, gsize want, const char *path, GError **error)
+{
+  buffer->data = g_realloc (buffer->data, want);
+  while (buffer->length < want && !buffer->at_end)
     {
-      g_set_error (error, SL_ERROR, SL_ERROR_IO, _("%s: cannot read: %s"), path,
-                   local_error->message);
-      return NULL;
+      ssize_t n = read (fd, buffer->data + buffer->length, want - buffer->length);
+
+      if (n < 0 && errno == EINTR)
+        continue;
+      if (n < 0)
+        {
+          int saved_errno = errno;
+
+          g_set_error (error, SL_ERROR, SL_ERROR_IO, _("%s: cannot read: %s"), path,
+                       g_strerror (saved_errno));
+          return FALSE;
+        }
+      buffer->length += (gsize) n;
+      buffer->at_end = n == 0;
     }
-  length = g_mapped_file_get_length (mapped);
-  if (length == 0)
+  return TRUE;
+}
+
+static void
+set_too_long_error (const char *file_name, guint line, GError **error)
+{
+  g_set_error (error, SL_ERROR, SL_ERROR_BAD_INPUT,
+               _("%s:%u: line longer than %d MiB; not a table of measurements"),
+               file_name, line, SL_CSV_MAX_RECORD_MIB);
+}
+
+/* Fills PREVIEW from the file's first LENGTH bytes, DATA; AT_END: they are
+ * the whole file.  A record is taken only when it ends before the bytes
+ * read do (its line end is followed by something), or at the file's end;
+ * otherwise the caller reads more and starts again on a fresh preview. */
+static PreviewStep
+preview_parse (SlImportPreview *preview, const char *data, gsize length, gboolean at_end,
+               const SlImportOptions *options, guint max_rows, GError **error)
+{
+  g_autoptr (SlCsvReader) reader = NULL;
+  g_auto (GStrv) names = NULL;
+  SlCsvRecord header, record;
+
+  if (length == 0 && at_end)
     {
       g_set_error (error, SL_ERROR, SL_ERROR_BAD_INPUT, _("%s: the file is empty"),
                    preview->file_name);
-      return NULL;
+      return PREVIEW_FAILED;
     }
-  reader = sl_csv_reader_new (g_mapped_file_get_contents (mapped), length, options->delimiter,
-                              preview->file_name, error);
+  /* No LF yet: the header is not complete (unless it is already too long,
+   * which the reader says), and a CRLF cut after its CR must not look like
+   * an old Mac line end to the reader. */
+  if (!at_end && memchr (data, '\n', length) == NULL && length <= SL_CSV_MAX_RECORD_BYTES)
+    return PREVIEW_NEED_MORE;
+  reader = sl_csv_reader_new (data, length, options->delimiter, preview->file_name, error);
   if (reader == NULL)
-    return NULL;
+    return PREVIEW_FAILED;
   preview->delimiter = sl_csv_reader_get_delimiter (reader);
   preview->delimiter_given = options->delimiter != 0;
 
   if (!sl_csv_reader_next (reader, &header))
     {
+      if (!at_end)
+        return PREVIEW_NEED_MORE;
       g_set_error (error, SL_ERROR, SL_ERROR_BAD_INPUT,
                    _("%s: no header row (the file holds only comments or blank lines)"),
                    preview->file_name);
-      return NULL;
+      return PREVIEW_FAILED;
     }
   if (header.too_long)
     {
-      g_set_error (error, SL_ERROR, SL_ERROR_BAD_INPUT,
-                   _("%s:%u: line longer than %d MiB; not a table of measurements"),
-                   preview->file_name, header.line, SL_CSV_MAX_RECORD_MIB);
-      return NULL;
+      set_too_long_error (preview->file_name, header.line, error);
+      return PREVIEW_FAILED;
     }
+  if (!at_end && sl_csv_reader_get_offset (reader) >= length)
+    return PREVIEW_NEED_MORE;
   if (header.malformed)
     {
       g_set_error (error, SL_ERROR, SL_ERROR_BAD_INPUT, _("%s:%u: the header row: %s"),
                    preview->file_name, header.line, _(header.malformed));
-      return NULL;
+      return PREVIEW_FAILED;
     }
   preview->header_line = header.line;
   /* As the import does: a stripped copy outlives the reader's buffer. */
@@ -1398,18 +1454,19 @@ sl_import_preview (const char *path, const SlImportOptions *options, guint max_r
     {
       SlPreviewRow *row;
 
+      /* Any record after the ones wanted, complete or not, is more. */
       if (preview->rows->len == max_rows)
         {
           preview->more_rows = TRUE;
-          break;
+          return PREVIEW_DONE;
         }
       if (record.too_long)
         {
-          g_set_error (error, SL_ERROR, SL_ERROR_BAD_INPUT,
-                       _("%s:%u: line longer than %d MiB; not a table of measurements"),
-                       preview->file_name, record.line, SL_CSV_MAX_RECORD_MIB);
-          return NULL;
+          set_too_long_error (preview->file_name, record.line, error);
+          return PREVIEW_FAILED;
         }
+      if (!at_end && sl_csv_reader_get_offset (reader) >= length)
+        return PREVIEW_NEED_MORE;
       row = g_new0 (SlPreviewRow, 1);
       row->line = record.line;
       row->cells = g_new0 (char *, record.n_fields + 1);
@@ -1418,5 +1475,60 @@ sl_import_preview (const char *path, const SlImportOptions *options, guint max_r
       row->malformed = record.malformed ? g_strdup (_(record.malformed)) : NULL;
       g_ptr_array_add (preview->rows, row);
     }
-  return g_steal_pointer (&preview);
+  return at_end ? PREVIEW_DONE : PREVIEW_NEED_MORE;
+}
+
+SlImportPreview *
+sl_import_preview (const char *path, const SlImportOptions *options, guint max_rows,
+                   GError **error)
+{
+  PreviewBuffer buffer = { NULL, 0, FALSE };
+  gsize want = PREVIEW_FIRST_READ;
+  struct stat st;
+  int fd;
+
+  g_return_val_if_fail (path != NULL && options != NULL, NULL);
+
+  /* Not blocking: opening a named pipe would otherwise wait for a writer. */
+  fd = g_open (path, O_RDONLY | O_CLOEXEC | O_NONBLOCK, 0);
+  if (fd < 0)
+    {
+      int saved_errno = errno;
+
+      g_set_error (error, SL_ERROR, SL_ERROR_IO, _("%s: cannot read: %s"), path,
+                   g_strerror (saved_errno));
+      return NULL;
+    }
+  if (fstat (fd, &st) != 0 || !S_ISREG (st.st_mode))
+    {
+      g_set_error (error, SL_ERROR, SL_ERROR_IO,
+                   _("%s: not a regular file (a folder, a pipe or a device); "
+                     "save the table as a file and import that"), path);
+      close (fd);
+      return NULL;
+    }
+
+  for (;;)
+    {
+      g_autoptr (SlImportPreview) preview = preview_new (path);
+      PreviewStep step;
+
+      if (!preview_read_more (fd, &buffer, want, path, error))
+        break;
+      step = preview_parse (preview, buffer.data, buffer.length, buffer.at_end, options,
+                            max_rows, error);
+      if (step == PREVIEW_FAILED)
+        break;
+      if (step == PREVIEW_DONE)
+        {
+          preview->bytes_read = buffer.length;
+          g_free (buffer.data);
+          close (fd);
+          return g_steal_pointer (&preview);
+        }
+      want *= 2;
+    }
+  g_free (buffer.data);
+  close (fd);
+  return NULL;
 }

@@ -112,13 +112,16 @@ typedef struct {
   gboolean   more_rows;        /* the file holds more records than ROWS */
   char      *mapping_problem;  /* why the import would stop before reading a row
                                 * (no id column, a map naming no column, ...); NULL: none */
+  gsize      bytes_read;       /* how much of the file's start was read for this */
 } SlImportPreview;
 
 /* The delimiter, header, first MAX_ROWS records and column mapping of the
- * CSV file at PATH under OPTIONS (delimiter, maps, explicit_only).  Fails
- * only when the file cannot be read as CSV at all (unreadable, empty,
- * binary, no header); a mapping that would stop the import is
- * mapping_problem. */
+ * CSV file at PATH under OPTIONS (delimiter, maps, explicit_only).  Reads
+ * only the file's start, enough for those records (a record longer than
+ * SL_CSV_MAX_RECORD_BYTES is refused, as the import refuses it).  Fails
+ * only when the file cannot be read as CSV at all (unreadable, not a
+ * regular file, empty, binary, no header); a mapping that would stop the
+ * import is mapping_problem. */
 SlImportPreview *sl_import_preview (const char *path, const SlImportOptions *options,
                                     guint max_rows, GError **error);
 void             sl_import_preview_free (SlImportPreview *preview);

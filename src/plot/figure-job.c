@@ -278,6 +278,23 @@ append_arg (GString *line, const char *arg)
     }
 }
 
+/* PATH as append_arg writes it, except that a leading "~/" (the user's
+ * home folder, as the window shows it) stays outside the quotes, where
+ * the shell expands it. */
+static void
+append_path (GString *line, const char *path)
+{
+  if (g_str_has_prefix (path, "~/") && path[2] != '\0')
+    {
+      gsize at = line->len;
+
+      append_arg (line, path + 2);
+      g_string_insert (line, at + 1, "~/");
+    }
+  else
+    append_arg (line, path);
+}
+
 static void
 append_number (GString *line, const char *option, double value)
 {
@@ -307,7 +324,7 @@ sl_figure_job_command_line (const SlFigureJob *job, const char *project_path, co
   sl_parallax_options_init (&parallax);
   sl_figure_format_from_path (output, &format);
 
-  append_arg (line, project_path);
+  append_path (line, project_path);
   append_arg (line, sl_figure_kind_name (job->kind));
   append_arg (line, "-o");
   append_arg (line, output);

@@ -80,7 +80,9 @@ gboolean sl_figure_job_run (const SlFigureJob *job, SlProject *project, const ch
 
 /* The command line that writes the same figure: "starledger-cli figure
  * PROJECT KIND -o OUTPUT" and the options that differ from the defaults,
- * each argument quoted for a POSIX shell where it needs it. */
+ * each argument quoted for a POSIX shell where it needs it.  A
+ * PROJECT_PATH that begins with "~/" is written for the shell to expand
+ * (~/'My Stars/p.starledger'). */
 char *sl_figure_job_command_line (const SlFigureJob *job, const char *project_path, const char *output);
 
 G_END_DECLS

@@ -876,7 +876,8 @@ sl_hrd_draw (SlFigure *fig, const SlStarSet *stars, const SlHrdOptions *options,
 
   if (n == 0)
     {
-      const char *message = theoretical
+      const char *message = options->empty_message ? options->empty_message
+                            : theoretical
                               ? _("No star has a derived temperature and luminosity yet: run 'starledger-cli derive'.")
                               : _("No star has a derived colour and absolute magnitude yet: run 'starledger-cli derive'.");
 

@@ -28,6 +28,8 @@ typedef struct {
   gboolean           class_ticks;   /* spectral classes along the top */
   const char *const *highlight;     /* designations to mark and label, NULL-terminated */
   double             view[4];       /* x0, x1, y0, y1 in data units; NAN: fit the stars */
+  const char        *empty_message; /* shown when no star has the plotted values; NULL: how to
+                                     * derive them on the command line */
 } SlHrdOptions;
 
 void     sl_hrd_options_init (SlHrdOptions *options);
