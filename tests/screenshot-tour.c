@@ -26,6 +26,7 @@
 
 #include "project.h"
 #include "sl-application.h"
+#include "sl-combine-dialog.h"
 #include "sl-derive-dialog.h"
 #include "sl-figure-dialog.h"
 #include "sl-import-dialog.h"
@@ -531,6 +532,24 @@ step_matches (void)
   shoot (GTK_WIDGET (window), "matches.png");
 }
 
+/* 5b. Combining Sources: the survey and the programme both measured the
+ * proper motions of the stars they share; average them. */
+static void
+step_combine (void)
+{
+  SlCombineDialog *dialog;
+
+  activate (GTK_WIDGET (window), "win.combine-sources", NULL);
+  WAIT_FOR ((dialog = SL_COMBINE_DIALOG (toplevel_of_type (SL_TYPE_COMBINE_DIALOG))) != NULL,
+            "the Combining Sources dialog");
+  adw_combo_row_set_selected (ADW_COMBO_ROW (named (GTK_WIDGET (dialog), "pm")), 2);
+  shoot (GTK_WIDGET (dialog), "combine.png");
+  click (named (GTK_WIDGET (dialog), "save"));
+  WAIT_FOR (toplevel_of_type (SL_TYPE_COMBINE_DIALOG) == NULL, "the Combining Sources dialog to close");
+  wait_idle ("the reload");
+  dismiss_toasts ();
+}
+
 /* 6. Derive… with the project's first run: the defaults. */
 static void
 step_derive (void)
@@ -709,6 +728,7 @@ main (int argc, char **argv)
   step_import_astrometry ();
   step_import_photometry ();
   step_matches ();
+  step_combine ();
   step_derive ();
   step_trail ();
   step_override ();
