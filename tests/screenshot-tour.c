@@ -24,6 +24,7 @@
 #include <stdarg.h>
 #include <stdlib.h>
 
+#include "gui-util.h"
 #include "project.h"
 #include "sl-application.h"
 #include "sl-combine-dialog.h"
@@ -74,12 +75,6 @@ wake (gpointer data)
   return G_SOURCE_CONTINUE;
 }
 
-static void
-count_paint (GdkFrameClock *clock, guint *painted)
-{
-  (*painted)++;
-}
-
 /* Spins for about MS milliseconds: for an animation that has no signal
  * to wait for. */
 static void
@@ -98,17 +93,10 @@ paint (GtkWidget *toplevel)
 {
   for (int round = 0; round < 2; round++)
     {
-      GdkFrameClock *clock;
-      guint painted = 0;
-      gulong handler;
+      const char *failed = sl_gui_paint (toplevel, WAIT_S);
 
-      WAIT_FOR (gtk_widget_get_mapped (toplevel) && gtk_widget_get_frame_clock (toplevel) != NULL,
-                "a window to be mapped");
-      clock = gtk_widget_get_frame_clock (toplevel);
-      handler = g_signal_connect (clock, "after-paint", G_CALLBACK (count_paint), &painted);
-      gtk_widget_queue_draw (toplevel);
-      WAIT_FOR (painted > 0, "a frame to be painted");
-      g_signal_handler_disconnect (clock, handler);
+      if (failed)
+        die ("%s %s within %.0f s", G_OBJECT_TYPE_NAME (toplevel), failed, WAIT_S);
     }
 }
 
@@ -121,37 +109,6 @@ wait_idle (const char *what)
 
 /* ------------------------------------------------------------------ */
 /* Finding widgets                                                    */
-
-typedef gboolean (*WidgetTest) (GtkWidget *widget, gconstpointer data);
-
-/* The first widget under ROOT (ROOT included), depth first, for which
- * TEST holds. */
-static GtkWidget *
-find_widget (GtkWidget *root, WidgetTest test, gconstpointer data)
-{
-  if (test (root, data))
-    return root;
-  for (GtkWidget *child = gtk_widget_get_first_child (root); child; child = gtk_widget_get_next_sibling (child))
-    {
-      GtkWidget *found = find_widget (child, test, data);
-
-      if (found)
-        return found;
-    }
-  return NULL;
-}
-
-static gboolean
-is_named (GtkWidget *widget, gconstpointer name)
-{
-  return g_strcmp0 (gtk_widget_get_name (widget), name) == 0;
-}
-
-static gboolean
-is_of_type (GtkWidget *widget, gconstpointer type)
-{
-  return G_TYPE_CHECK_INSTANCE_TYPE (widget, GPOINTER_TO_SIZE (type));
-}
 
 static gboolean
 is_entry_row_titled (GtkWidget *widget, gconstpointer title)
@@ -172,7 +129,7 @@ is_group_titled (GtkWidget *widget, gconstpointer title)
 static GtkWidget *
 named (GtkWidget *root, const char *name)
 {
-  GtkWidget *found = find_widget (root, is_named, name);
+  GtkWidget *found = sl_gui_find_named (root, name);
 
   if (found == NULL)
     die ("no widget named '%s' in %s", name, G_OBJECT_TYPE_NAME (root));
@@ -182,42 +139,20 @@ named (GtkWidget *root, const char *name)
 static GtkWidget *
 descendant (GtkWidget *root, GType type)
 {
-  GtkWidget *found = find_widget (root, is_of_type, GSIZE_TO_POINTER (type));
+  GtkWidget *found = sl_gui_find_descendant (root, type);
 
   if (found == NULL)
     die ("no %s in %s", g_type_name (type), G_OBJECT_TYPE_NAME (root));
   return found;
 }
 
-/* The visible toplevel of TYPE, or NULL. */
-static GtkWindow *
-toplevel_of_type (GType type)
-{
-  GListModel *toplevels = gtk_window_get_toplevels ();   /* not ours */
-
-  for (guint i = 0; i < g_list_model_get_n_items (toplevels); i++)
-    {
-      g_autoptr (GObject) found = g_list_model_get_item (toplevels, i);
-
-      if (G_TYPE_CHECK_INSTANCE_TYPE (found, type) && gtk_widget_get_visible (GTK_WIDGET (found)))
-        return GTK_WINDOW (found);
-    }
-  return NULL;
-}
 
 /* Selects the item of CHOOSER whose text is TEXT, as a click would. */
 static void
 choose (GtkDropDown *chooser, const char *text)
 {
-  GListModel *model = gtk_drop_down_get_model (chooser);
-
-  for (guint i = 0; i < g_list_model_get_n_items (model); i++)
-    if (g_strcmp0 (gtk_string_list_get_string (GTK_STRING_LIST (model), i), text) == 0)
-      {
-        gtk_drop_down_set_selected (chooser, i);
-        return;
-      }
-  die ("no item '%s' in a chooser", text);
+  if (!sl_gui_choose (chooser, text))
+    die ("no item '%s' in a chooser", text);
 }
 
 static void
@@ -290,7 +225,7 @@ dismiss_toasts (void)
 {
   GtkWidget *shown;
 
-  while ((shown = find_widget (GTK_WIDGET (window), is_toast_widget, NULL)) != NULL)
+  while ((shown = sl_gui_find_widget (GTK_WIDGET (window), is_toast_widget, NULL)) != NULL)
     {
       g_autoptr (AdwToast) toast = NULL;
       gint64 end = g_get_monotonic_time () + (gint64) (WAIT_S * G_USEC_PER_SEC);
@@ -304,7 +239,7 @@ dismiss_toasts (void)
         die ("a toast widget without its toast");
       adw_toast_dismiss (toast);
       /* The widget leaves after its animation. */
-      while (find_widget (GTK_WIDGET (window), is_toast_widget, NULL) == shown)
+      while (sl_gui_find_widget (GTK_WIDGET (window), is_toast_widget, NULL) == shown)
         {
           if (g_get_monotonic_time () > end)
             die ("a toast did not go");
@@ -417,7 +352,7 @@ open_assistant (const char *file)
 static void
 set_row_text (GtkWidget *root, const char *title, const char *text)
 {
-  GtkWidget *row = find_widget (root, is_entry_row_titled, title);
+  GtkWidget *row = sl_gui_find_widget (root, is_entry_row_titled, title);
 
   if (row == NULL)
     die ("no entry row '%s'", title);
@@ -442,7 +377,7 @@ check_and_import (SlImportDialog *assistant, const char *picture, gboolean scrol
   if (picture)
     shoot (GTK_WIDGET (assistant), picture);
   activate (GTK_WIDGET (assistant), "assistant.import", NULL);
-  WAIT_FOR (toplevel_of_type (SL_TYPE_IMPORT_DIALOG) == NULL, "the assistant to close");
+  WAIT_FOR (sl_gui_find_toplevel (SL_TYPE_IMPORT_DIALOG) == NULL, "the assistant to close");
   wait_idle ("the import");
   dismiss_toasts ();
 }
@@ -488,7 +423,7 @@ step_import_photometry (void)
     /* The first rows as split, under the mapping each column gets. */
     GtkScrolledWindow *scroller = GTK_SCROLLED_WINDOW (descendant (GTK_WIDGET (assistant),
                                                                    GTK_TYPE_SCROLLED_WINDOW));
-    GtkWidget *rows = find_widget (GTK_WIDGET (assistant), is_group_titled, "First Rows");
+    GtkWidget *rows = sl_gui_find_widget (GTK_WIDGET (assistant), is_group_titled, "First Rows");
     graphene_rect_t bounds;
 
     if (rows == NULL)
@@ -540,12 +475,12 @@ step_combine (void)
   SlCombineDialog *dialog;
 
   activate (GTK_WIDGET (window), "win.combine-sources", NULL);
-  WAIT_FOR ((dialog = SL_COMBINE_DIALOG (toplevel_of_type (SL_TYPE_COMBINE_DIALOG))) != NULL,
+  WAIT_FOR ((dialog = SL_COMBINE_DIALOG (sl_gui_find_toplevel (SL_TYPE_COMBINE_DIALOG))) != NULL,
             "the Combining Sources dialog");
   adw_combo_row_set_selected (ADW_COMBO_ROW (named (GTK_WIDGET (dialog), "pm")), 2);
   shoot (GTK_WIDGET (dialog), "combine.png");
   click (named (GTK_WIDGET (dialog), "save"));
-  WAIT_FOR (toplevel_of_type (SL_TYPE_COMBINE_DIALOG) == NULL, "the Combining Sources dialog to close");
+  WAIT_FOR (sl_gui_find_toplevel (SL_TYPE_COMBINE_DIALOG) == NULL, "the Combining Sources dialog to close");
   wait_idle ("the reload");
   dismiss_toasts ();
 }
@@ -557,10 +492,10 @@ step_derive (void)
   SlDeriveDialog *dialog;
 
   activate (GTK_WIDGET (window), "win.derive", NULL);
-  WAIT_FOR ((dialog = SL_DERIVE_DIALOG (toplevel_of_type (SL_TYPE_DERIVE_DIALOG))) != NULL, "the Derive dialog");
+  WAIT_FOR ((dialog = SL_DERIVE_DIALOG (sl_gui_find_toplevel (SL_TYPE_DERIVE_DIALOG))) != NULL, "the Derive dialog");
   shoot (GTK_WIDGET (dialog), "derive.png");
   click (named (GTK_WIDGET (dialog), "derive"));
-  WAIT_FOR (toplevel_of_type (SL_TYPE_DERIVE_DIALOG) == NULL, "the Derive dialog to close");
+  WAIT_FOR (sl_gui_find_toplevel (SL_TYPE_DERIVE_DIALOG) == NULL, "the Derive dialog to close");
   wait_idle ("the derivation");
   dismiss_toasts ();
 }
@@ -582,7 +517,7 @@ step_trail (void)
 static AdwMessageDialog *
 message_dialog (void)
 {
-  return ADW_MESSAGE_DIALOG (toplevel_of_type (ADW_TYPE_MESSAGE_DIALOG));
+  return ADW_MESSAGE_DIALOG (sl_gui_find_toplevel (ADW_TYPE_MESSAGE_DIALOG));
 }
 
 /* 8. Its temperature set by hand from a spectrum, with the reason. */
@@ -631,7 +566,7 @@ step_lists (void)
 
   sl_window_set_selection (window, NULL);
   activate (GTK_WIDGET (window), "win.new-list", NULL);
-  WAIT_FOR ((dialog = toplevel_of_type (ADW_TYPE_WINDOW)) != NULL
+  WAIT_FOR ((dialog = sl_gui_find_toplevel (ADW_TYPE_WINDOW)) != NULL
             && g_strcmp0 (gtk_window_get_title (dialog), "New List") == 0, "the New List dialog");
   gtk_editable_set_text (GTK_EDITABLE (named (GTK_WIDGET (dialog), "list-name")), LIST_NAME);
   choose (GTK_DROP_DOWN (named (GTK_WIDGET (dialog), "condition-column")), "teff");
@@ -674,11 +609,11 @@ step_figure (void)
   SlFigureDialog *dialog = NULL;
 
   activate (GTK_WIDGET (window), "win.export-figure", g_variant_new_string ("hr"));
-  WAIT_FOR ((dialog = SL_FIGURE_DIALOG (toplevel_of_type (SL_TYPE_FIGURE_DIALOG))) != NULL
+  WAIT_FOR ((dialog = SL_FIGURE_DIALOG (sl_gui_find_toplevel (SL_TYPE_FIGURE_DIALOG))) != NULL
             && sl_figure_dialog_is_ready (dialog), "the Export Figure dialog and its stars");
   shoot (GTK_WIDGET (dialog), "figure.png");
   gtk_window_close (GTK_WINDOW (dialog));
-  WAIT_FOR (toplevel_of_type (SL_TYPE_FIGURE_DIALOG) == NULL, "the Export Figure dialog to close");
+  WAIT_FOR (sl_gui_find_toplevel (SL_TYPE_FIGURE_DIALOG) == NULL, "the Export Figure dialog to close");
 }
 
 /* 12. The window README.md opens with: two stars chosen in the views. */

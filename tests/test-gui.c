@@ -23,6 +23,7 @@
 #include "derivation.h"
 #include "export.h"
 #include "explain.h"
+#include "gui-util.h"
 #include "inputs.h"
 #include "ledger.h"
 #include "lists.h"
@@ -72,11 +73,6 @@ wake (gpointer data)
   return G_SOURCE_CONTINUE;
 }
 
-static void
-count_paint (GdkFrameClock *clock, guint *painted)
-{
-  (*painted)++;
-}
 
 /* Asks TOPLEVEL for a new frame and spins until it has been painted:
  * everything changed before the call is on screen after it.  FALSE on a
@@ -84,29 +80,11 @@ count_paint (GdkFrameClock *clock, guint *painted)
 static gboolean
 wait_for_paint (GtkWidget *toplevel)
 {
-  gint64 end = g_get_monotonic_time () + (gint64) (FRAME_TIMEOUT_S * G_USEC_PER_SEC);
-  GdkFrameClock *clock;
-  guint painted = 0;
-  gulong handler;
+  const char *failed = sl_gui_paint (toplevel, FRAME_TIMEOUT_S);
 
-  while (!gtk_widget_get_mapped (toplevel) || gtk_widget_get_frame_clock (toplevel) == NULL)
-    {
-      if (g_get_monotonic_time () > end)
-        {
-          g_test_fail_printf ("%s was never mapped", G_OBJECT_TYPE_NAME (toplevel));
-          return FALSE;
-        }
-      g_main_context_iteration (NULL, TRUE);
-    }
-  clock = gtk_widget_get_frame_clock (toplevel);
-  handler = g_signal_connect (clock, "after-paint", G_CALLBACK (count_paint), &painted);
-  gtk_widget_queue_draw (toplevel);
-  while (painted == 0 && g_get_monotonic_time () <= end)
-    g_main_context_iteration (NULL, TRUE);
-  g_signal_handler_disconnect (clock, handler);
-  if (painted == 0)
-    g_test_fail_printf ("%s painted no frame in %.0f s", G_OBJECT_TYPE_NAME (toplevel), FRAME_TIMEOUT_S);
-  return painted > 0;
+  if (failed)
+    g_test_fail_printf ("%s %s within %.0f s", G_OBJECT_TYPE_NAME (toplevel), failed, FRAME_TIMEOUT_S);
+  return failed == NULL;
 }
 
 #define PAINT(widget)                                        \
@@ -115,7 +93,6 @@ wait_for_paint (GtkWidget *toplevel)
       return;                                                \
   } G_STMT_END
 
-static GtkWindow *find_toplevel (GType type);
 
 static SlPlotView *
 view (SlPlotKind kind)
@@ -508,38 +485,6 @@ ledger_view_starts_with (const char *at, const char *action)
   return FALSE;
 }
 
-/* The first widget under ROOT (ROOT included), depth first, for which
- * TEST holds; the finders below are its tests. */
-typedef gboolean (*WidgetTest) (GtkWidget *widget, gconstpointer data);
-
-static GtkWidget *
-find_widget (GtkWidget *root, WidgetTest test, gconstpointer data)
-{
-  if (test (root, data))
-    return root;
-  for (GtkWidget *child = gtk_widget_get_first_child (root); child; child = gtk_widget_get_next_sibling (child))
-    {
-      GtkWidget *found = find_widget (child, test, data);
-
-      if (found)
-        return found;
-    }
-  return NULL;
-}
-
-/* The first widget of TYPE under WIDGET, depth first. */
-static gboolean
-is_of_type (GtkWidget *widget, gconstpointer type)
-{
-  return G_TYPE_CHECK_INSTANCE_TYPE (widget, GPOINTER_TO_SIZE (type));
-}
-
-static GtkWidget *
-find_descendant (GtkWidget *widget, GType type)
-{
-  return find_widget (widget, is_of_type, GSIZE_TO_POINTER (type));
-}
-
 /* The first button under WIDGET that activates ACTION. */
 static gboolean
 is_button_for_action (GtkWidget *widget, gconstpointer action)
@@ -550,7 +495,7 @@ is_button_for_action (GtkWidget *widget, gconstpointer action)
 static GtkWidget *
 action_button (GtkWidget *widget, const char *action)
 {
-  return find_widget (widget, is_button_for_action, action);
+  return sl_gui_find_widget (widget, is_button_for_action, action);
 }
 
 /* A value set by hand makes a star stale; Derive in the window derives
@@ -586,7 +531,7 @@ test_actions_derive (void)
   g_assert_true (gtk_widget_activate_action (GTK_WIDGET (demo), "win.derive-now", NULL));
   g_assert_true (sl_window_is_loading (demo));
   /* Long work shows its progress and a way to cancel it. */
-  g_assert_true (gtk_revealer_get_reveal_child (GTK_REVEALER (find_descendant (GTK_WIDGET (demo), GTK_TYPE_REVEALER))));
+  g_assert_true (gtk_revealer_get_reveal_child (GTK_REVEALER (sl_gui_find_descendant (GTK_WIDGET (demo), GTK_TYPE_REVEALER))));
   g_assert_true (gtk_widget_get_sensitive (action_button (GTK_WIDGET (demo), "win.cancel-work")));
   /* One derivation at a time: the button is off while it runs. */
   g_assert_false (gtk_widget_get_sensitive (action_button (GTK_WIDGET (demo), "win.derive")));
@@ -602,7 +547,7 @@ test_actions_derive (void)
   g_assert_true (text_view_starts_with (trail));
   g_assert_cmpint (stale_stars (path), ==, 0);
   g_assert_true (ledger_view_starts_with (after->at, "derive"));
-  g_assert_false (gtk_revealer_get_reveal_child (GTK_REVEALER (find_descendant (GTK_WIDGET (demo), GTK_TYPE_REVEALER))));
+  g_assert_false (gtk_revealer_get_reveal_child (GTK_REVEALER (sl_gui_find_descendant (GTK_WIDGET (demo), GTK_TYPE_REVEALER))));
   /* Derive can be asked for again. */
   g_assert_true (gtk_widget_get_sensitive (action_button (GTK_WIDGET (demo), "win.derive")));
   click_star (SL_PLOT_KIND_SKY, NULL, FALSE);
@@ -794,7 +739,7 @@ test_actions_import_by_drop (void)
   g_assert_true (accepted);
   /* The drop opens the import assistant; its Import runs the import in a
    * thread, with the window's progress bar and Cancel. */
-  assistant = SL_IMPORT_DIALOG (find_toplevel (SL_TYPE_IMPORT_DIALOG));
+  assistant = SL_IMPORT_DIALOG (sl_gui_find_toplevel (SL_TYPE_IMPORT_DIALOG));
   g_assert_nonnull (assistant);
   g_assert_true (gtk_widget_activate_action (GTK_WIDGET (assistant), "assistant.import", NULL));
   g_assert_true (sl_window_is_working (demo));
@@ -826,15 +771,8 @@ count_in (const char *path, const char *sql)
 static void
 choose (GtkDropDown *chooser, const char *text)
 {
-  GListModel *model = gtk_drop_down_get_model (chooser);
-
-  for (guint i = 0; i < g_list_model_get_n_items (model); i++)
-    if (g_strcmp0 (gtk_string_list_get_string (GTK_STRING_LIST (model), i), text) == 0)
-      {
-        gtk_drop_down_set_selected (chooser, i);
-        return;
-      }
-  g_test_fail_printf ("no item '%s' in the chooser", text);
+  if (!sl_gui_choose (chooser, text))
+    g_test_fail_printf ("no item '%s' in the chooser", text);
 }
 
 static void
@@ -926,7 +864,7 @@ test_import_assistant (void)
   save_window_png (GTK_WIDGET (assistant), "gui-import-assistant.png");
   {
     /* The lower half: the columns' choosers and the check's findings. */
-    GtkScrolledWindow *scroller = GTK_SCROLLED_WINDOW (find_descendant (GTK_WIDGET (assistant),
+    GtkScrolledWindow *scroller = GTK_SCROLLED_WINDOW (sl_gui_find_descendant (GTK_WIDGET (assistant),
                                                                         GTK_TYPE_SCROLLED_WINDOW));
     GtkAdjustment *adjustment = gtk_scrolled_window_get_vadjustment (scroller);
 
@@ -937,7 +875,7 @@ test_import_assistant (void)
 
   /* Import: the dialog closes, the window imports with those choices. */
   g_assert_true (gtk_widget_activate_action (GTK_WIDGET (assistant), "assistant.import", NULL));
-  g_assert_null (find_toplevel (SL_TYPE_IMPORT_DIALOG));
+  g_assert_null (sl_gui_find_toplevel (SL_TYPE_IMPORT_DIALOG));
   WAIT_UNTIL (!sl_window_is_working (demo) && !sl_window_is_loading (demo)
               && count_in (path, "SELECT count(*) FROM sources") == sources + 1,
               LOAD_TIMEOUT_S, "the import");
@@ -971,7 +909,7 @@ is_entry_row_titled (GtkWidget *widget, gconstpointer title)
 static GtkWidget *
 find_entry_row (GtkWidget *widget, const char *title)
 {
-  return find_widget (widget, is_entry_row_titled, title);
+  return sl_gui_find_widget (widget, is_entry_row_titled, title);
 }
 
 /* A change of delimiter reads the file again: with a comma the semicolon
@@ -999,7 +937,7 @@ test_import_assistant_delimiter (void)
   g_assert_null (sl_import_dialog_get_problem (assistant));
   g_assert_cmpuint (sl_import_dialog_get_preview (assistant)->columns->len, ==, 2);
 
-  delimiter = ADW_COMBO_ROW (find_descendant (GTK_WIDGET (assistant), ADW_TYPE_COMBO_ROW));
+  delimiter = ADW_COMBO_ROW (sl_gui_find_descendant (GTK_WIDGET (assistant), ADW_TYPE_COMBO_ROW));
   g_assert_nonnull (delimiter);
   adw_combo_row_set_selected (delimiter, 0);   /* comma */
   preview = sl_import_dialog_get_preview (assistant);
@@ -1021,7 +959,7 @@ test_import_assistant_delimiter (void)
   g_assert_null (sl_import_dialog_get_problem (assistant));
 
   gtk_window_close (GTK_WINDOW (assistant));
-  WAIT_UNTIL (find_toplevel (SL_TYPE_IMPORT_DIALOG) == NULL, FRAME_TIMEOUT_S, "the assistant to close");
+  WAIT_UNTIL (sl_gui_find_toplevel (SL_TYPE_IMPORT_DIALOG) == NULL, FRAME_TIMEOUT_S, "the assistant to close");
   g_assert_cmpint (count_in (path, "SELECT count(*) FROM sources"), ==, sources);
   sl_test_scratch_free (g_steal_pointer (&dir));
 }
@@ -1059,7 +997,7 @@ test_import_assistant_stop (void)
   g_assert_nonnull (strstr (sl_import_dialog_get_check_summary (assistant),
                             "Of 20000 rows read, 20000 would be imported and 0 rejected; 20000 new stars."));
   gtk_window_close (GTK_WINDOW (assistant));
-  WAIT_UNTIL (find_toplevel (SL_TYPE_IMPORT_DIALOG) == NULL, FRAME_TIMEOUT_S, "the assistant to close");
+  WAIT_UNTIL (sl_gui_find_toplevel (SL_TYPE_IMPORT_DIALOG) == NULL, FRAME_TIMEOUT_S, "the assistant to close");
   g_assert_cmpint (count_in (path, "SELECT count(*) FROM ledger"), ==, ledger);
   g_assert_cmpint (count_in (path, "SELECT count(*) FROM sources"), ==, sources);
   sl_test_scratch_free (g_steal_pointer (&dir));
@@ -1094,7 +1032,7 @@ test_import_assistant_unit_warning (void)
                             "but all 2 values are below 1 with errors below 0.01: they look like arcseconds"));
   {
     /* The check's findings are at the foot of the page. */
-    GtkWidget *scrolled = find_descendant (GTK_WIDGET (assistant), GTK_TYPE_SCROLLED_WINDOW);
+    GtkWidget *scrolled = sl_gui_find_descendant (GTK_WIDGET (assistant), GTK_TYPE_SCROLLED_WINDOW);
     GtkAdjustment *adjustment = gtk_scrolled_window_get_vadjustment (GTK_SCROLLED_WINDOW (scrolled));
 
     PAINT (assistant);
@@ -1111,7 +1049,7 @@ test_import_assistant_unit_warning (void)
   g_assert_nonnull (strstr (sl_import_dialog_get_check_summary (assistant), "2 would be imported"));
   g_assert_null (strstr (sl_import_dialog_get_check_summary (assistant), "Warning"));
   gtk_window_close (GTK_WINDOW (assistant));
-  WAIT_UNTIL (find_toplevel (SL_TYPE_IMPORT_DIALOG) == NULL, FRAME_TIMEOUT_S, "the assistant to close");
+  WAIT_UNTIL (sl_gui_find_toplevel (SL_TYPE_IMPORT_DIALOG) == NULL, FRAME_TIMEOUT_S, "the assistant to close");
   g_assert_cmpint (count_in (path, "SELECT count(*) FROM sources"), ==, sources);
   sl_test_scratch_free (g_steal_pointer (&dir));
 }
@@ -1162,21 +1100,6 @@ test_snapshot (void)
   cairo_surface_destroy (picture);
 }
 
-static GtkWindow *
-find_toplevel (GType type)
-{
-  GListModel *toplevels = gtk_window_get_toplevels ();   /* not ours */
-
-  for (guint i = 0; i < g_list_model_get_n_items (toplevels); i++)
-    {
-      g_autoptr (GObject) window = g_list_model_get_item (toplevels, i);
-
-      if (G_TYPE_CHECK_INSTANCE_TYPE (window, type) && gtk_widget_get_visible (GTK_WIDGET (window)))
-        return GTK_WINDOW (window);
-    }
-  return NULL;
-}
-
 /* About Starledger: a window with the icon, name and version. */
 static void
 test_about (void)
@@ -1187,7 +1110,7 @@ test_about (void)
 
   ENSURE_DEMO ();
   g_action_group_activate_action (G_ACTION_GROUP (app), "about", NULL);
-  about = find_toplevel (ADW_TYPE_ABOUT_WINDOW);
+  about = sl_gui_find_toplevel (ADW_TYPE_ABOUT_WINDOW);
   g_assert_nonnull (about);
   g_assert_true (gtk_window_get_transient_for (about) == GTK_WINDOW (demo));
   g_assert_cmpstr (adw_about_window_get_version (ADW_ABOUT_WINDOW (about)), ==, PACKAGE_VERSION);
@@ -1333,24 +1256,10 @@ test_shortcuts (void)
 /* ------------------------------------------------------------------ */
 /* Figure export and maximised views                                  */
 
-/* The widget below ROOT named NAME (gtk_widget_set_name; the dialogs name
- * their option widgets), depth first, or NULL. */
-static gboolean
-is_named (GtkWidget *widget, gconstpointer name)
-{
-  return g_strcmp0 (gtk_widget_get_name (widget), name) == 0;
-}
-
-static GtkWidget *
-find_named (GtkWidget *root, const char *name)
-{
-  return find_widget (root, is_named, name);
-}
-
 static void
 set_spin (SlFigureDialog *dialog, const char *name, double value)
 {
-  GtkWidget *spin = find_named (GTK_WIDGET (dialog), name);
+  GtkWidget *spin = sl_gui_find_named (GTK_WIDGET (dialog), name);
 
   g_assert_true (GTK_IS_SPIN_BUTTON (spin));
   gtk_spin_button_set_value (GTK_SPIN_BUTTON (spin), value);
@@ -1359,7 +1268,7 @@ set_spin (SlFigureDialog *dialog, const char *name, double value)
 static void
 set_choice (SlFigureDialog *dialog, const char *name, guint selected)
 {
-  GtkWidget *row = find_named (GTK_WIDGET (dialog), name);
+  GtkWidget *row = sl_gui_find_named (GTK_WIDGET (dialog), name);
 
   g_assert_true (ADW_IS_COMBO_ROW (row));
   adw_combo_row_set_selected (ADW_COMBO_ROW (row), selected);
@@ -1368,7 +1277,7 @@ set_choice (SlFigureDialog *dialog, const char *name, guint selected)
 static void
 set_switch (SlFigureDialog *dialog, const char *name, gboolean active)
 {
-  GtkWidget *toggle = find_named (GTK_WIDGET (dialog), name);
+  GtkWidget *toggle = sl_gui_find_named (GTK_WIDGET (dialog), name);
 
   g_assert_true (GTK_IS_SWITCH (toggle));
   gtk_switch_set_active (GTK_SWITCH (toggle), active);
@@ -1391,7 +1300,7 @@ open_figure_dialog (const char *kind)
           g_test_fail_printf ("the Export Figure dialog for %s did not open and load", kind);
           return NULL;
         }
-      dialog = SL_FIGURE_DIALOG (find_toplevel (SL_TYPE_FIGURE_DIALOG));
+      dialog = SL_FIGURE_DIALOG (sl_gui_find_toplevel (SL_TYPE_FIGURE_DIALOG));
       g_main_context_iteration (NULL, TRUE);
     }
   return dialog;
@@ -1574,7 +1483,7 @@ test_figure_export (void)
           {
             graphene_rect_t bounds;
 
-            g_assert_true (gtk_widget_compute_bounds (find_named (GTK_WIDGET (dialog), "preview"),
+            g_assert_true (gtk_widget_compute_bounds (sl_gui_find_named (GTK_WIDGET (dialog), "preview"),
                                                       GTK_WIDGET (dialog), &bounds));
             c = census (picture, bounds.origin.x, bounds.origin.y, bounds.origin.x + bounds.size.width,
                         bounds.origin.y + bounds.size.height);
@@ -1585,7 +1494,7 @@ test_figure_export (void)
 
       g_assert_true (sl_figure_dialog_export_to (dialog, by_window));
       WAIT_UNTIL (!sl_window_is_working (demo), LOAD_TIMEOUT_S, "the export");
-      g_assert_null (find_toplevel (SL_TYPE_FIGURE_DIALOG));
+      g_assert_null (sl_gui_find_toplevel (SL_TYPE_FIGURE_DIALOG));
 
       g_ptr_array_add (args, "figure");
       g_ptr_array_add (args, path);
@@ -1731,13 +1640,13 @@ static SlDeriveDialog *
 open_derive_dialog (void)
 {
   g_assert_true (gtk_widget_activate_action (GTK_WIDGET (demo), "win.derive", NULL));
-  return SL_DERIVE_DIALOG (find_toplevel (SL_TYPE_DERIVE_DIALOG));
+  return SL_DERIVE_DIALOG (sl_gui_find_toplevel (SL_TYPE_DERIVE_DIALOG));
 }
 
 static void
 set_entry (SlDeriveDialog *dialog, SlParam param, const char *text)
 {
-  GtkWidget *entry = find_named (GTK_WIDGET (dialog), sl_param_info (param)->name);
+  GtkWidget *entry = sl_gui_find_named (GTK_WIDGET (dialog), sl_param_info (param)->name);
 
   g_assert_true (GTK_IS_ENTRY (entry));
   gtk_editable_set_text (GTK_EDITABLE (entry), text);
@@ -1746,7 +1655,7 @@ set_entry (SlDeriveDialog *dialog, SlParam param, const char *text)
 static void
 derive_set_choice (SlDeriveDialog *dialog, SlParam param, guint choice)
 {
-  GtkWidget *row = find_named (GTK_WIDGET (dialog), sl_param_info (param)->name);
+  GtkWidget *row = sl_gui_find_named (GTK_WIDGET (dialog), sl_param_info (param)->name);
 
   g_assert_true (ADW_IS_COMBO_ROW (row));
   adw_combo_row_set_selected (ADW_COMBO_ROW (row), choice);
@@ -1759,7 +1668,7 @@ assert_dialog_shows (SlDeriveDialog *dialog, const SlDeriveParams *params)
   for (SlParam p = 0; p < SL_N_PARAMS; p++)
     {
       const SlParamInfo *info = sl_param_info (p);
-      GtkWidget *widget = find_named (GTK_WIDGET (dialog), info->name);
+      GtkWidget *widget = sl_gui_find_named (GTK_WIDGET (dialog), info->name);
 
       g_assert_nonnull (widget);
       if (info->kind == SL_PARAM_KIND_CHOICE)
@@ -1841,13 +1750,13 @@ test_derive_dialog (void)
   g_assert_true (gtk_window_get_modal (GTK_WINDOW (dialog)));
   g_assert_true (gtk_window_get_transient_for (GTK_WINDOW (dialog)) == GTK_WINDOW (demo));
   assert_dialog_shows (dialog, &start);
-  derive = find_named (GTK_WIDGET (dialog), "derive");
+  derive = sl_gui_find_named (GTK_WIDGET (dialog), "derive");
   g_assert_true (gtk_widget_get_sensitive (derive));
 
   /* A number the core refuses: marked, explained, and Derive waits. */
   derive_set_choice (dialog, SL_PARAM_DISTANCE, SL_DISTANCE_EDSD);
   set_entry (dialog, SL_PARAM_LENGTH_SCALE, "-5");
-  length = find_named (GTK_WIDGET (dialog), "length_scale_pc");
+  length = sl_gui_find_named (GTK_WIDGET (dialog), "length_scale_pc");
   g_assert_true (gtk_widget_has_css_class (length, "error"));
   g_assert_false (gtk_widget_get_sensitive (derive));
   {
@@ -1864,7 +1773,7 @@ test_derive_dialog (void)
   set_entry (dialog, SL_PARAM_SEED, "42");
   /* The row of the temperature calibration cites the chosen method. */
   {
-    GtkWidget *teff = find_named (GTK_WIDGET (dialog), "teff");
+    GtkWidget *teff = sl_gui_find_named (GTK_WIDGET (dialog), "teff");
 
     g_assert_nonnull (strstr (adw_action_row_get_subtitle (ADW_ACTION_ROW (teff)), "Torres 2010, AJ 140, 1158"));
     derive_set_choice (dialog, SL_PARAM_TEFF, SL_TEFF_BALLESTEROS);
@@ -1880,7 +1789,7 @@ test_derive_dialog (void)
   }
   /* And its lower half: uncertainties, stars, Reset. */
   {
-    GtkScrolledWindow *scrolled = GTK_SCROLLED_WINDOW (find_descendant (GTK_WIDGET (dialog), GTK_TYPE_SCROLLED_WINDOW));
+    GtkScrolledWindow *scrolled = GTK_SCROLLED_WINDOW (sl_gui_find_descendant (GTK_WIDGET (dialog), GTK_TYPE_SCROLLED_WINDOW));
     GtkAdjustment *adjustment = gtk_scrolled_window_get_vadjustment (scrolled);
     cairo_surface_t *picture;
 
@@ -1898,7 +1807,7 @@ test_derive_dialog (void)
   want.draws = 200;
   want.seed = 42;
   g_signal_emit_by_name (derive, "clicked");
-  g_assert_null (find_toplevel (SL_TYPE_DERIVE_DIALOG));
+  g_assert_null (sl_gui_find_toplevel (SL_TYPE_DERIVE_DIALOG));
   g_assert_true (sl_window_is_working (demo));
   WAIT_UNTIL (!sl_window_is_loading (demo), LOAD_TIMEOUT_S, "the derivation and the reload");
 
@@ -1924,7 +1833,7 @@ test_derive_dialog (void)
   dialog = open_derive_dialog ();
   g_assert_nonnull (dialog);
   assert_dialog_shows (dialog, &want);
-  g_signal_emit_by_name (find_named (GTK_WIDGET (dialog), "reset"), "clicked");
+  g_signal_emit_by_name (sl_gui_find_named (GTK_WIDGET (dialog), "reset"), "clicked");
   {
     SlDeriveParams defaults;
 
@@ -1932,7 +1841,7 @@ test_derive_dialog (void)
     assert_dialog_shows (dialog, &defaults);
   }
   gtk_window_close (GTK_WINDOW (dialog));
-  WAIT_UNTIL (find_toplevel (SL_TYPE_DERIVE_DIALOG) == NULL, FRAME_TIMEOUT_S, "the dialog to close");
+  WAIT_UNTIL (sl_gui_find_toplevel (SL_TYPE_DERIVE_DIALOG) == NULL, FRAME_TIMEOUT_S, "the dialog to close");
   g_assert_false (sl_window_is_working (demo));
   latest_params (path, &run_before);
   g_assert_cmpint (run_before, ==, run_after);
@@ -1961,7 +1870,7 @@ is_action_row_titled (GtkWidget *widget, gconstpointer title)
 static GtkWidget *
 row_titled (GtkWidget *widget, const char *title)
 {
-  return find_widget (widget, is_action_row_titled, title);
+  return sl_gui_find_widget (widget, is_action_row_titled, title);
 }
 
 /* Projects opened in one window are listed on the welcome page of the
@@ -2004,7 +1913,7 @@ test_welcome_recent (void)
   gtk_window_present (GTK_WINDOW (welcome));
   PAINT (welcome);
   g_assert_null (sl_window_get_project_path (welcome));
-  recent = find_descendant (GTK_WIDGET (welcome), SL_TYPE_RECENT_PROJECTS);
+  recent = sl_gui_find_descendant (GTK_WIDGET (welcome), SL_TYPE_RECENT_PROJECTS);
   g_assert_nonnull (recent);
   g_assert_true (gtk_widget_is_drawable (recent));
   collect_row_titles (recent, titles);
@@ -2049,7 +1958,7 @@ is_button_labelled (GtkWidget *widget, gconstpointer label)
 static GtkWidget *
 find_button_labelled (GtkWidget *widget, const char *label)
 {
-  return find_widget (widget, is_button_labelled, label);
+  return sl_gui_find_widget (widget, is_button_labelled, label);
 }
 
 /* Whether a label under WIDGET begins with PREFIX. */
@@ -2062,7 +1971,7 @@ is_label_starting_with (GtkWidget *widget, gconstpointer prefix)
 static gboolean
 label_under_starts_with (GtkWidget *widget, const char *prefix)
 {
-  return find_widget (widget, is_label_starting_with, prefix) != NULL;
+  return sl_gui_find_widget (widget, is_label_starting_with, prefix) != NULL;
 }
 
 /* List NAME's members as the core reads them, "STAR:PRIORITY:TAGS:NOTES|..."
@@ -2116,7 +2025,7 @@ count_matching (const char *condition)
 static guint
 panel_member_rows (void)
 {
-  GtkWidget *view = find_named (GTK_WIDGET (sl_window_get_lists_panel (demo)), "list-members");
+  GtkWidget *view = sl_gui_find_named (GTK_WIDGET (sl_window_get_lists_panel (demo)), "list-members");
 
   g_assert_nonnull (view);
   return g_list_model_get_n_items (G_LIST_MODEL (gtk_column_view_get_model (GTK_COLUMN_VIEW (view))));
@@ -2232,7 +2141,7 @@ test_lists_show_only (void)
   g_assert_true (gtk_widget_activate_action (GTK_WIDGET (demo), "win.show-list", "s", "warm near"));
   g_assert_cmpstr (sl_window_get_shown_list (demo), ==, "warm near");
   {
-    AdwWindowTitle *title = ADW_WINDOW_TITLE (find_descendant (GTK_WIDGET (demo), ADW_TYPE_WINDOW_TITLE));
+    AdwWindowTitle *title = ADW_WINDOW_TITLE (sl_gui_find_descendant (GTK_WIDGET (demo), ADW_TYPE_WINDOW_TITLE));
 
     g_assert_true (g_str_has_prefix (adw_window_title_get_subtitle (title), "only list “warm near” · "));
   }
@@ -2244,7 +2153,7 @@ test_lists_show_only (void)
   g_assert_cmpuint (drawn (SL_PLOT_KIND_SKY), ==, (guint) n);
   g_assert_cmpuint (all_drawn, >, (guint) n);
   {
-    GtkDropDown *show = GTK_DROP_DOWN (find_named (GTK_WIDGET (sl_window_get_lists_panel (demo)), "show-list"));
+    GtkDropDown *show = GTK_DROP_DOWN (sl_gui_find_named (GTK_WIDGET (sl_window_get_lists_panel (demo)), "show-list"));
     GListModel *model = gtk_drop_down_get_model (show);
 
     g_assert_cmpstr (gtk_string_list_get_string (GTK_STRING_LIST (model), gtk_drop_down_get_selected (show)), ==,
@@ -2297,7 +2206,7 @@ test_lists_members (void)
   g_assert_cmpuint (panel_member_rows (), ==, 2);
   {
     GListModel *shown = G_LIST_MODEL (gtk_column_view_get_model (GTK_COLUMN_VIEW (
-      find_named (GTK_WIDGET (sl_window_get_lists_panel (demo)), "list-members"))));
+      sl_gui_find_named (GTK_WIDGET (sl_window_get_lists_panel (demo)), "list-members"))));
     g_autoptr (GtkStringObject) first = g_list_model_get_item (shown, 0);
     g_autoptr (GtkStringObject) second = g_list_model_get_item (shown, 1);
 
@@ -2307,7 +2216,7 @@ test_lists_members (void)
   }
   notebook = gtk_widget_get_ancestor (GTK_WIDGET (sl_window_get_lists_panel (demo)), GTK_TYPE_NOTEBOOK);
   gtk_notebook_set_current_page (GTK_NOTEBOOK (notebook), 2);
-  view = find_named (GTK_WIDGET (sl_window_get_lists_panel (demo)), "list-members");
+  view = sl_gui_find_named (GTK_WIDGET (sl_window_get_lists_panel (demo)), "list-members");
   gtk_selection_model_select_item (gtk_column_view_get_model (GTK_COLUMN_VIEW (view)), 1, TRUE);
   {
     g_autofree char *selected = window_selection ();
@@ -2321,7 +2230,7 @@ test_lists_members (void)
   WAIT_UNTIL ((dialog = open_message_dialog ()) != NULL, FRAME_TIMEOUT_S, "the Edit Star dialog");
   {
     GtkWidget *grid = adw_message_dialog_get_extra_child (dialog);
-    GtkWidget *spin = find_descendant (grid, GTK_TYPE_SPIN_BUTTON);
+    GtkWidget *spin = sl_gui_find_descendant (grid, GTK_TYPE_SPIN_BUTTON);
     const char *const texts[] = { "faint, spring", "ask for a spectrum", NULL };
     guint i = 0;
 
@@ -2363,14 +2272,14 @@ test_lists_new_dialog (void)
   ENSURE_DEMO ();
   sl_window_set_selection (demo, NULL);
   g_assert_true (gtk_widget_activate_action (GTK_WIDGET (demo), "win.new-list", NULL));
-  WAIT_UNTIL ((dialog = find_toplevel (ADW_TYPE_WINDOW)) != NULL
+  WAIT_UNTIL ((dialog = sl_gui_find_toplevel (ADW_TYPE_WINDOW)) != NULL
               && g_strcmp0 (gtk_window_get_title (dialog), "New List") == 0,
               FRAME_TIMEOUT_S, "the New List dialog");
-  column = find_named (GTK_WIDGET (dialog), "condition-column");
-  op = find_named (GTK_WIDGET (dialog), "condition-op");
-  value = find_named (GTK_WIDGET (dialog), "condition-value");
-  text = find_named (GTK_WIDGET (dialog), "condition-text");
-  status = find_named (GTK_WIDGET (dialog), "match-count");
+  column = sl_gui_find_named (GTK_WIDGET (dialog), "condition-column");
+  op = sl_gui_find_named (GTK_WIDGET (dialog), "condition-op");
+  value = sl_gui_find_named (GTK_WIDGET (dialog), "condition-value");
+  text = sl_gui_find_named (GTK_WIDGET (dialog), "condition-text");
+  status = sl_gui_find_named (GTK_WIDGET (dialog), "match-count");
   g_assert_true (column && op && value && text && status);
 
   /* The column chooser offers the core's names. */
@@ -2385,32 +2294,32 @@ test_lists_new_dialog (void)
     g_assert_cmpuint (g_list_model_get_n_items (names), ==, core->len);
   }
 
-  gtk_editable_set_text (GTK_EDITABLE (find_named (GTK_WIDGET (dialog), "list-name")), "from the dialog");
+  gtk_editable_set_text (GTK_EDITABLE (sl_gui_find_named (GTK_WIDGET (dialog), "list-name")), "from the dialog");
   gtk_drop_down_set_selected (GTK_DROP_DOWN (column), teff);
   gtk_drop_down_set_selected (GTK_DROP_DOWN (op), 4);   /* > */
   gtk_editable_set_text (GTK_EDITABLE (value), "7000");
   g_assert_cmpstr (gtk_editable_get_text (GTK_EDITABLE (text)), ==, "teff > 7000");
 
   /* A second row, any of: a text column with contains. */
-  g_signal_emit_by_name (find_named (GTK_WIDGET (dialog), "add-condition"), "clicked");
+  g_signal_emit_by_name (sl_gui_find_named (GTK_WIDGET (dialog), "add-condition"), "clicked");
   {
     GtkWidget *rows = gtk_widget_get_parent (gtk_widget_get_parent (column));
     GtkWidget *second = gtk_widget_get_last_child (rows);
-    GtkWidget *column2 = find_named (second, "condition-column");
+    GtkWidget *column2 = sl_gui_find_named (second, "condition-column");
     GListModel *model = gtk_drop_down_get_model (GTK_DROP_DOWN (column2));
 
     for (guint i = 0; i < g_list_model_get_n_items (model); i++)
       if (g_strcmp0 (gtk_string_list_get_string (GTK_STRING_LIST (model), i), "sptype") == 0)
         gtk_drop_down_set_selected (GTK_DROP_DOWN (column2), i);
-    gtk_drop_down_set_selected (GTK_DROP_DOWN (find_named (second, "condition-op")), 2);   /* contains */
-    gtk_editable_set_text (GTK_EDITABLE (find_named (second, "condition-value")), "III");
+    gtk_drop_down_set_selected (GTK_DROP_DOWN (sl_gui_find_named (second, "condition-op")), 2);   /* contains */
+    gtk_editable_set_text (GTK_EDITABLE (sl_gui_find_named (second, "condition-value")), "III");
   }
-  gtk_drop_down_set_selected (GTK_DROP_DOWN (find_named (GTK_WIDGET (dialog), "condition-combine")), 1);
+  gtk_drop_down_set_selected (GTK_DROP_DOWN (sl_gui_find_named (GTK_WIDGET (dialog), "condition-combine")), 1);
   g_assert_cmpstr (gtk_editable_get_text (GTK_EDITABLE (text)), ==, "teff > 7000 or sptype ~ 'III'");
   want = g_strdup_printf ("%" G_GINT64_FORMAT " derived stars match now.",
                           count_matching ("teff > 7000 or sptype ~ 'III'"));
   WAIT_UNTIL (g_strcmp0 (gtk_label_get_text (GTK_LABEL (status)), want) == 0, FRAME_TIMEOUT_S, "the count");
-  g_assert_true (gtk_widget_get_sensitive (find_named (GTK_WIDGET (dialog), "create-list")));
+  g_assert_true (gtk_widget_get_sensitive (sl_gui_find_named (GTK_WIDGET (dialog), "create-list")));
   PAINT (dialog);
   {
     cairo_surface_t *picture = render_widget (GTK_WIDGET (dialog));
@@ -2422,7 +2331,7 @@ test_lists_new_dialog (void)
   /* The column chooser, open, says what each name is. */
   g_signal_emit_by_name (column, "activate");
   {
-    GtkWidget *popover = find_descendant (column, GTK_TYPE_POPOVER);
+    GtkWidget *popover = sl_gui_find_descendant (column, GTK_TYPE_POPOVER);
 
     g_assert_nonnull (popover);
     WAIT_UNTIL (gtk_widget_get_mapped (popover), FRAME_TIMEOUT_S, "the column chooser to open");
@@ -2443,14 +2352,14 @@ test_lists_new_dialog (void)
   WAIT_UNTIL (g_str_has_prefix (gtk_label_get_text (GTK_LABEL (status)), "at 16: unknown name 'sptyp' (did you mean"),
               FRAME_TIMEOUT_S, "the compiler's message");
   g_assert_true (gtk_widget_has_css_class (status, "error"));
-  g_assert_false (gtk_widget_get_sensitive (find_named (GTK_WIDGET (dialog), "create-list")));
+  g_assert_false (gtk_widget_get_sensitive (sl_gui_find_named (GTK_WIDGET (dialog), "create-list")));
 
   /* Written by hand, then made. */
   gtk_editable_set_text (GTK_EDITABLE (text), "(teff > 7000 or sptype ~ 'III') and not flag:low_parallax_snr");
-  WAIT_UNTIL (gtk_widget_get_sensitive (find_named (GTK_WIDGET (dialog), "create-list")), FRAME_TIMEOUT_S,
+  WAIT_UNTIL (gtk_widget_get_sensitive (sl_gui_find_named (GTK_WIDGET (dialog), "create-list")), FRAME_TIMEOUT_S,
               "Create to be possible");
   g_object_add_weak_pointer (G_OBJECT (dialog), (gpointer *) &dialog);
-  g_signal_emit_by_name (find_named (GTK_WIDGET (dialog), "create-list"), "clicked");
+  g_signal_emit_by_name (sl_gui_find_named (GTK_WIDGET (dialog), "create-list"), "clicked");
   WAIT_UNTIL (dialog == NULL, FRAME_TIMEOUT_S, "the dialog to close");
   g_assert_cmpint (list_size ("from the dialog"), ==,
                    count_matching ("(teff > 7000 or sptype ~ 'III') and not flag:low_parallax_snr"));
@@ -2636,7 +2545,7 @@ stored_columns (GSettings *settings)
 static char *
 header_titles (void)
 {
-  GtkWidget *table = find_descendant (GTK_WIDGET (sl_window_get_catalogue (demo)), GTK_TYPE_COLUMN_VIEW);
+  GtkWidget *table = sl_gui_find_descendant (GTK_WIDGET (sl_window_get_catalogue (demo)), GTK_TYPE_COLUMN_VIEW);
   GListModel *columns = gtk_column_view_get_columns (GTK_COLUMN_VIEW (table));
   g_autoptr (GString) titles = g_string_new (NULL);
 
@@ -2660,7 +2569,7 @@ is_mapped_star_label (GtkWidget *widget, gconstpointer unused)
 static GtkWidget *
 first_star_label (GtkWidget *widget)
 {
-  return find_widget (widget, is_mapped_star_label, NULL);
+  return sl_gui_find_widget (widget, is_mapped_star_label, NULL);
 }
 
 /* The text of the cell in column INDEX of the row whose name cell is
@@ -2824,7 +2733,7 @@ test_catalogue_columns (void)
   /* A header dragged elsewhere (what the column view's drag does): the
    * order is kept and stored. */
   {
-    GtkWidget *table = find_descendant (catalogue, GTK_TYPE_COLUMN_VIEW);
+    GtkWidget *table = sl_gui_find_descendant (catalogue, GTK_TYPE_COLUMN_VIEW);
     g_autoptr (GtkColumnViewColumn) teff = g_list_model_get_item (gtk_column_view_get_columns (GTK_COLUMN_VIEW (table)), 8);
 
     g_assert_cmpstr (gtk_column_view_column_get_title (teff), ==, "Teff (K)");
@@ -2841,7 +2750,7 @@ test_catalogue_columns (void)
   /* Sorted by a column: showing another keeps the order; hiding the
    * sorted one goes back to the order the stars entered the project. */
   {
-    GtkWidget *table = find_descendant (catalogue, GTK_TYPE_COLUMN_VIEW);
+    GtkWidget *table = sl_gui_find_descendant (catalogue, GTK_TYPE_COLUMN_VIEW);
     g_autoptr (GtkColumnViewColumn) teff = g_list_model_get_item (gtk_column_view_get_columns (GTK_COLUMN_VIEW (table)), 8);
     g_autofree char *path = demo_path ();
     g_autoptr (GError) error = NULL;
@@ -3006,7 +2915,7 @@ test_figure_decimal_point (void)
     }
   dialog = open_figure_dialog ("hr");
   g_assert_nonnull (dialog);
-  width = GTK_SPIN_BUTTON (find_named (GTK_WIDGET (dialog), "width"));
+  width = GTK_SPIN_BUTTON (sl_gui_find_named (GTK_WIDGET (dialog), "width"));
   gtk_spin_button_set_value (width, 120.5);
   g_assert_cmpstr (gtk_editable_get_text (GTK_EDITABLE (width)), ==, "120.5");
   gtk_editable_set_text (GTK_EDITABLE (width), "88,5");
@@ -3050,30 +2959,30 @@ test_combine_dialog (void)
   ENSURE_DEMO ();
   WAIT_UNTIL (!sl_window_is_loading (demo), LOAD_TIMEOUT_S, "the window to be idle");
   g_assert_true (gtk_widget_activate_action (GTK_WIDGET (demo), "win.combine-sources", NULL));
-  dialog = SL_COMBINE_DIALOG (find_toplevel (SL_TYPE_COMBINE_DIALOG));
+  dialog = SL_COMBINE_DIALOG (sl_gui_find_toplevel (SL_TYPE_COMBINE_DIALOG));
   g_assert_nonnull (dialog);
   g_assert_true (gtk_window_get_modal (GTK_WINDOW (dialog)));
   PAINT (dialog);
 
   /* Positions offer no mean; the parallax does. */
-  g_assert_cmpuint (g_list_model_get_n_items (adw_combo_row_get_model (ADW_COMBO_ROW (find_named (GTK_WIDGET (dialog), "position")))),
+  g_assert_cmpuint (g_list_model_get_n_items (adw_combo_row_get_model (ADW_COMBO_ROW (sl_gui_find_named (GTK_WIDGET (dialog), "position")))),
                     ==, 2);
-  adw_combo_row_set_selected (ADW_COMBO_ROW (find_named (GTK_WIDGET (dialog), "parallax")), 2);
-  g_assert_nonnull (strstr (adw_action_row_get_subtitle (ADW_ACTION_ROW (find_named (GTK_WIDGET (dialog), "parallax"))),
+  adw_combo_row_set_selected (ADW_COMBO_ROW (sl_gui_find_named (GTK_WIDGET (dialog), "parallax")), 2);
+  g_assert_nonnull (strstr (adw_action_row_get_subtitle (ADW_ACTION_ROW (sl_gui_find_named (GTK_WIDGET (dialog), "parallax"))),
                             "weighted mean"));
-  adw_combo_row_set_selected (ADW_COMBO_ROW (find_named (GTK_WIDGET (dialog), "vmag")), 1);
-  adw_combo_row_set_selected (ADW_COMBO_ROW (find_named (GTK_WIDGET (dialog), "pm")), 2);
+  adw_combo_row_set_selected (ADW_COMBO_ROW (sl_gui_find_named (GTK_WIDGET (dialog), "vmag")), 1);
+  adw_combo_row_set_selected (ADW_COMBO_ROW (sl_gui_find_named (GTK_WIDGET (dialog), "pm")), 2);
 
   /* Tick two sources; the second ticked goes after the first, then moves up. */
-  gtk_check_button_set_active (GTK_CHECK_BUTTON (find_named (GTK_WIDGET (dialog), listed_tarn)), TRUE);
-  gtk_check_button_set_active (GTK_CHECK_BUTTON (find_named (GTK_WIDGET (dialog), listed_larkspur)), TRUE);
-  g_assert_true (gtk_widget_get_sensitive (find_named (GTK_WIDGET (dialog), up_larkspur)));
-  g_signal_emit_by_name (find_named (GTK_WIDGET (dialog), up_larkspur), "clicked");
-  g_assert_false (gtk_widget_get_sensitive (find_named (GTK_WIDGET (dialog), up_larkspur)));
+  gtk_check_button_set_active (GTK_CHECK_BUTTON (sl_gui_find_named (GTK_WIDGET (dialog), listed_tarn)), TRUE);
+  gtk_check_button_set_active (GTK_CHECK_BUTTON (sl_gui_find_named (GTK_WIDGET (dialog), listed_larkspur)), TRUE);
+  g_assert_true (gtk_widget_get_sensitive (sl_gui_find_named (GTK_WIDGET (dialog), up_larkspur)));
+  g_signal_emit_by_name (sl_gui_find_named (GTK_WIDGET (dialog), up_larkspur), "clicked");
+  g_assert_false (gtk_widget_get_sensitive (sl_gui_find_named (GTK_WIDGET (dialog), up_larkspur)));
 
   /* A level of 1.5 is no probability: marked, and Save waits. */
-  level = find_named (GTK_WIDGET (dialog), "level");
-  save = find_named (GTK_WIDGET (dialog), "save");
+  level = sl_gui_find_named (GTK_WIDGET (dialog), "level");
+  save = sl_gui_find_named (GTK_WIDGET (dialog), "save");
   gtk_editable_set_text (GTK_EDITABLE (level), "1.5");
   g_assert_true (gtk_widget_has_css_class (level, "error"));
   g_assert_false (gtk_widget_get_sensitive (save));
@@ -3086,7 +2995,7 @@ test_combine_dialog (void)
   cairo_surface_destroy (picture);
 
   g_signal_emit_by_name (save, "clicked");
-  WAIT_UNTIL (find_toplevel (SL_TYPE_COMBINE_DIALOG) == NULL, 5, "the dialog to close");
+  WAIT_UNTIL (sl_gui_find_toplevel (SL_TYPE_COMBINE_DIALOG) == NULL, 5, "the dialog to close");
   {
     g_autoptr (SlProject) project = sl_project_open (path, &error);
 

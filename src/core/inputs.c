@@ -212,6 +212,29 @@ row_has_errors (const MeasurementRow *row, const SlField *values, guint n_values
   return TRUE;
 }
 
+/* The weighted mean of FIELD over the ROWS that have every one of the
+ * group's VALUES with an error (the same rows for each component); FALSE
+ * with fewer than two.  *N_ROWS: how many went in. */
+static gboolean
+mean_of_rows (const GArray *rows, const SlField *values, guint n_values, SlField field, SlWeightedMean *mean,
+              guint *n_rows)
+{
+  g_autoptr (GArray) x = g_array_new (FALSE, FALSE, sizeof (double));
+  g_autoptr (GArray) e = g_array_new (FALSE, FALSE, sizeof (double));
+
+  for (guint r = 0; r < rows->len; r++)
+    {
+      const MeasurementRow *row = &g_array_index (rows, MeasurementRow, r);
+
+      if (!row_has_errors (row, values, n_values))
+        continue;
+      g_array_append_val (x, row->value[field]);
+      g_array_append_val (e, row->value[sl_field_info (field)->error]);
+    }
+  *n_rows = x->len;
+  return x->len >= 2 && sl_weighted_mean ((double *) x->data, (double *) e->data, x->len, mean);
+}
+
 /* The single row a group takes under RULE (not a mean): NULL if no row
  * measured the group. */
 static const MeasurementRow *
@@ -254,24 +277,12 @@ test_agreement (const GArray *rows, const FieldGroup *group, const SlCombinePoli
     return;
   for (guint v = 0; v < n_values; v++)
     {
-      g_autoptr (GArray) x = g_array_new (FALSE, FALSE, sizeof (double));
-      g_autoptr (GArray) e = g_array_new (FALSE, FALSE, sizeof (double));
       SlWeightedMean mean;
 
-      for (guint r = 0; r < rows->len; r++)
-        {
-          const MeasurementRow *row = &g_array_index (rows, MeasurementRow, r);
-
-          if (!row_has_errors (row, values, n_values))
-            continue;
-          g_array_append_val (x, row->value[values[v]]);
-          g_array_append_val (e, row->value[sl_field_info (values[v])->error]);
-        }
-      if (x->len < 2 || !sl_weighted_mean ((double *) x->data, (double *) e->data, x->len, &mean))
+      if (!mean_of_rows (rows, values, n_values, values[v], &mean, &n_rows))
         return;
       chi2 += mean.chi2;
       dof += mean.dof;
-      n_rows = x->len;
     }
   inputs->n_tested[group->lead] = n_rows;
   inputs->chi2[group->lead] = chi2;
@@ -293,24 +304,15 @@ take_weighted_mean (const GArray *rows, const FieldGroup *group, SlStarInputs *i
   guint n_rows = 0;
 
   for (guint v = 0; v < n_values; v++)
+    if (!mean_of_rows (rows, values, n_values, values[v], &mean[v], &n_rows))
+      return FALSE;
+  for (guint r = 0; r < rows->len; r++)
     {
-      g_autoptr (GArray) x = g_array_new (FALSE, FALSE, sizeof (double));
-      g_autoptr (GArray) e = g_array_new (FALSE, FALSE, sizeof (double));
+      const MeasurementRow *row = &g_array_index (rows, MeasurementRow, r);
 
-      for (guint r = 0; r < rows->len; r++)
-        {
-          const MeasurementRow *row = &g_array_index (rows, MeasurementRow, r);
-
-          if (!row_has_errors (row, values, n_values))
-            continue;
-          g_array_append_val (x, row->value[values[v]]);
-          g_array_append_val (e, row->value[sl_field_info (values[v])->error]);
-          if (v == 0 && (most_precise == NULL || better_for_group (row, most_precise, group->lead)))
-            most_precise = row;
-        }
-      if (x->len < 2 || !sl_weighted_mean ((double *) x->data, (double *) e->data, x->len, &mean[v]))
-        return FALSE;
-      n_rows = x->len;
+      if (row_has_errors (row, values, n_values)
+          && (most_precise == NULL || better_for_group (row, most_precise, group->lead)))
+        most_precise = row;
     }
   for (guint v = 0; v < n_values; v++)
     {
