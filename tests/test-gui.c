@@ -2897,6 +2897,35 @@ test_matches_panel (void)
 }
 
 
+/* The preview of the HR diagram and the sky draws the window's own stars
+ * (a million stars are hundreds of megabytes: no second copy); the
+ * parallax figure loads the few stars whose paths it draws. */
+static void
+test_figure_shares_stars (void)
+{
+  const char *list = NULL;
+  g_autoptr (SlStarSet) shown = NULL;
+
+  ENSURE_DEMO ();
+  WAIT_UNTIL (!sl_window_is_loading (demo), LOAD_TIMEOUT_S, "the window to be idle");
+  shown = sl_window_ref_stars (demo, &list);
+  g_assert_nonnull (shown);
+  g_assert_null (list);
+  for (guint i = 0; i < 3; i++)
+    {
+      const char *kind = i == 0 ? "hr" : i == 1 ? "sky" : "parallax";
+      SlFigureDialog *dialog = open_figure_dialog (kind);
+
+      g_assert_nonnull (dialog);
+      if (i < 2)
+        g_assert_true (sl_figure_dialog_get_stars (dialog) == shown);
+      else
+        g_assert_true (sl_figure_dialog_get_stars (dialog) != shown);
+      gtk_window_close (GTK_WINDOW (dialog));
+      WAIT_UNTIL (sl_gui_find_toplevel (SL_TYPE_FIGURE_DIALOG) == NULL, 5, "the dialog to close");
+    }
+}
+
 /* The figure dialog's numbers are written with a '.' whatever the
  * locale, as the command line it shows; a ',' typed reads as the decimal
  * point.  Under de_DE.UTF-8 where it is installed (build-aux/dev makes it). */
@@ -3213,6 +3242,7 @@ main (int argc, char **argv)
   /* After /gui/matches/panel, which counts the demo's matches. */
   g_test_add_func ("/gui/matches/import-assistant-radius", test_import_assistant_match_radius);
   g_test_add_func ("/gui/figure/decimal-point", test_figure_decimal_point);
+  g_test_add_func ("/gui/figure/shares-stars", test_figure_shares_stars);
   /* Last: it changes how the demo derives. */
   g_test_add_func ("/gui/combine/dialog", test_combine_dialog);
   status = g_test_run ();

@@ -263,6 +263,71 @@ test_load_unknown (SlTestProject *f, gconstpointer data)
     }
 }
 
+/* Stars loaded already (the window's views) serve a figure that would
+ * load the same: hr and sky of the same list; the parallax figure and
+ * another list load their own; a star named that is not among them is
+ * the same error as a load gives. */
+static void
+test_reuse (SlTestProject *f, gconstpointer data)
+{
+  static const char *const one[] = { "B", NULL };
+  static const char *const outside[] = { "A", NULL };
+  const char *path = sl_project_path (f->project);
+  g_autoptr (GError) error = NULL;
+  g_autoptr (SlStarSet) all = sl_star_set_load_full (f->project, NULL, NULL, &error);
+  g_autoptr (SlStarSet) near = sl_star_set_load_list_full (f->project, "near", NULL, &error);
+  struct {
+    SlFigureKind       kind;
+    const char        *list;
+    const char *const *stars;
+    SlStarSet         *loaded;
+    const char        *loaded_list;
+    gboolean           reused;
+    const char        *message;
+  } cases[] = {
+    { SL_FIGURE_KIND_HR, NULL, NULL, all, NULL, TRUE, NULL },
+    { SL_FIGURE_KIND_SKY, NULL, one, all, NULL, TRUE, NULL },
+    { SL_FIGURE_KIND_SKY, "near", one, near, "near", TRUE, NULL },
+    { SL_FIGURE_KIND_HR, "near", NULL, all, NULL, FALSE, NULL },
+    { SL_FIGURE_KIND_HR, NULL, NULL, near, "near", FALSE, NULL },
+    { SL_FIGURE_KIND_PARALLAX, NULL, one, all, NULL, FALSE, NULL },
+    { SL_FIGURE_KIND_HR, NULL, NULL, NULL, NULL, FALSE, NULL },
+    { SL_FIGURE_KIND_SKY, "near", outside, near, "near", FALSE, "star 'A' is not in list 'near'" },
+  };
+
+  g_assert_no_error (error);
+  for (guint i = 0; i < G_N_ELEMENTS (cases); i++)
+    {
+      g_auto (SlFigureJob) job = { 0 };
+      g_autoptr (SlStarSet) reused = NULL;
+
+      sl_figure_job_init (&job, cases[i].kind);
+      sl_figure_job_set_list (&job, cases[i].list);
+      sl_figure_job_set_stars (&job, cases[i].stars);
+      reused = sl_figure_job_reuse (&job, cases[i].loaded, cases[i].loaded_list, path, &error);
+      g_assert_true (reused == (cases[i].reused ? cases[i].loaded : NULL));
+      if (cases[i].message)
+        {
+          g_autofree char *want = g_strdup_printf ("%s: %s", path, cases[i].message);
+
+          g_assert_error (error, SL_ERROR, SL_ERROR_UNKNOWN_NAME);
+          g_assert_cmpstr (error->message, ==, want);
+          g_clear_error (&error);
+        }
+      else
+        g_assert_no_error (error);
+      /* What a load of the same job gives, star for star. */
+      if (reused)
+        {
+          g_autoptr (SlStarSet) loaded = sl_figure_job_load (&job, f->project, NULL, &error);
+          g_autofree char *want = designations (loaded);
+          g_autofree char *got = designations (reused);
+
+          g_assert_cmpstr (got, ==, want);
+        }
+    }
+}
+
 /* Cancelled before it starts, a load of more stars than one cancel
  * interval stops; a run writes no file.  With fewer stars than that the
  * load finishes, and the run still refuses to write. */
@@ -442,6 +507,8 @@ main (int argc, char **argv)
   g_test_add ("/plot/figure-job/load/rules", SlTestProject, NULL, fixture_set_up, test_load_rules,
               sl_test_project_tear_down);
   g_test_add ("/plot/figure-job/load/unknown", SlTestProject, NULL, fixture_set_up, test_load_unknown,
+              sl_test_project_tear_down);
+  g_test_add ("/plot/figure-job/reuse", SlTestProject, NULL, fixture_set_up, test_reuse,
               sl_test_project_tear_down);
   g_test_add ("/plot/figure-job/load/cancelled", SlTestProject, NULL, fixture_set_up, test_load_cancelled,
               sl_test_project_tear_down);

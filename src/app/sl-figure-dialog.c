@@ -378,6 +378,21 @@ on_stars_loaded (GObject *source, GAsyncResult *result, gpointer user_data)
   gtk_widget_queue_draw (self->preview);
 }
 
+/* TRUE when the window's stars are the preview's (or the stars named are
+ * not among them: then the reason is the preview's). */
+static gboolean
+share_window_stars (SlFigureDialog *self)
+{
+  const char *list = NULL;
+  g_autoptr (SlStarSet) shown = sl_window_ref_stars (self->window, &list);
+  g_autoptr (GError) error = NULL;
+
+  self->stars = sl_figure_job_reuse (&self->job, shown, list, self->project, &error);
+  if (error)
+    self->load_error = g_strdup (error->message);
+  return self->stars != NULL || error != NULL;
+}
+
 /* The stars depend only on the list (and the selection, fixed while the
  * dialog is open): loaded again when the list changes. */
 static void
@@ -390,6 +405,15 @@ load_stars (SlFigureDialog *self)
   g_clear_object (&self->loading);
   g_clear_pointer (&self->stars, sl_star_set_free);
   g_clear_pointer (&self->load_error, g_free);
+  /* The window's views hold these stars already (at a million stars,
+   * hundreds of megabytes): the preview shares them.  The exported file
+   * is drawn from the project as it is then (export_thread). */
+  if (self->window && share_window_stars (self))
+    {
+      update_status (self);
+      gtk_widget_queue_draw (self->preview);
+      return;
+    }
   self->loading = g_cancellable_new ();
   d->project = g_strdup (self->project);
   copy_job (&d->job, &self->job);
@@ -631,6 +655,13 @@ sl_figure_dialog_get_format (SlFigureDialog *self)
 {
   g_return_val_if_fail (SL_IS_FIGURE_DIALOG (self), SL_FIGURE_FORMAT_PDF);
   return self->format;
+}
+
+const SlStarSet *
+sl_figure_dialog_get_stars (SlFigureDialog *self)
+{
+  g_return_val_if_fail (SL_IS_FIGURE_DIALOG (self), NULL);
+  return self->stars;
 }
 
 gboolean

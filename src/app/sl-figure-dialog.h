@@ -36,6 +36,9 @@ gboolean           sl_figure_dialog_export_to (SlFigureDialog *dialog, const cha
 /* For tests only (tests/test-gui.c): whether the preview's stars are
  * loaded (or failed to load); the command line shown. */
 gboolean           sl_figure_dialog_is_ready (SlFigureDialog *dialog);
+/* The stars the preview draws (not a new reference): for the HR diagram
+ * and the sky, the window's own (sl_window_ref_stars), not a copy. */
+const SlStarSet   *sl_figure_dialog_get_stars (SlFigureDialog *dialog);
 const char        *sl_figure_dialog_get_command_line (SlFigureDialog *dialog);
 
 G_END_DECLS

@@ -65,6 +65,7 @@ struct _SlWindow {
   SlPlotView      *views[3];          /* indexed by SlPlotKind */
   SlListsPanel    *lists;             /* the Lists page of side_notebook */
   char            *shown_list;        /* the table and views show only this list; NULL: every star */
+  char            *stars_list;        /* the list self->stars holds; NULL: every star */
 
   char            *path;              /* the open project, or NULL */
   char            *trail_star;        /* what the Trail shows: this star's ... */
@@ -268,8 +269,10 @@ on_catalogue_cell_activated (SlCatalogueView *view, const char *designation, con
 /* The project                                                        */
 
 static void
-set_stars (SlWindow *self, SlStarSet *stars)
+set_stars (SlWindow *self, SlStarSet *stars, const char *list)
 {
+  g_free (self->stars_list);
+  self->stars_list = g_strdup (list);
   for (guint i = 0; i < G_N_ELEMENTS (self->views); i++)
     sl_plot_view_set_stars (self->views[i], stars);
   g_clear_pointer (&self->stars, sl_star_set_free);
@@ -312,7 +315,7 @@ on_stars_loaded (GObject *source, GAsyncResult *result, gpointer user_data)
         toast (self, error->message);
       return;
     }
-  set_stars (self, stars);
+  set_stars (self, stars, ((const char *const *) g_task_get_task_data (G_TASK (result)))[1]);
 }
 
 /* Loads the views' stars off the main thread: a million stars take seconds. */
@@ -1089,6 +1092,7 @@ sl_window_dispose (GObject *object)
     if (self->views[i])
       sl_plot_view_set_stars (self->views[i], NULL);
   g_clear_pointer (&self->stars, sl_star_set_free);
+  g_clear_pointer (&self->stars_list, g_free);
   g_clear_pointer (&self->selection, g_strfreev);
   g_clear_pointer (&self->path, g_free);
   g_clear_pointer (&self->trail_star, g_free);
@@ -1247,6 +1251,15 @@ sl_window_get_selection (SlWindow *self)
 
 /* ------------------------------------------------------------------ */
 /* For the window's dialogs and panels                                */
+
+SlStarSet *
+sl_window_ref_stars (SlWindow *self, const char **list)
+{
+  g_return_val_if_fail (SL_IS_WINDOW (self), NULL);
+  if (list)
+    *list = self->stars_list;
+  return self->stars ? sl_star_set_ref (self->stars) : NULL;
+}
 
 const char *
 sl_window_get_project_path (SlWindow *self)

@@ -36,6 +36,11 @@ void      sl_window_report_progress (double fraction, gpointer window);
 gboolean  sl_window_is_working (SlWindow *window);
 /* The open project's path (borrowed; NULL: none); a toast; reading the
  * project again after it changed (table, views, Trail, Ledger). */
+/* The stars the views draw (a new reference; NULL while none are loaded)
+ * and in *LIST the target list they are (NULL: every star): a dialog that
+ * previews a figure of the same stars shares them instead of loading a
+ * second copy. */
+SlStarSet  *sl_window_ref_stars (SlWindow *self, const char **list);
 const char *sl_window_get_project_path (SlWindow *window);
 void      sl_window_toast (SlWindow *window, const char *message);
 void      sl_window_add_toast (SlWindow *window, AdwToast *toast);   /* takes TOAST */

@@ -107,8 +107,11 @@ static gboolean
 check_stars_exist (const SlStarSet *stars, char **wanted, const char *project, const char *list,
                    GError **error)
 {
-  g_autoptr (GHashTable) known = g_hash_table_new (g_str_hash, g_str_equal);
+  g_autoptr (GHashTable) known = NULL;
 
+  if (wanted == NULL || wanted[0] == NULL)
+    return TRUE;
+  known = g_hash_table_new (g_str_hash, g_str_equal);
   for (guint i = 0; i < stars->stars->len; i++)
     g_hash_table_add (known, (gpointer) sl_star_set_get (stars, i)->designation);
   for (guint i = 0; wanted && wanted[i]; i++)
@@ -158,6 +161,19 @@ sl_figure_job_load (const SlFigureJob *job, SlProject *project, GCancellable *ca
         return NULL;
     }
   return g_steal_pointer (&stars);
+}
+
+SlStarSet *
+sl_figure_job_reuse (const SlFigureJob *job, SlStarSet *loaded, const char *loaded_list, const char *project_path,
+                     GError **error)
+{
+  g_return_val_if_fail (job != NULL, NULL);
+
+  if (loaded == NULL || job->kind == SL_FIGURE_KIND_PARALLAX || g_strcmp0 (job->list, loaded_list) != 0)
+    return NULL;
+  if (!check_stars_exist (loaded, job->stars, project_path, job->list, error))
+    return NULL;
+  return sl_star_set_ref (loaded);
 }
 
 /* ------------------------------------------------------------------ */

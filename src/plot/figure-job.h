@@ -54,6 +54,13 @@ void sl_figure_job_set_list (SlFigureJob *job, const char *list);
  * hr and sky (the stars named must be among them); for parallax only the
  * stars named (which must be in the list, if one is given), none if none
  * is.  Cancelled: G_IO_ERROR_CANCELLED. */
+/* The same stars from a set already loaded by sl_star_set_load_full (every
+ * star, LOADED_LIST NULL) or sl_star_set_load_list_full (LOADED_LIST): a
+ * new reference to LOADED when it is what sl_figure_job_load would load
+ * (hr and sky, the same list, the stars named among them); NULL otherwise,
+ * with ERROR set only when a star named is not there. */
+SlStarSet *sl_figure_job_reuse (const SlFigureJob *job, SlStarSet *loaded, const char *loaded_list,
+                                const char *project_path, GError **error);
 SlStarSet *sl_figure_job_load (const SlFigureJob *job, SlProject *project, GCancellable *cancellable,
                                GError **error);
 
