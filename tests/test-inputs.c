@@ -1,9 +1,11 @@
 /* test-inputs.c: choosing one set of inputs per star among the
  * measurements of several sources. */
 #include <locale.h>
+#include <math.h>
 #include <string.h>
 
 #include "import.h"
+#include "input-reader.h"
 #include "inputs.h"
 #include "test-util.h"
 
@@ -139,6 +141,122 @@ test_single_star_cursor (SlTestProject *f, gconstpointer data)
   g_assert_no_error (error);
 }
 
+/* ------------------------------------------------------------------ */
+/* The inputs read ahead on a thread (input-reader.c)                 */
+
+#define READER_STARS 3000
+
+/* Two sources over READER_STARS stars (more than the reader holds in its
+ * chunks at once), the second with parallaxes for every other star and
+ * spectral types; star 10 has lost its measurements, so it is a star
+ * without inputs. */
+static void
+import_reader_stars (SlTestProject *f)
+{
+  g_autoptr (GString) a = g_string_new ("id,ra,dec,parallax,parallax_err,vmag\n");
+  g_autoptr (GString) b = g_string_new ("id,parallax,parallax_err,sptype\n");
+
+  for (int i = 0; i < READER_STARS; i++)
+    {
+      g_string_append_printf (a, "R%04d,%d.5,%d.25,%d.5,0.%d,%d.1\n", i, i % 360, i % 90 - 45, i % 50 + 1,
+                              i % 9 + 1, i % 15);
+      if (i % 2 == 0)
+        g_string_append_printf (b, "R%04d,%d.25,0.%d,G%d V\n", i, i % 50 + 1, i % 7 + 1, i % 10);
+    }
+  import_text (f, "a.csv", a->str);
+  import_text (f, "b.csv", b->str);
+  g_assert_true (sl_project_exec (f->project, "DELETE FROM measurements WHERE star_id = 10", NULL));
+}
+
+static void
+assert_same_inputs (const SlStarInputs *got, const SlStarInputs *want)
+{
+  g_assert_cmpint (got->star_id, ==, want->star_id);
+  g_assert_cmpstr (got->designation, ==, want->designation);
+  g_assert_cmpstr (got->sptype, ==, want->sptype);
+  g_assert_cmpuint (got->n_measurements, ==, want->n_measurements);
+  g_assert_cmpmem (got->present, sizeof got->present, want->present, sizeof want->present);
+  g_assert_cmpmem (got->measurement, sizeof got->measurement, want->measurement, sizeof want->measurement);
+  for (SlField f = 0; f < SL_N_FIELDS; f++)
+    if (!isnan (want->value[f]) || !isnan (got->value[f]))   /* the spectral type has none */
+      g_assert_cmpfloat (got->value[f], ==, want->value[f]);
+}
+
+/* The reader hands over exactly the wanted stars that have inputs, in
+ * order, with the inputs the plain cursor gives them: on its own thread
+ * in WAL mode (DATA NULL), on the caller's connection in the rollback
+ * journal mode (DATA "delete"). */
+static void
+test_reader_same_as_cursor (SlTestProject *f, gconstpointer data)
+{
+  g_autoptr (GError) error = NULL;
+  g_autoptr (GArray) ids = g_array_new (FALSE, FALSE, sizeof (gint64));
+  g_autoptr (SlInputCursor) cursor = NULL;
+  g_autoptr (SlInputReader) reader = NULL;
+  g_autofree char *mode = NULL;
+  SlStarInputs want, got;
+  guint next = 0, n = 0;
+
+  import_reader_stars (f);
+  if (data != NULL)
+    g_assert_true (sl_project_exec (f->project, "PRAGMA journal_mode = DELETE", NULL));
+  mode = sl_test_query_text (f->db, "PRAGMA journal_mode");
+  g_assert_cmpstr (mode, ==, data ? "delete" : "wal");
+  /* Every third star, star 10 (no inputs), and every star from 2000 on. */
+  for (gint64 id = 1; id <= READER_STARS; id++)
+    if (id % 3 == 1 || id == 10 || id >= 2000)
+      g_array_append_val (ids, id);
+
+  g_assert_true (sl_project_begin (f->project, &error));
+  reader = sl_input_reader_new (f->project, ids, &error);
+  g_assert_no_error (error);
+  cursor = sl_input_cursor_new (f->project, 0, &error);
+  while (sl_input_cursor_next (cursor, &want, &error))
+    {
+      while (next < ids->len && g_array_index (ids, gint64, next) < want.star_id)
+        next++;
+      if (next == ids->len || g_array_index (ids, gint64, next) != want.star_id)
+        continue;
+      g_assert_true (sl_input_reader_next (reader, &got, &error));
+      assert_same_inputs (&got, &want);
+      n++;
+    }
+  g_assert_no_error (error);
+  g_assert_false (sl_input_reader_next (reader, &got, &error));
+  g_assert_false (sl_input_reader_next (reader, &got, &error));   /* and stays at the end */
+  g_assert_no_error (error);
+  g_assert_cmpuint (n, ==, ids->len - 1);   /* all but star 10 */
+  sl_project_rollback (f->project);
+}
+
+/* A caller that stops early (an error, a cancelled run) frees the reader
+ * while its thread is ahead, or before it read anything: nothing hangs. */
+static void
+test_reader_stops_early (SlTestProject *f, gconstpointer data)
+{
+  g_autoptr (GError) error = NULL;
+  g_autoptr (GArray) ids = g_array_new (FALSE, FALSE, sizeof (gint64));
+  SlStarInputs in;
+
+  import_reader_stars (f);
+  for (gint64 id = 1; id <= READER_STARS; id++)
+    g_array_append_val (ids, id);
+  g_assert_true (sl_project_begin (f->project, &error));
+  for (int taken = 0; taken < 600; taken += 300)
+    {
+      SlInputReader *reader = sl_input_reader_new (f->project, ids, &error);
+
+      g_assert_no_error (error);
+      for (int i = 0; i < taken; i++)
+        {
+          g_assert_true (sl_input_reader_next (reader, &in, &error));
+          g_assert_cmpint (in.star_id, ==, i < 9 ? i + 1 : i + 2);   /* star 10 has no inputs */
+        }
+      sl_input_reader_free (reader);
+    }
+  sl_project_rollback (f->project);
+}
+
 int
 main (int argc, char **argv)
 {
@@ -152,6 +270,12 @@ main (int argc, char **argv)
   ADD ("/inputs/random-against-reference", test_random_against_reference);
   ADD ("/inputs/single-star", test_single_star_cursor);
 #undef ADD
+  g_test_add ("/inputs/reader/same-as-cursor/wal", SlTestProject, NULL, sl_test_project_set_up,
+              test_reader_same_as_cursor, sl_test_project_tear_down);
+  g_test_add ("/inputs/reader/same-as-cursor/rollback-journal", SlTestProject, "delete",
+              sl_test_project_set_up, test_reader_same_as_cursor, sl_test_project_tear_down);
+  g_test_add ("/inputs/reader/stops-early", SlTestProject, NULL, sl_test_project_set_up,
+              test_reader_stops_early, sl_test_project_tear_down);
 
   return g_test_run ();
 }

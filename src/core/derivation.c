@@ -16,7 +16,7 @@
 #include <string.h>
 
 #include "derive/pool.h"
-#include "inputs.h"
+#include "input-reader.h"
 #include "ledger.h"
 #include "sl-error.h"
 #include "util.h"
@@ -657,7 +657,7 @@ run_in_transaction (SlProject *project, const SlDeriveParams *params, gboolean a
   sqlite3_stmt *update = NULL;
   g_autoptr (GArray) ids = NULL;
   g_autoptr (GHashTable) overrides = NULL;
-  g_autoptr (SlInputCursor) cursor = NULL;
+  g_autoptr (SlInputReader) reader = NULL;
   g_autoptr (SlDerivePool) pool = NULL;
   g_autoptr (GTimer) timer = g_timer_new ();
   sqlite3_stmt *insert = NULL;
@@ -665,7 +665,6 @@ run_in_transaction (SlProject *project, const SlDeriveParams *params, gboolean a
   GError *local = NULL;
   guint64 total;
   gint64 last_derived = 0;
-  guint next = 0;
   gboolean read_all = FALSE;
   /* Monte Carlo stars take a thousand times longer: report them often. */
   guint check_every = params->errors == SL_ERRORS_MONTE_CARLO ? 64 : ROWS_PER_CHECK;
@@ -685,8 +684,8 @@ run_in_transaction (SlProject *project, const SlDeriveParams *params, gboolean a
   report->run_id = last_derived >= 0 ? insert_run (project, params_text, started, error) : 0;
   insert = report->run_id ? sl_project_prepare (project, insert_sql, error) : NULL;
   update = insert ? sl_project_prepare (project, update_sql, error) : NULL;
-  cursor = update ? sl_input_cursor_new (project, 0, error) : NULL;
-  if (cursor == NULL)
+  reader = update ? sl_input_reader_new (project, ids, error) : NULL;
+  if (reader == NULL)
     {
       sqlite3_finalize (insert);
       sqlite3_finalize (update);
@@ -694,8 +693,9 @@ run_in_transaction (SlProject *project, const SlDeriveParams *params, gboolean a
       return FALSE;
     }
 
-  /* This thread reads and writes (one SQLite connection, one thread);
-   * the pool derives, in order, on as many threads as there are cores. */
+  /* This thread writes (one SQLite connection, one thread), the reader
+   * reads on a thread of its own; the pool derives, in order, on as many
+   * threads as there are cores. */
   pool = sl_derive_pool_new (params, sl_derive_threads (), cancellable);
   for (;;)
     {
@@ -705,14 +705,11 @@ run_in_transaction (SlProject *project, const SlDeriveParams *params, gboolean a
         {
           GArray *star_overrides;
 
-          if (next == ids->len || !sl_input_cursor_next (cursor, &inputs, &local))
+          if (!sl_input_reader_next (reader, &inputs, &local))
             {
               read_all = TRUE;
               break;
             }
-          if (inputs.star_id != g_array_index (ids, gint64, next))
-            continue;
-          next++;
           star_overrides = g_hash_table_lookup (overrides, &inputs.star_id);
           sl_derive_pool_push (pool, &inputs,
                                star_overrides ? (const SlOverride *) star_overrides->data : NULL,
