@@ -392,6 +392,7 @@ test_cancel_midway (SlTestProject *f, gconstpointer data)
   g_assert_cmpint (sl_test_query_int (f->db, "SELECT count(*) FROM stars"), ==, 0);
   g_assert_cmpint (sl_test_query_int (f->db, "SELECT count(*) FROM measurements"), ==, 0);
   g_assert_cmpint (sl_test_query_int (f->db, "SELECT count(*) FROM ledger"), ==, 1);
+  g_assert_cmpint (sl_test_query_int (f->db, "PRAGMA foreign_keys"), ==, 1);
 }
 
 /* The records are parsed on a thread of their own, ahead of the writes,
@@ -453,6 +454,10 @@ test_parsed_ahead_in_order (SlTestProject *f, gconstpointer data)
                                       "OR m.line <> CAST (substr (s.designation, 2) AS INTEGER) + 2"),
                    ==, 0);
   g_assert_cmpint (sl_test_query_int (f->db, "SELECT count(*) FROM rejected_rows"), ==, refused);
+  /* Written without checking references, which are all sound, and
+   * checked again from here on. */
+  g_assert_cmpint (sl_test_query_int (f->db, "SELECT count(*) FROM pragma_foreign_key_check"), ==, 0);
+  g_assert_cmpint (sl_test_query_int (f->db, "PRAGMA foreign_keys"), ==, 1);
 }
 
 static void
