@@ -1,9 +1,11 @@
 /* test-inputs.c: choosing one set of inputs per star among the
  * measurements of several sources. */
 #include <locale.h>
+#include <glib/gstdio.h>
 #include <math.h>
 #include <string.h>
 
+#include "derivation.h"
 #include "import.h"
 #include "input-reader.h"
 #include "inputs.h"
@@ -257,6 +259,45 @@ test_reader_stops_early (SlTestProject *f, gconstpointer data)
   sl_project_rollback (f->project);
 }
 
+/* A run's reader lets go of its snapshot before the run commits, so the
+ * checkpoint after the commit (SQLite's automatic one, past 1000 pages in
+ * the write-ahead log) copies the run's pages into the project file at
+ * once; a snapshot from before the run would hold them back in the log
+ * until some later commit.  The run here stops reading before the end:
+ * the last star is up to date, and the reader's cursor is left open. */
+static void
+test_reader_done_before_commit (SlTestProject *f, gconstpointer data)
+{
+  g_autoptr (GString) csv = g_string_new ("id,ra,dec,parallax,parallax_err,vmag,vmag_err,bv,bv_err\n");
+  g_autoptr (GError) error = NULL;
+  g_autofree char *last = NULL;
+  SlDeriveParams params;
+  SlDeriveReport report;
+  GStatBuf before, after;
+  const int n = 20000;
+
+  for (int i = 0; i < n; i++)
+    g_string_append_printf (csv, "C%05d,%d.5,%d.25,%d.5,0.%d,%d.1,0.02,0.%d,0.03\n", i, i % 360, i % 90 - 45,
+                            i % 50 + 1, i % 9 + 1, i % 15, i % 9);
+  import_text (f, "c.csv", csv->str);
+  sl_derive_params_init (&params);
+  g_assert_true (sl_derivation_run (f->project, &params, FALSE, NULL, NULL, NULL, &report, &error));
+  g_assert_no_error (error);
+  /* Every row but the last star's gone, and the file shrunk to match. */
+  last = g_strdup_printf ("DELETE FROM derived WHERE star_id < %d; VACUUM; PRAGMA wal_checkpoint (TRUNCATE)", n);
+  g_assert_true (sl_project_exec (f->project, last, &error));
+  g_assert_no_error (error);
+  g_assert_cmpint (g_stat (sl_project_path (f->project), &before), ==, 0);
+
+  g_assert_true (sl_derivation_run (f->project, &params, FALSE, NULL, NULL, NULL, &report, &error));
+  g_assert_no_error (error);
+  g_assert_cmpuint (report.computed, ==, (guint64) n - 1);
+  g_assert_cmpuint (report.up_to_date, ==, 1);
+  g_assert_cmpint (g_stat (sl_project_path (f->project), &after), ==, 0);
+  /* A derived row takes a few hundred bytes. */
+  g_assert_cmpint (after.st_size - before.st_size, >, (goffset) n * 200);
+}
+
 int
 main (int argc, char **argv)
 {
@@ -276,6 +317,8 @@ main (int argc, char **argv)
               sl_test_project_set_up, test_reader_same_as_cursor, sl_test_project_tear_down);
   g_test_add ("/inputs/reader/stops-early", SlTestProject, NULL, sl_test_project_set_up,
               test_reader_stops_early, sl_test_project_tear_down);
+  g_test_add ("/inputs/reader/done-before-commit", SlTestProject, NULL, sl_test_project_set_up,
+              test_reader_done_before_commit, sl_test_project_tear_down);
 
   return g_test_run ();
 }

@@ -594,11 +594,10 @@ finish_run (SlProject *project, const SlDeriveParams *params, SlDeriveReport *re
   return sl_ledger_append (project, "derive", summary, details, error);
 }
 
-/* The largest star id with a derived row (0: none).  Stars are derived
- * in id order, so every star above it is new to the derived table and
- * its row is inserted straight away: trying an UPDATE first binds the
- * whole row twice and looks the star up for nothing, which made the
- * first derive of a million stars twice as slow as a re-derive. */
+/* The largest star id with a derived row (0: none).  No star above it
+ * has a row, so its row is inserted straight away: trying an UPDATE
+ * first bound the whole row twice and looked the star up for nothing,
+ * which made the first derive of a million stars slower than a re-derive. */
 static gint64
 last_derived_star (SlProject *project, GError **error)
 {
@@ -726,6 +725,10 @@ run_in_transaction (SlProject *project, const SlDeriveParams *params, gboolean a
       if (report->computed % check_every == 0 && progress)
         progress ((double) report->computed / ids->len, progress_data);
     }
+  /* Done with before the commit: the reader's snapshot would keep the
+   * checkpoint that follows it from copying this run's pages into the
+   * file. */
+  g_clear_pointer (&reader, sl_input_reader_free);
   sqlite3_finalize (insert);
   sqlite3_finalize (update);
 
