@@ -395,6 +395,72 @@ test_cancel_midway (SlTestProject *f, gconstpointer data)
   g_assert_cmpint (sl_test_query_int (f->db, "SELECT count(*) FROM stars"), ==, 0);
   g_assert_cmpint (sl_test_query_int (f->db, "SELECT count(*) FROM measurements"), ==, 0);
   g_assert_cmpint (sl_test_query_int (f->db, "SELECT count(*) FROM ledger"), ==, 1);
+  g_assert_cmpint (sl_test_query_int (f->db, "PRAGMA foreign_keys"), ==, 1);
+}
+
+/* The records are parsed on a thread of their own, ahead of the writes,
+ * in chunks: over many chunks every row is stored with its own values
+ * and texts, and every refused row is reported with its own line and
+ * reason, in the file's order. */
+static void
+test_parsed_ahead_in_order (SlTestProject *f, gconstpointer data)
+{
+  g_autoptr (GString) contents = g_string_new ("id,parallax,parallax_err,sptype\n");
+  g_autoptr (GError) error = NULL;
+  g_autoptr (SlImportReport) report = NULL;
+  g_autoptr (GPtrArray) want = g_ptr_array_new_with_free_func (g_free);
+  guint refused = 0;
+
+  for (int i = 0; i < 5000; i++)
+    {
+      guint line = (guint) i + 2;
+
+      if (i % 997 == 996)
+        {
+          g_string_append_printf (contents, "S%d,x%d,0.1,G%d V\n", i, i, i % 10);
+          g_ptr_array_add (want, g_strdup_printf ("%u parallax not a number: 'x%d'", line, i));
+        }
+      else if (i % 1301 == 1300)
+        {
+          g_string_append_printf (contents, "S%d,%d.25,0.1,G%d V,extra\n", i, i % 900, i % 10);
+          g_ptr_array_add (want, g_strdup_printf ("%u - the row has 5 fields, the header has 4", line));
+        }
+      else if (i == 4321)
+        {
+          g_string_append (contents, "S3,1.5,0.1,K0 III\n");
+          g_ptr_array_add (want, g_strdup_printf ("%u id id 'S3' appears twice in this file (first on line 5)",
+                                                  line));
+        }
+      else
+        g_string_append_printf (contents, "S%d,%d.25,0.1,G%d V\n", i, i % 900, i % 10);
+    }
+
+  report = import_with (f, "chunks.csv", contents->str, -1, NULL, NULL, &error);
+  g_assert_no_error (error);
+  g_assert_cmpuint (report->rows_read, ==, 5000);
+  g_assert_cmpuint (report->rejections->len, ==, want->len);
+  for (guint i = 0; i < report->rejections->len; i++)
+    {
+      const SlRejection *r = &g_array_index (report->rejections, SlRejection, i);
+      g_autofree char *got = g_strdup_printf ("%u %s %s", r->line, r->column ? r->column : "-", r->reason);
+
+      g_assert_cmpstr (got, ==, g_ptr_array_index (want, i));
+      refused++;
+    }
+  g_assert_cmpuint (report->rows_accepted, ==, 5000 - refused);
+  g_assert_cmpint (sl_test_query_int (f->db, "SELECT count(*) FROM measurements"), ==, 5000 - refused);
+  /* Each stored row has the values of its own line. */
+  g_assert_cmpint (sl_test_query_int (f->db,
+                                      "SELECT count(*) FROM measurements m JOIN stars s ON s.id = m.star_id "
+                                      "WHERE m.parallax <> CAST (substr (s.designation, 2) AS INTEGER) % 900 + 0.25 "
+                                      "OR m.sptype <> 'G' || (CAST (substr (s.designation, 2) AS INTEGER) % 10) || ' V' "
+                                      "OR m.line <> CAST (substr (s.designation, 2) AS INTEGER) + 2"),
+                   ==, 0);
+  g_assert_cmpint (sl_test_query_int (f->db, "SELECT count(*) FROM rejected_rows"), ==, refused);
+  /* Written without checking references, which are all sound, and
+   * checked again from here on. */
+  g_assert_cmpint (sl_test_query_int (f->db, "SELECT count(*) FROM pragma_foreign_key_check"), ==, 0);
+  g_assert_cmpint (sl_test_query_int (f->db, "PRAGMA foreign_keys"), ==, 1);
 }
 
 static void
@@ -953,6 +1019,7 @@ main (int argc, char **argv)
                   test_whole_file_failure, sl_test_project_tear_down);
     }
   ADD ("/import/transaction/cancel-midway-leaves-nothing", test_cancel_midway);
+  ADD ("/import/transaction/parsed-ahead-in-order", test_parsed_ahead_in_order);
   ADD ("/import/reimport-guard", test_reimport_guard);
   ADD ("/import/provenance", test_provenance);
   ADD ("/import/note/missing-epoch", test_note_missing_epoch);

@@ -1,11 +1,14 @@
 /* test-inputs.c: choosing one set of inputs per star among the
  * measurements of several sources. */
 #include <locale.h>
+#include <glib/gstdio.h>
 #include <math.h>
 #include <string.h>
 
+#include "derivation.h"
 #include "derive/derive.h"
 #include "import.h"
+#include "input-reader.h"
 #include "inputs.h"
 #include "sl-error.h"
 #include "test-util.h"
@@ -380,6 +383,169 @@ test_choose_again (SlTestProject *f, gconstpointer data)
   g_assert_cmpint (other.star_id, ==, in.star_id);
 }
 
+/* ------------------------------------------------------------------ */
+/* The inputs read ahead on a thread (input-reader.c)                 */
+
+#define READER_STARS 3000
+
+/* Two sources over READER_STARS stars (more than the reader holds in its
+ * chunks at once), the second with parallaxes for every other star and
+ * spectral types; star 10 has lost its measurements, so it is a star
+ * without inputs. */
+static void
+import_reader_stars (SlTestProject *f)
+{
+  g_autoptr (GString) a = g_string_new ("id,ra,dec,parallax,parallax_err,vmag\n");
+  g_autoptr (GString) b = g_string_new ("id,parallax,parallax_err,sptype\n");
+
+  for (int i = 0; i < READER_STARS; i++)
+    {
+      g_string_append_printf (a, "R%04d,%d.5,%d.25,%d.5,0.%d,%d.1\n", i, i % 360, i % 90 - 45, i % 50 + 1,
+                              i % 9 + 1, i % 15);
+      if (i % 2 == 0)
+        g_string_append_printf (b, "R%04d,%d.25,0.%d,G%d V\n", i, i % 50 + 1, i % 7 + 1, i % 10);
+    }
+  import_text (f, "a.csv", a->str);
+  import_text (f, "b.csv", b->str);
+  g_assert_true (sl_project_exec (f->project, "DELETE FROM measurements WHERE star_id = 10", NULL));
+}
+
+static void
+assert_same_inputs (const SlStarInputs *got, const SlStarInputs *want)
+{
+  g_assert_cmpint (got->star_id, ==, want->star_id);
+  g_assert_cmpstr (got->designation, ==, want->designation);
+  g_assert_cmpstr (got->sptype, ==, want->sptype);
+  g_assert_cmpuint (got->n_measurements, ==, want->n_measurements);
+  g_assert_cmpmem (got->present, sizeof got->present, want->present, sizeof want->present);
+  g_assert_cmpmem (got->measurement, sizeof got->measurement, want->measurement, sizeof want->measurement);
+  for (SlField f = 0; f < SL_N_FIELDS; f++)
+    if (!isnan (want->value[f]) || !isnan (got->value[f]))   /* the spectral type has none */
+      g_assert_cmpfloat (got->value[f], ==, want->value[f]);
+  g_assert_cmpmem (got->n_combined, sizeof got->n_combined, want->n_combined, sizeof want->n_combined);
+  g_assert_cmpuint (got->flags, ==, want->flags);
+}
+
+/* The reader hands over exactly the wanted stars that have inputs, in
+ * order, with the inputs the plain cursor gives them: on its own thread
+ * in WAL mode (DATA NULL), on the caller's connection in the rollback
+ * journal mode (DATA "delete"). */
+static void
+test_reader_same_as_cursor (SlTestProject *f, gconstpointer data)
+{
+  g_autoptr (GError) error = NULL;
+  g_autoptr (GArray) ids = g_array_new (FALSE, FALSE, sizeof (gint64));
+  g_autoptr (SlInputCursor) cursor = NULL;
+  g_autoptr (SlInputReader) reader = NULL;
+  g_autofree char *mode = NULL;
+  SlCombinePolicy policy;
+  SlStarInputs want, got;
+  guint next = 0, n = 0;
+
+  /* A run's policy that averages: the reader chooses as the cursor does. */
+  sl_combine_policy_init (&policy);
+  policy.rule[SL_FIELD_PARALLAX] = SL_COMBINE_WEIGHTED_MEAN;
+  import_reader_stars (f);
+  if (data != NULL)
+    g_assert_true (sl_project_exec (f->project, "PRAGMA journal_mode = DELETE", NULL));
+  mode = sl_test_query_text (f->db, "PRAGMA journal_mode");
+  g_assert_cmpstr (mode, ==, data ? "delete" : "wal");
+  /* Every third star, star 10 (no inputs), and every star from 2000 on. */
+  for (gint64 id = 1; id <= READER_STARS; id++)
+    if (id % 3 == 1 || id == 10 || id >= 2000)
+      g_array_append_val (ids, id);
+
+  g_assert_true (sl_project_begin (f->project, &error));
+  reader = sl_input_reader_new (f->project, ids, &policy, &error);
+  g_assert_no_error (error);
+  cursor = sl_input_cursor_new_with_policy (f->project, 0, &policy, &error);
+  while (sl_input_cursor_next (cursor, &want, &error))
+    {
+      while (next < ids->len && g_array_index (ids, gint64, next) < want.star_id)
+        next++;
+      if (next == ids->len || g_array_index (ids, gint64, next) != want.star_id)
+        continue;
+      g_assert_true (sl_input_reader_next (reader, &got, &error));
+      assert_same_inputs (&got, &want);
+      n++;
+    }
+  g_assert_no_error (error);
+  g_assert_false (sl_input_reader_next (reader, &got, &error));
+  g_assert_false (sl_input_reader_next (reader, &got, &error));   /* and stays at the end */
+  g_assert_no_error (error);
+  g_assert_cmpuint (n, ==, ids->len - 1);   /* all but star 10 */
+  sl_project_rollback (f->project);
+}
+
+/* A caller that stops early (an error, a cancelled run) frees the reader
+ * while its thread is ahead, or before it read anything: nothing hangs. */
+static void
+test_reader_stops_early (SlTestProject *f, gconstpointer data)
+{
+  g_autoptr (GError) error = NULL;
+  g_autoptr (GArray) ids = g_array_new (FALSE, FALSE, sizeof (gint64));
+  SlCombinePolicy policy;
+  SlStarInputs in;
+
+  sl_combine_policy_init (&policy);
+  import_reader_stars (f);
+  for (gint64 id = 1; id <= READER_STARS; id++)
+    g_array_append_val (ids, id);
+  g_assert_true (sl_project_begin (f->project, &error));
+  for (int taken = 0; taken < 600; taken += 300)
+    {
+      SlInputReader *reader = sl_input_reader_new (f->project, ids, &policy, &error);
+
+      g_assert_no_error (error);
+      for (int i = 0; i < taken; i++)
+        {
+          g_assert_true (sl_input_reader_next (reader, &in, &error));
+          g_assert_cmpint (in.star_id, ==, i < 9 ? i + 1 : i + 2);   /* star 10 has no inputs */
+        }
+      sl_input_reader_free (reader);
+    }
+  sl_project_rollback (f->project);
+}
+
+/* A run's reader lets go of its snapshot before the run commits, so the
+ * checkpoint after the commit (SQLite's automatic one, past 1000 pages in
+ * the write-ahead log) copies the run's pages into the project file at
+ * once; a snapshot from before the run would hold them back in the log
+ * until some later commit.  The run here stops reading before the end:
+ * the last star is up to date, and the reader's cursor is left open. */
+static void
+test_reader_done_before_commit (SlTestProject *f, gconstpointer data)
+{
+  g_autoptr (GString) csv = g_string_new ("id,ra,dec,parallax,parallax_err,vmag,vmag_err,bv,bv_err\n");
+  g_autoptr (GError) error = NULL;
+  g_autofree char *last = NULL;
+  SlDeriveParams params;
+  SlDeriveReport report;
+  GStatBuf before, after;
+  const int n = 20000;
+
+  for (int i = 0; i < n; i++)
+    g_string_append_printf (csv, "C%05d,%d.5,%d.25,%d.5,0.%d,%d.1,0.02,0.%d,0.03\n", i, i % 360, i % 90 - 45,
+                            i % 50 + 1, i % 9 + 1, i % 15, i % 9);
+  import_text (f, "c.csv", csv->str);
+  sl_derive_params_init (&params);
+  g_assert_true (sl_derivation_run (f->project, &params, FALSE, NULL, NULL, NULL, &report, &error));
+  g_assert_no_error (error);
+  /* Every row but the last star's gone, and the file shrunk to match. */
+  last = g_strdup_printf ("DELETE FROM derived WHERE star_id < %d; VACUUM; PRAGMA wal_checkpoint (TRUNCATE)", n);
+  g_assert_true (sl_project_exec (f->project, last, &error));
+  g_assert_no_error (error);
+  g_assert_cmpint (g_stat (sl_project_path (f->project), &before), ==, 0);
+
+  g_assert_true (sl_derivation_run (f->project, &params, FALSE, NULL, NULL, NULL, &report, &error));
+  g_assert_no_error (error);
+  g_assert_cmpuint (report.computed, ==, (guint64) n - 1);
+  g_assert_cmpuint (report.up_to_date, ==, 1);
+  g_assert_cmpint (g_stat (sl_project_path (f->project), &after), ==, 0);
+  /* A derived row takes a few hundred bytes. */
+  g_assert_cmpint (after.st_size - before.st_size, >, (goffset) n * 200);
+}
+
 int
 main (int argc, char **argv)
 {
@@ -400,6 +566,14 @@ main (int argc, char **argv)
   ADD ("/inputs/combine/policy-setting", test_policy_setting);
   ADD ("/inputs/combine/choose-again", test_choose_again);
 #undef ADD
+  g_test_add ("/inputs/reader/same-as-cursor/wal", SlTestProject, NULL, sl_test_project_set_up,
+              test_reader_same_as_cursor, sl_test_project_tear_down);
+  g_test_add ("/inputs/reader/same-as-cursor/rollback-journal", SlTestProject, "delete",
+              sl_test_project_set_up, test_reader_same_as_cursor, sl_test_project_tear_down);
+  g_test_add ("/inputs/reader/stops-early", SlTestProject, NULL, sl_test_project_set_up,
+              test_reader_stops_early, sl_test_project_tear_down);
+  g_test_add ("/inputs/reader/done-before-commit", SlTestProject, NULL, sl_test_project_set_up,
+              test_reader_done_before_commit, sl_test_project_tear_down);
 
   return g_test_run ();
 }

@@ -16,7 +16,7 @@
 #include <string.h>
 
 #include "derive/pool.h"
-#include "inputs.h"
+#include "input-reader.h"
 #include "ledger.h"
 #include "sl-error.h"
 #include "util.h"
@@ -67,7 +67,7 @@ derived_insert_sql (const char *columns)
 {
   GString *sql = g_string_new (NULL);
 
-  g_string_append_printf (sql, "INSERT OR REPLACE INTO derived (star_id, run_id, %s) VALUES (?, ?", columns);
+  g_string_append_printf (sql, "INSERT INTO derived (star_id, run_id, %s) VALUES (?, ?", columns);
   for (const char *p = columns; *p; p++)
     if (*p == ',')
       g_string_append (sql, ", ?");
@@ -594,14 +594,35 @@ finish_run (SlProject *project, const SlDeriveParams *params, SlDeriveReport *re
   return sl_ledger_append (project, "derive", summary, details, error);
 }
 
-/* Writes one star's derived row: over the one it has (UPDATE keeps the
- * row where it is, which costs less than INSERT OR REPLACE's delete and
- * insert), or as a new row. */
+/* The largest star id with a derived row (0: none).  No star above it
+ * has a row, so its row is inserted straight away: trying an UPDATE
+ * first bound the whole row twice and looked the star up for nothing,
+ * which made the first derive of a million stars slower than a re-derive. */
+static gint64
+last_derived_star (SlProject *project, GError **error)
+{
+  sqlite3_stmt *stmt = sl_project_prepare (project, "SELECT max(star_id) FROM derived", error);
+  gint64 id = -1;
+
+  if (stmt == NULL)
+    return -1;
+  if (sqlite3_step (stmt) == SQLITE_ROW)
+    id = sqlite3_column_int64 (stmt, 0);   /* NULL, no rows: 0 */
+  else
+    sl_project_set_db_error (project, error, "derived");
+  sqlite3_finalize (stmt);
+  return id;
+}
+
+/* Writes one star's derived row: over the one it may have (UPDATE keeps
+ * the row where it is, which costs less than a delete and an insert), or
+ * as a new row when the UPDATE found none or the star is above
+ * LAST_DERIVED, the largest star id with a row. */
 static gboolean
 store_row (SlProject *project, sqlite3_stmt *update, sqlite3_stmt *insert, gint64 run_id,
-           const SlDeriveItem *item, GError **error)
+           gint64 last_derived, const SlDeriveItem *item, GError **error)
 {
-  sqlite3_stmt *stmt = update;
+  sqlite3_stmt *stmt = item->inputs.star_id > last_derived ? insert : update;
 
   for (int pass = 0; pass < 2; pass++, stmt = insert)
     {
@@ -635,14 +656,14 @@ run_in_transaction (SlProject *project, const SlDeriveParams *params, gboolean a
   sqlite3_stmt *update = NULL;
   g_autoptr (GArray) ids = NULL;
   g_autoptr (GHashTable) overrides = NULL;
-  g_autoptr (SlInputCursor) cursor = NULL;
+  g_autoptr (SlInputReader) reader = NULL;
   g_autoptr (SlDerivePool) pool = NULL;
   g_autoptr (GTimer) timer = g_timer_new ();
   sqlite3_stmt *insert = NULL;
   SlStarInputs inputs;
   GError *local = NULL;
   guint64 total;
-  guint next = 0;
+  gint64 last_derived = 0;
   gboolean read_all = FALSE;
   /* Monte Carlo stars take a thousand times longer: report them often. */
   guint check_every = params->errors == SL_ERRORS_MONTE_CARLO ? 64 : ROWS_PER_CHECK;
@@ -666,11 +687,12 @@ run_in_transaction (SlProject *project, const SlDeriveParams *params, gboolean a
   params_text = sl_derive_params_to_keyfile (params);
   ids = stars_to_derive (project, params_text, all, &total, error);
   overrides = ids ? load_all_overrides (project, error) : NULL;
-  report->run_id = overrides ? insert_run (project, params_text, started, error) : 0;
+  last_derived = overrides ? last_derived_star (project, error) : -1;
+  report->run_id = last_derived >= 0 ? insert_run (project, params_text, started, error) : 0;
   insert = report->run_id ? sl_project_prepare (project, insert_sql, error) : NULL;
   update = insert ? sl_project_prepare (project, update_sql, error) : NULL;
-  cursor = update ? sl_input_cursor_new_with_policy (project, 0, &params->combine, error) : NULL;
-  if (cursor == NULL)
+  reader = update ? sl_input_reader_new (project, ids, &params->combine, error) : NULL;
+  if (reader == NULL)
     {
       sqlite3_finalize (insert);
       sqlite3_finalize (update);
@@ -678,8 +700,9 @@ run_in_transaction (SlProject *project, const SlDeriveParams *params, gboolean a
       return FALSE;
     }
 
-  /* This thread reads and writes (one SQLite connection, one thread);
-   * the pool derives, in order, on as many threads as there are cores. */
+  /* This thread writes (one SQLite connection, one thread), the reader
+   * reads on a thread of its own; the pool derives, in order, on as many
+   * threads as there are cores. */
   pool = sl_derive_pool_new (params, sl_derive_threads (), cancellable);
   for (;;)
     {
@@ -689,14 +712,11 @@ run_in_transaction (SlProject *project, const SlDeriveParams *params, gboolean a
         {
           GArray *star_overrides;
 
-          if (next == ids->len || !sl_input_cursor_next (cursor, &inputs, &local))
+          if (!sl_input_reader_next (reader, &inputs, &local))
             {
               read_all = TRUE;
               break;
             }
-          if (inputs.star_id != g_array_index (ids, gint64, next))
-            continue;
-          next++;
           star_overrides = g_hash_table_lookup (overrides, &inputs.star_id);
           sl_derive_pool_push (pool, &inputs,
                                star_overrides ? (const SlOverride *) star_overrides->data : NULL,
@@ -707,12 +727,16 @@ run_in_transaction (SlProject *project, const SlDeriveParams *params, gboolean a
       /* A cancelled worker leaves the rest of its batch underived. */
       if (g_cancellable_set_error_if_cancelled (cancellable, &local))
         break;
-      if (!store_row (project, update, insert, report->run_id, item, &local))
+      if (!store_row (project, update, insert, report->run_id, last_derived, item, &local))
         break;
       report->computed++;
       if (report->computed % check_every == 0 && progress)
         progress ((double) report->computed / ids->len, progress_data);
     }
+  /* Done with before the commit: the reader's snapshot would keep the
+   * checkpoint that follows it from copying this run's pages into the
+   * file. */
+  g_clear_pointer (&reader, sl_input_reader_free);
   sqlite3_finalize (insert);
   sqlite3_finalize (update);
 

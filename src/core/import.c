@@ -4,6 +4,8 @@
  *   column mappings ........ sl_column_map_parse, resolve_columns
  *   cell conversion ........ convert_cell
  *   database writes ........ ImportStatements, store_measurement, store_rejection
+ *   parsing ahead .......... ParseAhead: records split and converted on a thread
+ *   storing a record ....... store_record
  *   the import ............. sl_import_csv (a dry run rolls back at the end)
  *   the preview ............ sl_import_preview
  */
@@ -626,78 +628,251 @@ finish_matcher (Import *im, GError **error)
   return TRUE;
 }
 
-/* Converts and stores one data record; FALSE only on a database error. */
+/* ------------------------------------------------------------------ */
+/* Parsing ahead                                                      */
+
+/* One data record split and converted, everything the database side
+ * needs of it: a thread of its own parses the records ahead of the one
+ * that writes them, and the two halves of an import take about as long. */
+typedef struct {
+  guint       line;
+  const char *raw;          /* in the file's data, which outlives the import */
+  gsize       raw_len;
+  const char *malformed;    /* as SlCsvRecord */
+  gboolean    too_long;
+  guint       n_fields;
+  RowValues   row;          /* texts in the chunk's strings */
+  int         bad_column;   /* the column of the first cell refused, or -1 */
+  char       *reason;       /* why it was refused (owned until stored) */
+  gsize       offset;       /* how far the reader had got, for progress */
+} ParsedRecord;
+
+#define PARSED_PER_CHUNK 512
+#define PARSE_CHUNKS     4
+
+typedef struct {
+  ParsedRecord  records[PARSED_PER_CHUNK];
+  guint         n;
+  GStringChunk *strings;
+  gboolean      last;       /* no chunk follows */
+} ParsedChunk;
+
+typedef struct {
+  SlCsvReader           *reader;
+  const ColumnPlan      *plan;
+  const char *const     *missing;
+  GThread               *thread;
+  GPtrArray             *chunks;    /* every ParsedChunk, for freeing */
+  GAsyncQueue           *empty;
+  GAsyncQueue           *full;
+  ParsedChunk           *current;
+  guint                  next;
+  gint                   stop;      /* atomic: the writer is done */
+} ParseAhead;
+
+/* Pushed to wake the parsing thread when it must stop. */
+static ParsedChunk parse_wake_up;
+
+/* Splits and converts RECORD into P; the conversion stops at the first
+ * cell refused. */
+static void
+parse_record (const ColumnPlan *plan, const char *const *missing, SlCsvRecord *record,
+              GStringChunk *strings, ParsedRecord *p)
+{
+  p->line = record->line;
+  p->raw = record->raw;
+  p->raw_len = record->raw_len;
+  p->malformed = record->malformed;
+  p->too_long = record->too_long;
+  p->n_fields = record->n_fields;
+  p->bad_column = -1;
+  p->reason = NULL;
+  memset (p->row.present, 0, sizeof p->row.present);
+  if (record->too_long || record->malformed || record->n_fields != plan->n_columns)
+    return;
+  for (SlField f = 0; f < SL_N_FIELDS; f++)
+    {
+      int column = plan->column[f];
+
+      if (column < 0)
+        continue;
+      if (!convert_cell (f, plan->unit[f], record->fields[column], missing, &p->row, &p->reason))
+        {
+          p->bad_column = column;
+          return;
+        }
+      /* The record's texts last until the reader's next record. */
+      if (p->row.present[f] && (sl_field_info (f)->kind == SL_FIELD_KIND_IDENTIFIER
+                                 || sl_field_info (f)->kind == SL_FIELD_KIND_TEXT))
+        p->row.text[f] = g_string_chunk_insert (strings, p->row.text[f]);
+    }
+}
+
+static gpointer
+parse_ahead_thread (gpointer data)
+{
+  ParseAhead *ahead = data;
+  gboolean last = FALSE;
+
+  while (!last)
+    {
+      ParsedChunk *chunk = g_async_queue_pop (ahead->empty);
+
+      if (g_atomic_int_get (&ahead->stop))
+        break;
+      chunk->n = 0;
+      g_string_chunk_clear (chunk->strings);
+      while (chunk->n < PARSED_PER_CHUNK && !g_atomic_int_get (&ahead->stop))
+        {
+          ParsedRecord *p = &chunk->records[chunk->n];
+          SlCsvRecord record;
+
+          if (!sl_csv_reader_next (ahead->reader, &record))
+            {
+              chunk->last = TRUE;
+              break;
+            }
+          parse_record (ahead->plan, ahead->missing, &record, chunk->strings, p);
+          p->offset = sl_csv_reader_get_offset (ahead->reader);
+          chunk->n++;
+          if (record.too_long)   /* the import stops there */
+            {
+              chunk->last = TRUE;
+              break;
+            }
+        }
+      last = chunk->last;
+      g_async_queue_push (ahead->full, chunk);
+    }
+  return NULL;
+}
+
+static void
+parse_ahead_start (ParseAhead *ahead, SlCsvReader *reader, const ColumnPlan *plan,
+                   const char *const *missing)
+{
+  memset (ahead, 0, sizeof *ahead);
+  ahead->reader = reader;
+  ahead->plan = plan;
+  ahead->missing = missing;
+  ahead->chunks = g_ptr_array_new ();
+  ahead->empty = g_async_queue_new ();
+  ahead->full = g_async_queue_new ();
+  for (int i = 0; i < PARSE_CHUNKS; i++)
+    {
+      ParsedChunk *chunk = g_new0 (ParsedChunk, 1);
+
+      chunk->strings = g_string_chunk_new (4096);
+      g_ptr_array_add (ahead->chunks, chunk);
+      g_async_queue_push (ahead->empty, chunk);
+    }
+  /* From here on only the thread uses the reader, until it is joined. */
+  ahead->thread = g_thread_new ("sl-parse-ahead", parse_ahead_thread, ahead);
+}
+
+/* The next record parsed, NULL at the end.  Valid until the next call. */
+static ParsedRecord *
+parse_ahead_next (ParseAhead *ahead)
+{
+  for (;;)
+    {
+      ParsedChunk *chunk = ahead->current;
+
+      if (chunk != NULL && ahead->next < chunk->n)
+        return &chunk->records[ahead->next++];
+      if (chunk != NULL && chunk->last)
+        return NULL;
+      if (chunk != NULL)
+        g_async_queue_push (ahead->empty, chunk);
+      ahead->current = g_async_queue_pop (ahead->full);
+      ahead->next = 0;
+    }
+}
+
+static void
+parse_ahead_stop (ParseAhead *ahead)
+{
+  g_atomic_int_set (&ahead->stop, 1);
+  g_async_queue_push (ahead->empty, &parse_wake_up);
+  g_thread_join (ahead->thread);
+  for (guint i = 0; i < ahead->chunks->len; i++)
+    {
+      ParsedChunk *chunk = g_ptr_array_index (ahead->chunks, i);
+
+      /* Reasons of records parsed but never stored. */
+      for (guint r = 0; r < chunk->n; r++)
+        g_free (chunk->records[r].reason);
+      g_string_chunk_free (chunk->strings);
+      g_free (chunk);
+    }
+  g_ptr_array_unref (ahead->chunks);
+  g_async_queue_unref (ahead->empty);
+  g_async_queue_unref (ahead->full);
+}
+
+/* Stores one parsed data record; FALSE only on a database error. */
 static gboolean
-import_record (Import *im, SlCsvRecord *record, GError **error)
+store_record (Import *im, ParsedRecord *p, GError **error)
 {
   SlImportReport *report = im->report;
   const ColumnPlan *plan = &im->plan;
-  RowValues row;
+  SlCsvRecord record = { .line = p->line, .raw = p->raw, .raw_len = p->raw_len };
+  RowValues *row = &p->row;
   gint64 star_id;
   int rc;
 
   report->rows_read++;
 
-  if (record->malformed)
-    return store_rejection (&im->st, report->source_id, record, NULL,
-                            g_strdup (_(record->malformed)), report)
+  if (p->malformed)
+    return store_rejection (&im->st, report->source_id, &record, NULL,
+                            g_strdup (_(p->malformed)), report)
            || (sl_project_set_db_error (im->project, error, "rejected_rows"), FALSE);
 
-  if (record->n_fields != plan->n_columns)
-    return store_rejection (&im->st, report->source_id, record, NULL,
+  if (p->n_fields != plan->n_columns)
+    return store_rejection (&im->st, report->source_id, &record, NULL,
                             g_strdup_printf (_("the row has %u fields, the header has %u"),
-                                             record->n_fields, plan->n_columns),
+                                             p->n_fields, plan->n_columns),
                             report)
            || (sl_project_set_db_error (im->project, error, "rejected_rows"), FALSE);
 
-  memset (row.present, 0, sizeof row.present);
-  for (SlField f = 0; f < SL_N_FIELDS; f++)
-    {
-      int column = plan->column[f];
-      char *reason = NULL;
-
-      if (column < 0)
-        continue;
-      if (!convert_cell (f, plan->unit[f], record->fields[column], im->options->missing,
-                         &row, &reason))
-        return store_rejection (&im->st, report->source_id, record,
-                                im->header->fields[column], reason, report)
-               || (sl_project_set_db_error (im->project, error, "rejected_rows"), FALSE);
-    }
+  if (p->bad_column >= 0)
+    return store_rejection (&im->st, report->source_id, &record,
+                            im->header->fields[p->bad_column], g_steal_pointer (&p->reason), report)
+           || (sl_project_set_db_error (im->project, error, "rejected_rows"), FALSE);
 
   /* A parallax below 1 with an error below 0.01 is a fine measurement
    * in arcseconds and an impossible one in mas (no survey measures to
    * 10 microarcseconds): counted for unit_warnings. */
-  if (row.present[SL_FIELD_PARALLAX] && row.present[SL_FIELD_PARALLAX_ERR])
+  if (row->present[SL_FIELD_PARALLAX] && row->present[SL_FIELD_PARALLAX_ERR])
     {
       im->parallax_rows++;
-      if (fabs (row.number[SL_FIELD_PARALLAX]) < 1.0 && row.number[SL_FIELD_PARALLAX_ERR] < 0.01)
+      if (fabs (row->number[SL_FIELD_PARALLAX]) < 1.0 && row->number[SL_FIELD_PARALLAX_ERR] < 0.01)
         im->parallax_small_rows++;
     }
 
-  if (!row.present[SL_FIELD_EPOCH] && isfinite (im->options->epoch))
+  if (!row->present[SL_FIELD_EPOCH] && isfinite (im->options->epoch))
     {
-      row.number[SL_FIELD_EPOCH] = im->options->epoch;
-      row.present[SL_FIELD_EPOCH] = TRUE;
+      row->number[SL_FIELD_EPOCH] = im->options->epoch;
+      row->present[SL_FIELD_EPOCH] = TRUE;
     }
 
   {
     char *reason = NULL;
 
-    star_id = star_for_row (im, &row, record->line, &reason, error);
+    star_id = star_for_row (im, row, p->line, &reason, error);
     if (star_id < 0)
-      return store_rejection (&im->st, report->source_id, record, NULL, reason, report)
+      return store_rejection (&im->st, report->source_id, &record, NULL, reason, report)
              || (sl_project_set_db_error (im->project, error, "rejected_rows"), FALSE);
     if (star_id == 0)
       return FALSE;
   }
 
-  rc = store_measurement (&im->st, star_id, report->source_id, record->line, &row);
+  rc = store_measurement (&im->st, star_id, report->source_id, p->line, row);
   if (rc == SQLITE_CONSTRAINT)
-    return store_rejection (&im->st, report->source_id, record,
+    return store_rejection (&im->st, report->source_id, &record,
                             im->header->fields[plan->column[SL_FIELD_ID]],
                             g_strdup_printf (_("id '%s' appears twice in this file (first on line %u)"),
-                                             row.text[SL_FIELD_ID],
+                                             row->text[SL_FIELD_ID],
                                              first_line_of (&im->st, report->source_id, star_id)),
                             report)
            || (sl_project_set_db_error (im->project, error, "rejected_rows"), FALSE);
@@ -973,34 +1148,37 @@ note_missing_epoch (const ColumnPlan *plan, const SlImportOptions *options,
 }
 
 /* Reads records to the end, storing each; FALSE on a database error or a
- * cancel. */
+ * cancel.  The records are parsed on a thread of their own. */
 static gboolean
 import_records (Import *im, SlCsvReader *reader, gsize length, GError **error)
 {
-  SlCsvRecord record;
+  ParseAhead ahead;
+  ParsedRecord *p;
   guint64 count = 0;
+  gboolean ok = TRUE;
 
-  while (sl_csv_reader_next (reader, &record))
+  parse_ahead_start (&ahead, reader, &im->plan, im->options->missing);
+  while (ok && (p = parse_ahead_next (&ahead)) != NULL)
     {
-      if (record.too_long)
+      if (p->too_long)
         {
           g_set_error (error, SL_ERROR, SL_ERROR_BAD_INPUT,
                        _("%s:%u: line longer than %d MiB; not a table of measurements"),
-                       im->report->file_name, record.line, SL_CSV_MAX_RECORD_MIB);
-          return FALSE;
+                       im->report->file_name, p->line, SL_CSV_MAX_RECORD_MIB);
+          ok = FALSE;
         }
-      if (!import_record (im, &record, error))
-        return FALSE;
-      if (++count % ROWS_PER_CHECK == 0)
+      else if (!store_record (im, p, error))
+        ok = FALSE;
+      else if (++count % ROWS_PER_CHECK == 0)
         {
           if (g_cancellable_set_error_if_cancelled (im->options->cancellable, error))
-            return FALSE;
-          if (im->options->progress)
-            im->options->progress ((double) sl_csv_reader_get_offset (reader) / length,
-                                   im->options->progress_data);
+            ok = FALSE;
+          else if (im->options->progress)
+            im->options->progress ((double) p->offset / length, im->options->progress_data);
         }
     }
-  return TRUE;
+  parse_ahead_stop (&ahead);
+  return ok;
 }
 
 static gboolean
@@ -1245,8 +1423,20 @@ sl_import_csv (SlProject *project, const char *path, const SlImportOptions *opti
       return NULL;
     }
   stamp_file (fd, &stamp);
+  /* Every reference an import writes is to a row it wrote or found in
+   * its own transaction (its source, each row's star, each match's
+   * measurement): checking them again for each row cost a tenth of the
+   * import's time.  The setting holds for whole transactions, so it
+   * changes outside one, as for a derivation run. */
+  if (!sl_project_exec (project, "PRAGMA foreign_keys = OFF", error))
+    {
+      close (fd);
+      return NULL;
+    }
   report = import_file (project, path, fd, &stamp, options, error);
   close (fd);
+  if (!sl_project_exec (project, "PRAGMA foreign_keys = ON", report ? error : NULL))
+    g_clear_pointer (&report, sl_import_report_free);
   return report;
 }
 
