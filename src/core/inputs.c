@@ -1,6 +1,7 @@
 /* inputs.c: choosing a star's inputs among its measurements. */
 #include "inputs.h"
 
+#include <inttypes.h>
 #include <math.h>
 #include <string.h>
 
@@ -420,6 +421,15 @@ sl_input_cursor_next (SlInputCursor *cursor, SlStarInputs *inputs, GError **erro
     }
 
   inputs->star_id = cursor->star_id = sqlite3_column_int64 (cursor->stmt, 0);
+  /* The schema says NOT NULL; a damaged file may say otherwise. */
+  if (sqlite3_column_type (cursor->stmt, 1) != SQLITE_TEXT)
+    {
+      cursor->has_pending = FALSE;
+      cursor->finished = TRUE;
+      g_set_error (error, SL_ERROR, SL_ERROR_DATABASE, _("star %" PRId64 " has no designation: the project is damaged"),
+                   inputs->star_id);
+      return FALSE;
+    }
   inputs->designation = cursor->designation =
     g_string_chunk_insert (cursor->strings, (const char *) sqlite3_column_text (cursor->stmt, 1));
   do
@@ -655,7 +665,7 @@ check_source_order (SlProject *project, const SlCombinePolicy *policy, GError **
       gboolean known = FALSE;
 
       for (guint n = 0; n < names->len && !known; n++)
-        known = strcmp (order[i], names->pdata[n]) == 0;
+        known = g_strcmp0 (order[i], names->pdata[n]) == 0;
       if (!known)
         {
           g_autoptr (GString) all = g_string_new (NULL);
