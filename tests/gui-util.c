@@ -69,6 +69,18 @@ sl_gui_choose (GtkDropDown *chooser, const char *text)
   return FALSE;
 }
 
+static gboolean
+wake (gpointer data)
+{
+  return G_SOURCE_CONTINUE;
+}
+
+void
+sl_gui_wake_loop_every (guint ms)
+{
+  g_timeout_add (ms, wake, NULL);
+}
+
 static void
 count_paint (GdkFrameClock *clock, guint *painted)
 {

@@ -24,6 +24,11 @@ GtkWindow *sl_gui_find_toplevel   (GType type);
  * click would; FALSE if there is none. */
 gboolean   sl_gui_choose          (GtkDropDown *chooser, const char *text);
 
+/* A timer that wakes the main loop every MS milliseconds, so that a wait
+ * spinning g_main_context_iteration (NULL, TRUE) sees its condition
+ * change even when nothing else happens. */
+void       sl_gui_wake_loop_every (guint ms);
+
 /* Asks TOPLEVEL for a new frame and spins the main loop until it has
  * been painted (everything changed before the call is then on screen).
  * NULL when it was; otherwise what did not happen within TIMEOUT_S

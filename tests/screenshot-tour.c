@@ -69,12 +69,6 @@ die (const char *format, ...)
       }                                                                           \
   } G_STMT_END
 
-static gboolean
-wake (gpointer data)
-{
-  return G_SOURCE_CONTINUE;
-}
-
 /* Spins for about MS milliseconds: for an animation that has no signal
  * to wait for. */
 static void
@@ -654,7 +648,7 @@ main (int argc, char **argv)
   app = sl_application_new ();
   if (!g_application_register (G_APPLICATION (app), NULL, &error))
     die ("cannot register the application: %s", error->message);
-  g_timeout_add (20, wake, NULL);
+  sl_gui_wake_loop_every (20);
 
   project = g_build_filename (g_get_home_dir (), "Observing", "nearby-stars.starledger", NULL);
   window = sl_window_new (GTK_APPLICATION (app));

@@ -67,12 +67,6 @@ static SlWindow      *demo;   /* the window on the demo project, made by the fir
       }                                                                                       \
   } G_STMT_END
 
-static gboolean
-wake (gpointer data)
-{
-  return G_SOURCE_CONTINUE;
-}
-
 
 /* Asks TOPLEVEL for a new frame and spins until it has been painted:
  * everything changed before the call is on screen after it.  FALSE on a
@@ -3209,7 +3203,7 @@ main (int argc, char **argv)
   app = sl_application_new ();
   if (!g_application_register (G_APPLICATION (app), NULL, &error))
     g_error ("cannot register the application: %s", error->message);
-  g_timeout_add (20, wake, NULL);
+  sl_gui_wake_loop_every (20);
 
   g_test_add_func ("/gui/demo/populated", test_demo_populated);
   g_test_add_func ("/gui/selection/shared", test_selection_shared);

@@ -198,6 +198,18 @@ sl_sky_index_new (double radius_arcsec)
   return index;
 }
 
+/* KEY at (RA, DEC) as the index keeps it. */
+static void
+make_point (const SlSkyIndex *index, double ra, double dec, gint64 key, Point *p)
+{
+  p->ra = fmod (ra, 360.0);
+  if (p->ra < 0)
+    p->ra += 360.0;
+  unit_vector (p->ra, dec, p->v);
+  p->key = key;
+  p->zone = zone_of (index, dec);
+}
+
 void
 sl_sky_index_add (SlSkyIndex *index, double ra, double dec, gint64 key)
 {
@@ -206,12 +218,7 @@ sl_sky_index_add (SlSkyIndex *index, double ra, double dec, gint64 key)
   g_return_if_fail (index != NULL && !index->built);
   g_return_if_fail (isfinite (ra) && isfinite (dec));
 
-  p.ra = fmod (ra, 360.0);
-  if (p.ra < 0)
-    p.ra += 360.0;
-  unit_vector (p.ra, dec, p.v);
-  p.key = key;
-  p.zone = zone_of (index, dec);
+  make_point (index, ra, dec, key, &p);
   g_array_append_val (index->points, p);
 }
 
@@ -441,12 +448,7 @@ propagate_stars (gpointer data, gsize first, gsize last)
       if (!isfinite (job->stars[i].ra) || !isfinite (job->stars[i].dec))
         continue;
       sl_astrometry_propagate (&job->stars[i], job->epoch, &ra, &dec);
-      p->ra = fmod (ra, 360.0);
-      if (p->ra < 0)
-        p->ra += 360.0;
-      unit_vector (p->ra, dec, p->v);
-      p->key = (gint64) i;
-      p->zone = zone_of (job->index, dec);
+      make_point (job->index, ra, dec, (gint64) i, p);
     }
 }
 

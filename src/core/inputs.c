@@ -220,8 +220,12 @@ static gboolean
 mean_of_rows (const GArray *rows, const SlField *values, guint n_values, SlField field, SlWeightedMean *mean,
               guint *n_rows)
 {
-  g_autoptr (GArray) x = g_array_new (FALSE, FALSE, sizeof (double));
-  g_autoptr (GArray) e = g_array_new (FALSE, FALSE, sizeof (double));
+  /* On the cursor's path for every star with several rows: no allocation
+   * for the usual handful of sources. */
+  double stack[2 * 16];
+  g_autofree double *heap = rows->len > 16 ? g_new (double, 2 * rows->len) : NULL;
+  double *x = heap ? heap : stack, *e = x + (heap ? rows->len : 16);
+  guint n = 0;
 
   for (guint r = 0; r < rows->len; r++)
     {
@@ -229,11 +233,11 @@ mean_of_rows (const GArray *rows, const SlField *values, guint n_values, SlField
 
       if (!row_has_errors (row, values, n_values))
         continue;
-      g_array_append_val (x, row->value[field]);
-      g_array_append_val (e, row->value[sl_field_info (field)->error]);
+      x[n] = row->value[field];
+      e[n++] = row->value[sl_field_info (field)->error];
     }
-  *n_rows = x->len;
-  return x->len >= 2 && sl_weighted_mean ((double *) x->data, (double *) e->data, x->len, mean);
+  *n_rows = n;
+  return n >= 2 && sl_weighted_mean (x, e, n, mean);
 }
 
 /* The single row a group takes under RULE (not a mean): NULL if no row
@@ -259,31 +263,39 @@ choose_row (const GArray *rows, const FieldGroup *group, SlCombineRule rule)
   return best;
 }
 
-/* The chi-square of the rows' agreement, summed over the group's values
- * (for the proper motion, both components: 2 (n - 1) degrees of
- * freedom).  Positions are not tested: rows of different epochs differ
- * by the proper motion. */
-static void
-test_agreement (const GArray *rows, const FieldGroup *group, const SlCombinePolicy *policy,
-                SlStarInputs *inputs)
+/* The weighted mean of each of the group's values over the rows that
+ * have them all with errors (the same rows for each component), the one
+ * computation behind both the agreement test and the mean; FALSE with
+ * fewer than two such rows.  Positions are left out: rows of different
+ * epochs differ by the proper motion. */
+static gboolean
+group_means (const GArray *rows, const FieldGroup *group, SlWeightedMean *means, guint *n_rows)
 {
   SlField values[2];
-  guint n_values = group_values (group, values), n_rows = 0;
-  double chi2 = 0.0;
-  guint dof = 0;
+  guint n_values = group_values (group, values);
 
-  inputs->chi2[group->lead] = inputs->p_value[group->lead] = NAN;
-  inputs->dof[group->lead] = inputs->n_tested[group->lead] = 0;
-  if (group->lead == SL_FIELD_RA)
-    return;
+  if (group->lead == SL_FIELD_RA || rows->len < 2)
+    return FALSE;
+  for (guint v = 0; v < n_values; v++)
+    if (!mean_of_rows (rows, values, n_values, values[v], &means[v], n_rows))
+      return FALSE;
+  return TRUE;
+}
+
+/* The agreement test: chi-square summed over the group's values (for the
+ * proper motion both components, 2 (n - 1) degrees of freedom). */
+static void
+record_agreement (const FieldGroup *group, const SlWeightedMean *means, guint n_rows,
+                  const SlCombinePolicy *policy, SlStarInputs *inputs)
+{
+  SlField values[2];
+  guint n_values = group_values (group, values), dof = 0;
+  double chi2 = 0.0;
+
   for (guint v = 0; v < n_values; v++)
     {
-      SlWeightedMean mean;
-
-      if (!mean_of_rows (rows, values, n_values, values[v], &mean, &n_rows))
-        return;
-      chi2 += mean.chi2;
-      dof += mean.dof;
+      chi2 += means[v].chi2;
+      dof += means[v].dof;
     }
   inputs->n_tested[group->lead] = n_rows;
   inputs->chi2[group->lead] = chi2;
@@ -293,20 +305,16 @@ test_agreement (const GArray *rows, const FieldGroup *group, const SlCombinePoli
     inputs->flags |= SL_FLAG_SOURCES_DISAGREE;
 }
 
-/* The group's values as the weighted mean of every row with errors; FALSE
- * (and INPUTS untouched) with fewer than two such rows. */
-static gboolean
-take_weighted_mean (const GArray *rows, const FieldGroup *group, SlStarInputs *inputs)
+/* The group's values as their means; the recorded row is the most
+ * precise of those averaged. */
+static void
+take_means (const GArray *rows, const FieldGroup *group, const SlWeightedMean *means, guint n_rows,
+            SlStarInputs *inputs)
 {
   SlField values[2];
   guint n_values = group_values (group, values);
   const MeasurementRow *most_precise = NULL;
-  SlWeightedMean mean[2];
-  guint n_rows = 0;
 
-  for (guint v = 0; v < n_values; v++)
-    if (!mean_of_rows (rows, values, n_values, values[v], &mean[v], &n_rows))
-      return FALSE;
   for (guint r = 0; r < rows->len; r++)
     {
       const MeasurementRow *row = &g_array_index (rows, MeasurementRow, r);
@@ -320,13 +328,12 @@ take_weighted_mean (const GArray *rows, const FieldGroup *group, SlStarInputs *i
       SlField error = sl_field_info (values[v])->error;
 
       inputs->present[values[v]] = inputs->present[error] = TRUE;
-      inputs->value[values[v]] = mean[v].mean;
-      inputs->value[error] = mean[v].error;
+      inputs->value[values[v]] = means[v].mean;
+      inputs->value[error] = means[v].error;
     }
   for (guint m = 0; m < group->n_members; m++)
     inputs->measurement[group->members[m]] = most_precise->id;
   inputs->n_combined[group->lead] = n_rows;
-  return TRUE;
 }
 
 static void
@@ -377,13 +384,19 @@ choose_inputs (SlInputCursor *cursor, const SlCombinePolicy *policy, SlStarInput
   for (gsize g = 0; g < G_N_ELEMENTS (groups); g++)
     {
       SlCombineRule rule = policy->rule[groups[g].lead];
+      SlWeightedMean means[2];
       const MeasurementRow *row;
+      guint n_rows = 0;
 
-      if (cursor->rows->len > 1)
-        test_agreement (cursor->rows, &groups[g], policy, inputs);
-      if (rule == SL_COMBINE_WEIGHTED_MEAN && cursor->rows->len > 1
-          && take_weighted_mean (cursor->rows, &groups[g], inputs))
-        continue;
+      if (group_means (cursor->rows, &groups[g], means, &n_rows))
+        {
+          record_agreement (&groups[g], means, n_rows, policy, inputs);
+          if (rule == SL_COMBINE_WEIGHTED_MEAN)
+            {
+              take_means (cursor->rows, &groups[g], means, n_rows, inputs);
+              continue;
+            }
+        }
       row = choose_row (cursor->rows, &groups[g], rule);
       if (row != NULL)
         take_row (row, &groups[g], inputs);

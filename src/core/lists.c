@@ -273,53 +273,7 @@ fail:
 gboolean
 sl_list_create (SlProject *project, const char *name, const char *description, GError **error)
 {
-  g_autofree char *now = sl_now_utc ();
-  g_autofree char *summary = NULL;
-  g_autoptr (GString) details = g_string_new ("{\"list\": ");
-  sqlite3_stmt *stmt;
-  gint64 list_id;
-  gboolean ok;
-
-  g_return_val_if_fail (project != NULL, FALSE);
-
-  if (!check_name (name, error) || !check_text (_("description"), description, error))
-    return FALSE;
-  if (!sl_project_begin (project, error))
-    return FALSE;
-  if (!find_list (project, name, &list_id, error))
-    goto fail;
-  if (list_id != 0)
-    {
-      g_set_error (error, SL_ERROR, SL_ERROR_EXISTS, _("%s: there is already a list '%s'"),
-                   sl_project_path (project), name);
-      goto fail;
-    }
-  stmt = sl_project_prepare (project,
-                             "INSERT INTO lists (name, description, condition, created_by, created_at) "
-                             "VALUES (?, ?, NULL, ?, ?)", error);
-  if (stmt == NULL)
-    goto fail;
-  sqlite3_bind_text (stmt, 1, name, -1, SQLITE_STATIC);
-  sqlite3_bind_text (stmt, 2, description ? description : "", -1, SQLITE_STATIC);
-  sqlite3_bind_text (stmt, 3, sl_current_user (), -1, SQLITE_TRANSIENT);
-  sqlite3_bind_text (stmt, 4, now, -1, SQLITE_STATIC);
-  ok = sqlite3_step (stmt) == SQLITE_DONE;
-  if (!ok)
-    sl_project_set_db_error (project, error, "lists");
-  sqlite3_finalize (stmt);
-
-  summary = g_strdup_printf (_("made list %s by hand (empty)"), name);
-  sl_json_append_string (details, name);
-  g_string_append (details, ", \"description\": ");
-  sl_json_append_string (details, description ? description : "");
-  g_string_append (details, "}");
-  if (!ok || !append_to_ledger (project, summary, details, error) || !sl_project_commit (project, error))
-    goto fail;
-  return TRUE;
-
-fail:
-  sl_project_rollback (project);
-  return FALSE;
+  return sl_list_create_with_stars (project, name, NULL, NULL, description, error) >= 0;
 }
 
 static gboolean star_exists (SlProject *project, const char *designation, GError **error);
@@ -472,6 +426,8 @@ sl_list_create_with_stars (SlProject *project, const char *name, const char *con
                                             "made list %s: %" PRId64 " stars where %s, and %" PRId64 " more by hand",
                                             n_condition),
                                name, n_condition, condition_text, n_hand);
+  else if (n == 0)
+    summary = g_strdup_printf (_("made list %s by hand (empty)"), name);
   else
     summary = g_strdup_printf (g_dngettext (GETTEXT_PACKAGE, "made list %s by hand: %" PRId64 " star",
                                             "made list %s by hand: %" PRId64 " stars", n),

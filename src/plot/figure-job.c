@@ -107,15 +107,22 @@ static gboolean
 check_stars_exist (const SlStarSet *stars, char **wanted, const char *project, const char *list,
                    GError **error)
 {
-  g_autoptr (GHashTable) known = NULL;
+  g_autoptr (GHashTable) missing = NULL;
 
   if (wanted == NULL || wanted[0] == NULL)
     return TRUE;
-  known = g_hash_table_new (g_str_hash, g_str_equal);
-  for (guint i = 0; i < stars->stars->len; i++)
-    g_hash_table_add (known, (gpointer) sl_star_set_get (stars, i)->designation);
-  for (guint i = 0; wanted && wanted[i]; i++)
-    if (!g_hash_table_contains (known, wanted[i]))
+  /* The few stars named, looked for in one pass over the set (which may
+   * hold a million), stopping once all are found. */
+  missing = g_hash_table_new (g_str_hash, g_str_equal);
+  for (guint i = 0; wanted[i]; i++)
+    g_hash_table_add (missing, wanted[i]);
+  for (guint i = 0; i < stars->stars->len && g_hash_table_size (missing) > 0; i++)
+    g_hash_table_remove (missing, sl_star_set_get (stars, i)->designation);
+  if (g_hash_table_size (missing) == 0)
+    return TRUE;
+  /* Name the first one asked for that is missing. */
+  for (guint i = 0; wanted[i]; i++)
+    if (g_hash_table_contains (missing, wanted[i]))
       {
         if (list)
           g_set_error (error, SL_ERROR, SL_ERROR_UNKNOWN_NAME, _("%s: star '%s' is not in list '%s'"), project,
@@ -123,9 +130,9 @@ check_stars_exist (const SlStarSet *stars, char **wanted, const char *project, c
         else
           g_set_error (error, SL_ERROR, SL_ERROR_UNKNOWN_NAME, _("%s: no star '%s' in the project"), project,
                        wanted[i]);
-        return FALSE;
+        break;
       }
-  return TRUE;
+  return FALSE;
 }
 
 SlStarSet *
